@@ -1,0 +1,111 @@
+// Semi-implicit (symplectic) Euler time stepping of a Model in a World:
+//   v_{n+1} = v_n + dt · M⁻¹ f(x_n, v_n),   x_{n+1} = x_n + dt · v_{n+1}.
+// The caller sets a control vector once per control interval (zero-order hold for forces and
+// actuators; driven nodes move linearly to their new target over the interval) and then
+// advances a number of equal sub-steps. All buffers are allocated in the constructor.
+import type { Model } from './model.ts';
+import type { World } from './world.ts';
+import { writeBodyForces } from './body-forces.ts';
+import { accumulateSpringForces } from './spring-forces.ts';
+import { accumulateFluidDrag } from './fluid-drag.ts';
+import { projectGroundContact } from './ground-contact.ts';
+import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
+
+export class Simulator {
+  readonly forceN: Float64Array;
+  private readonly handleForceN: Float64Array;
+  private readonly drivenStartM: Float64Array;
+  private readonly drivenTargetM: Float64Array;
+  private readonly drivenVelocityMPerS: Float64Array;
+  timeS = 0;
+
+  constructor(readonly model: Model, readonly world: World) {
+    this.forceN = new Float64Array(3 * model.nodeCount);
+    this.handleForceN = new Float64Array(3 * model.handleNodes.length);
+    this.drivenStartM = new Float64Array(3 * model.drivenNodes.length);
+    this.drivenTargetM = Float64Array.from(model.drivenOriginM);
+    this.drivenVelocityMPerS = new Float64Array(3 * model.drivenNodes.length);
+  }
+
+  /** Applies a control vector (length ≥ model.controlChannelCount) until the next call. */
+  setControls(controls: Float64Array): void {
+    const model = this.model;
+    if (model.actuationEntryCount > 0) applyActuation(model, controls);
+    writeHandleForces(model, controls, this.handleForceN);
+    if (model.drivenNodes.length > 0) writeDrivenTargets(model, controls, this.drivenTargetM);
+  }
+
+  /** Advances one control interval of `substeps` equal steps, intervalS long in total. */
+  advanceInterval(intervalS: number, substeps: number): void {
+    const dtS = intervalS / substeps;
+    const model = this.model;
+    const driven = model.drivenNodes;
+    const x = model.positionM;
+    if (driven.length > 0) {
+      // Driven nodes travel from where they are to their target at constant velocity.
+      for (let d = 0; d < driven.length; d++) {
+        const o = 3 * driven[d];
+        for (let k = 0; k < 3; k++) {
+          this.drivenStartM[3 * d + k] = x[o + k];
+          this.drivenVelocityMPerS[3 * d + k] = (this.drivenTargetM[3 * d + k] - x[o + k]) / intervalS;
+        }
+      }
+    }
+    for (let s = 0; s < substeps; s++) {
+      this.step(dtS);
+      if (driven.length > 0) this.placeDrivenNodes((s + 1) / substeps);
+    }
+  }
+
+  /** One semi-implicit Euler step of length dtS. */
+  step(dtS: number): void {
+    const model = this.model;
+    const world = this.world;
+    const f = this.forceN;
+    writeBodyForces(model, world, f);
+    accumulateSpringForces(model, f);
+    if (world.fluid.enabled && model.panelCount > 0) accumulateFluidDrag(model, world.fluid, f);
+    const handles = model.handleNodes;
+    const hf = this.handleForceN;
+    for (let h = 0; h < handles.length; h++) {
+      const o = 3 * handles[h];
+      f[o] += hf[3 * h];
+      f[o + 1] += hf[3 * h + 1];
+      f[o + 2] += hf[3 * h + 2];
+    }
+    const x = model.positionM;
+    const v = model.velocityMPerS;
+    const invM = model.inverseMassPerKg;
+    const n = model.nodeCount;
+    for (let i = 0; i < n; i++) {
+      const w = invM[i] * dtS;
+      const o = 3 * i;
+      v[o] += w * f[o];
+      v[o + 1] += w * f[o + 1];
+      v[o + 2] += w * f[o + 2];
+    }
+    if (world.ground.enabled) projectGroundContact(model, world.ground, dtS);
+    for (let i = 0; i < n; i++) {
+      if (invM[i] === 0) continue;
+      const o = 3 * i;
+      x[o] += dtS * v[o];
+      x[o + 1] += dtS * v[o + 1];
+      x[o + 2] += dtS * v[o + 2];
+    }
+    this.timeS += dtS;
+  }
+
+  private placeDrivenNodes(fraction: number): void {
+    const driven = this.model.drivenNodes;
+    const x = this.model.positionM;
+    const v = this.model.velocityMPerS;
+    for (let d = 0; d < driven.length; d++) {
+      const o = 3 * driven[d];
+      for (let k = 0; k < 3; k++) {
+        const start = this.drivenStartM[3 * d + k];
+        x[o + k] = start + fraction * (this.drivenTargetM[3 * d + k] - start);
+        v[o + k] = this.drivenVelocityMPerS[3 * d + k];
+      }
+    }
+  }
+}
