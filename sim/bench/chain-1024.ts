@@ -1,0 +1,46 @@
+// The chain-1024 reference case, fixed by definition so runs can be compared across machines
+// and against the plain C build of the same kernel: 1,024 nodes at rest on the x axis with
+// spacing 0.01 m, 0.01 kg each, node 0 pinned; structural springs (i, i+1) k = 200 N/m,
+// c = 0.05 N·s/m, rest 0.01 m; bending springs (i, i+2) k = 20 N/m, c = 0.005 N·s/m, rest
+// 0.02 m; gravity (0, −9.81, 0); no drag, no contact; dt = 1e-4 s fixed, 10,000 steps.
+// The checksum is the sum of all position coordinates at the end (expected 408.1644…).
+import { ModelBuilder } from '../core/model-builder.ts';
+import { NODE_PINNED, RELATION_BENDING, RELATION_STRUCTURAL } from '../core/model.ts';
+import type { Model } from '../core/model.ts';
+import { Simulator } from '../core/simulator.ts';
+import { defaultWorld } from '../core/world.ts';
+import type { BenchmarkCase } from './benchmark-case.ts';
+
+export const CHAIN_1024_NODES = 1024;
+export const CHAIN_1024_STEPS = 10_000;
+export const CHAIN_1024_DT_S = 1e-4;
+
+export function buildChain1024(): Model {
+  const builder = new ModelBuilder(8, 2, 0);
+  for (let i = 0; i < CHAIN_1024_NODES; i++) {
+    builder.addNode({ positionM: [0.01 * i, 0, 0], massKg: 0.01, flags: i === 0 ? NODE_PINNED : 0 });
+  }
+  for (let i = 0; i + 1 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 1, 200, 0.05, RELATION_STRUCTURAL, 0.01);
+  for (let i = 0; i + 2 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 2, 20, 0.005, RELATION_BENDING, 0.02);
+  return builder.build();
+}
+
+/** Runs the case and returns the checksum and timing. */
+export function runChain1024(): { checksum: number; seconds: number; springUpdates: number } {
+  const model = buildChain1024();
+  const simulator = new Simulator(model, defaultWorld());
+  const start = performance.now();
+  for (let s = 0; s < CHAIN_1024_STEPS; s++) simulator.step(CHAIN_1024_DT_S);
+  const seconds = (performance.now() - start) / 1000;
+  let checksum = 0;
+  for (let i = 0; i < model.positionM.length; i++) checksum += model.positionM[i];
+  return { checksum, seconds, springUpdates: model.springCount * CHAIN_1024_STEPS };
+}
+
+export const chain1024Case: BenchmarkCase = {
+  name: 'chain-1024',
+  async run() {
+    const { checksum, seconds, springUpdates } = runChain1024();
+    return { spring_updates_per_s: Math.round(springUpdates / seconds), seconds: Number(seconds.toFixed(4)), checksum: Number(checksum.toPrecision(10)) };
+  },
+};
