@@ -1,0 +1,91 @@
+// Checks the one-way data flow of DEVELOPERS.md: each folder of sim/ imports only the folders
+// below it, the environment-free folders import nothing from Node, the DOM or Electron, and the
+// renderer never imports Node-side code. (Project rule; common practice, no source.)
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative, resolve, dirname } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const ROOT = resolve(import.meta.dirname, '..');
+
+/** Which top-level folders each folder may import from (besides itself). */
+const ALLOWED: Record<string, string[]> = {
+  'sim/random': [],
+  'sim/core': [],
+  'sim/systems': ['sim/core'],
+  'sim/controls': ['sim/random'],
+  'sim/episode': ['sim/core', 'sim/systems'],
+  'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode'],
+  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/cli/version.ts'],
+};
+const ENVIRONMENT_FREE = ['sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/episode', 'sim/scenario'];
+
+function sourceFiles(folder: string): string[] {
+  const abs = join(ROOT, folder);
+  let entries: string[];
+  try {
+    entries = readdirSync(abs);
+  } catch {
+    return [];
+  }
+  return entries.flatMap((name) => {
+    const path = join(abs, name);
+    if (statSync(path).isDirectory()) return sourceFiles(relative(ROOT, path));
+    return /\.(ts|mts|mjs|js)$/.test(name) && !name.endsWith('.d.ts') ? [relative(ROOT, path)] : [];
+  });
+}
+
+function importsOf(file: string): string[] {
+  const text = readFileSync(join(ROOT, file), 'utf8');
+  const specifiers: string[] = [];
+  const pattern = /(?:import|export)\s[^'"]*?from\s*['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)|^\s*import\s*['"]([^'"]+)['"]/gm;
+  for (const m of text.matchAll(pattern)) specifiers.push(m[1] ?? m[2] ?? m[3]);
+  return specifiers;
+}
+
+function folderOf(path: string): string {
+  const parts = path.split('/');
+  return parts.slice(0, 2).join('/');
+}
+
+describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
+  for (const [folder, allowed] of Object.entries(ALLOWED)) {
+    it(`${folder} imports only ${allowed.length ? allowed.join(', ') : 'itself'}${ENVIRONMENT_FREE.includes(folder) ? ' and nothing from Node, the DOM or Electron' : ''}`, () => {
+      const violations: string[] = [];
+      for (const file of sourceFiles(folder)) {
+        for (const spec of importsOf(file)) {
+          if (spec.startsWith('.')) {
+            const target = relative(ROOT, resolve(dirname(join(ROOT, file)), spec));
+            const targetFolder = folderOf(target);
+            if (targetFolder !== folder && !allowed.includes(targetFolder) && !allowed.includes(target)) {
+              violations.push(`${file} imports ${target}`);
+            }
+          } else if (ENVIRONMENT_FREE.includes(folder) && (spec.startsWith('node:') || ['fs', 'path', 'os', 'electron', 'worker_threads', 'child_process'].includes(spec))) {
+            violations.push(`${file} imports ${spec}`);
+          }
+        }
+      }
+      expect(violations).toEqual([]);
+    });
+  }
+
+  it('has source files in the core folders (the check above is not vacuous)', () => {
+    expect(sourceFiles('sim/core').length).toBeGreaterThan(5);
+    expect(sourceFiles('sim/systems').length).toBeGreaterThan(3);
+  });
+
+  it('renderer/ imports no Node-side code (sim/dataset, sim/cli, electron/ other than the bridge contract, node:*)', () => {
+    const violations: string[] = [];
+    for (const file of sourceFiles('renderer')) {
+      if (file.endsWith('vite.config.ts')) continue;
+      for (const spec of importsOf(file)) {
+        if (spec.startsWith('node:')) violations.push(`${file} imports ${spec}`);
+        if (spec.startsWith('.')) {
+          const target = relative(ROOT, resolve(dirname(join(ROOT, file)), spec));
+          if (target.startsWith('sim/dataset') || target.startsWith('sim/cli')) violations.push(`${file} imports ${target}`);
+          if (target.startsWith('electron/') && target !== 'electron/bridge-contract.ts') violations.push(`${file} imports ${target}`);
+        }
+      }
+    }
+    expect(violations).toEqual([]);
+  });
+});
