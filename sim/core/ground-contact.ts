@@ -32,7 +32,8 @@ export function projectGroundContact(model: Model, ground: GroundSettings, dtS: 
       v[o] = 0;
       v[o + 2] = 0;
     } else {
-      const scale = 1 - (muK * dvn) / speed;
+      // Kinetic friction can stop a sliding node but never reverse it (matters when μ_k > μ_s).
+      const scale = Math.max(0, 1 - (muK * dvn) / speed);
       v[o] = vx * scale;
       v[o + 2] = vz * scale;
     }
