@@ -36,7 +36,9 @@ export function checkForBlowUp(model: Model, limits: BlowUpLimits, step: number,
     const dz = x[ib + 2] - x[ia + 2];
     const ratio = Math.sqrt(dx * dx + dy * dy + dz * dz) / model.restLengthM[s];
     if (ratio > maxRatio || ratio < 1 / maxRatio) {
-      throw new SimulationBlowUpError({ kind: 'over-stretch', step, node: model.springNodeA[s], spring: s, value: ratio, dtS, criticalDtS });
+      // Name a node that actually moves: a pinned or driven end is never where it went wrong.
+      const node = model.inverseMassPerKg[model.springNodeA[s]] === 0 ? model.springNodeB[s] : model.springNodeA[s];
+      throw new SimulationBlowUpError({ kind: 'over-stretch', step, node, spring: s, value: ratio, dtS, criticalDtS });
     }
   }
 }

@@ -38,7 +38,7 @@ export function likelyCause(d: BlowUpDetails): string {
     return `the sub-step ${d.dtS.toExponential(3)} s exceeds the stability limit ${d.criticalDtS.toExponential(3)} s; use "substeps": "auto" or more sub-steps`;
   }
   if (d.kind === 'over-stretch') {
-    return 'a spring stretched far beyond its rest length: control forces or actuation too large for the stiffness, or stiffness too low to hold the load';
+    return 'a spring stretched or compressed far beyond its rest length: control forces or actuation too large for the stiffness, or stiffness too low to hold the load';
   }
   if (d.kind === 'over-speed') {
     return 'a node reached an implausible speed: control forces too large for the masses, or an unstable step near the stability limit';
@@ -51,7 +51,7 @@ function describeBlowUp(d: BlowUpDetails, episode?: number): string {
   const what = d.kind === 'non-finite'
     ? 'non-finite position or velocity'
     : d.kind === 'over-stretch'
-      ? `spring stretched to ${d.value.toFixed(2)}× its rest length`
+      ? `spring ${d.value < 1 ? 'compressed' : 'stretched'} to ${d.value.toFixed(2)}× its rest length`
       : `speed ${d.value.toExponential(3)} m/s`;
   return `simulation became unstable at ${where}: ${what}; likely cause: ${likelyCause(d)}`;
 }
