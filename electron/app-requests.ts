@@ -1,0 +1,17 @@
+// Handler for app.info: what the renderer needs to know about the shell it runs in.
+import { SAFETY_NOTICE } from './bridge-contract.ts';
+import type { HandlerTable } from './handler-table.ts';
+import type { RequestServices } from './request-services.ts';
+
+export function appRequests(services: RequestServices): Pick<HandlerTable, 'app.info'> {
+  return {
+    'app.info': async () => ({
+      name: services.app.name,
+      version: services.app.version,
+      mode: services.app.mode,
+      folderChoice: services.folderChooser.mode,
+      platform: services.app.platform,
+      safetyNotice: SAFETY_NOTICE,
+    }),
+  };
+}

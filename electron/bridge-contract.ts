@@ -1,0 +1,482 @@
+// The one agreement between the renderer and the two shells that serve it (the Electron main
+// process and the web-mode server): request names, argument and result shapes, the JSON Schemas
+// every argument object is checked against, event names, and the transport constants.
+//
+// This file imports nothing on purpose: the renderer, the sandboxed preload script and the main
+// process all compile it, and none of them may drag another's environment into the others.
+//
+// Binary arrays (`dataset.episodeArrays`) travel as base64 strings of little-endian, C-order
+// bytes. Base64 is chosen over ArrayBuffers because the web-mode transport is JSON over HTTP,
+// where an ArrayBuffer has no representation; one encoding keeps both bridges identical, and the
+// 4/3 size cost is small next to the arrays a person inspects one episode at a time.
+
+// ---------------------------------------------------------------------------------------------
+// Limits. Generous for real use, small enough that a hostile caller cannot make the main process
+// hold or scan megabytes of junk per request.
+
+export const BRIDGE_LIMITS = {
+  /** Longest accepted path, in characters (Linux PATH_MAX is 4096; common practice, no source). */
+  pathChars: 4096,
+  /** Longest accepted scenario text, in characters (1 MiB of JSON is far beyond any real scenario). */
+  scenarioTextChars: 1_048_576,
+  /** Longest accepted bare file name, in characters (NAME_MAX 255; common practice, no source). */
+  fileNameChars: 255,
+  /** Most parallel export workers a request may ask for. */
+  maxWorkers: 64,
+  /** Most episode rows one `dataset.episodes` page may return. */
+  maxEpisodePage: 1000,
+  /** Largest accepted request body in web mode, in bytes (scenario text plus JSON overhead). */
+  webBodyBytes: 4 * 1024 * 1024,
+} as const;
+
+// ---------------------------------------------------------------------------------------------
+// Shared value types.
+
+export type FolderPurpose = 'dataset' | 'export' | 'scenario';
+export type ExportFormat = 'npz' | 'hdf5' | 'both';
+export type DatasetSplit = 'train' | 'validation' | 'test';
+export type JobKind = 'export' | 'reproduce';
+export type JobState = 'running' | 'done' | 'cancelled' | 'failed';
+/** Element types an episode array may have; bytes are little-endian. */
+export type ArrayDtype = 'float64' | 'float32' | 'int32' | 'uint32' | 'int16' | 'uint16' | 'int8' | 'uint8';
+
+export interface AppInfo {
+  name: string;
+  version: string;
+  /** 'desktop' inside Electron, 'web' behind the local web-mode server. */
+  mode: 'desktop' | 'web';
+  /** 'native': `folder.choose` opens the system dialog. 'in-page': the UI browses with `folder.browse` and confirms with `folder.allow`. */
+  folderChoice: 'native' | 'in-page';
+  platform: string;
+  /** Shown on the export screen and in every dataset card. */
+  safetyNotice: string;
+}
+
+export interface ExampleScenario {
+  /** File name inside the bundled scenarios folder, e.g. "korrin-bay-tether.json". */
+  fileName: string;
+  /** Absolute path, readable with `scenario.read` (the bundled folder is read-only). */
+  path: string;
+}
+
+export interface ScenarioText {
+  path: string;
+  text: string;
+}
+
+export interface WrittenFile {
+  path: string;
+  bytes: number;
+}
+
+export interface ScenarioProblem {
+  /** RFC 6901 JSON pointer to the offending value; "" for the whole document. */
+  pointer: string;
+  /** What is wrong and how to fix it. */
+  message: string;
+  /** 1-based line of the offending value in the submitted text, when it could be placed. */
+  line?: number;
+  /** 1-based column (UTF-16 code units, as editors count) of the offending value, when it could be placed. */
+  column?: number;
+}
+
+export interface ScenarioCheck {
+  ok: boolean;
+  problems: ScenarioProblem[];
+}
+
+export interface ChosenFolder {
+  path: string;
+}
+
+export interface FolderListing {
+  /** The folder listed (absolute). */
+  path: string;
+  /** Its parent, or null at a file-system root. */
+  parent: string | null;
+  folders: { name: string; path: string }[];
+  /** True when the folder held more subfolders than one listing returns. */
+  truncated: boolean;
+}
+
+export interface JobStarted {
+  jobId: string;
+}
+
+export interface JobCancel {
+  /** False when the job had already finished or was unknown. */
+  cancelled: boolean;
+}
+
+export interface ArrayDescription {
+  name: string;
+  dtype: ArrayDtype;
+  shape: number[];
+  /** SI unit of the values ("m", "m/s", "N", "1" for dimensionless). */
+  unit: string;
+}
+
+export interface DatasetSummary {
+  path: string;
+  title: string;
+  scenarioName: string;
+  episodeCount: number;
+  splitCounts: Record<DatasetSplit, number>;
+  formats: ('npz' | 'hdf5')[];
+  /** The seed file that regenerates this dataset, or null if it is missing. */
+  seedFilePath: string | null;
+  createdAtIso: string;
+  toolVersion: string;
+  /** The dataset card (Markdown), including its safety caution. */
+  cardMarkdown: string;
+  /** Arrays every episode carries, with per-episode shapes. */
+  arrays: ArrayDescription[];
+  /** Label columns the episode table can sort and filter by. */
+  labelKeys: string[];
+}
+
+export interface EpisodeRow {
+  episodeId: string;
+  split: DatasetSplit;
+  labels: Record<string, number | string | boolean>;
+}
+
+export interface EpisodeFilter {
+  split?: DatasetSplit;
+  /** Case-insensitive substring matched against the episode id and string labels. */
+  text?: string;
+}
+
+export interface EpisodeQuery {
+  offset: number;
+  limit: number;
+  sortKey?: string;
+  descending?: boolean;
+  filter?: EpisodeFilter;
+}
+
+export interface EpisodePage {
+  /** Rows matching the filter, before offset/limit. */
+  total: number;
+  offset: number;
+  rows: EpisodeRow[];
+}
+
+export interface EncodedArray extends ArrayDescription {
+  /** Little-endian, C-order element bytes, base64 (RFC 4648 section 4). */
+  base64: string;
+}
+
+export interface EpisodeArrays {
+  episodeId: string;
+  arrays: EncodedArray[];
+}
+
+export interface VerifyReport {
+  ok: boolean;
+  checkedFiles: number;
+  problems: { file: string; message: string }[];
+}
+
+export interface SeedSummary {
+  path: string;
+  scenarioText: string;
+  toolVersion: string;
+  episodeCount: number;
+  /** Files the regenerated dataset must reproduce byte for byte, with their SHA-256 (hex). */
+  expectedFiles: { file: string; sha256: string }[];
+}
+
+export interface JobProgress {
+  jobId: string;
+  kind: JobKind;
+  /** Episodes finished so far. */
+  done: number;
+  /** Episodes in the whole job. */
+  total: number;
+  episodesPerS: number;
+  /** Seconds left at the current rate; null before the rate is known. */
+  etaS: number | null;
+  state: JobState;
+  /** Why a job failed or was cancelled, in words for the user. */
+  message?: string;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Requests.
+
+export type NoArgs = Record<string, never>;
+
+export interface RequestMap {
+  'app.info': { args: NoArgs; result: AppInfo };
+  'scenario.listExamples': { args: NoArgs; result: ExampleScenario[] };
+  'scenario.read': { args: { path: string }; result: ScenarioText };
+  'scenario.write': { args: { path: string; text: string }; result: WrittenFile };
+  'scenario.check': { args: { text: string; fileName: string }; result: ScenarioCheck };
+  'folder.choose': { args: { purpose: FolderPurpose }; result: ChosenFolder | null };
+  'folder.browse': { args: { path: string }; result: FolderListing };
+  'folder.allow': { args: { path: string; purpose: FolderPurpose }; result: ChosenFolder };
+  'export.begin': {
+    args: { scenarioText: string; outDir: string; format: ExportFormat; workers: number; resume: boolean };
+    result: JobStarted;
+  };
+  'export.cancel': { args: { jobId: string }; result: JobCancel };
+  'dataset.summary': { args: { path: string }; result: DatasetSummary };
+  'dataset.episodes': { args: { path: string } & EpisodeQuery; result: EpisodePage };
+  'dataset.episodeArrays': { args: { path: string; episodeId: string }; result: EpisodeArrays };
+  'dataset.verify': { args: { path: string }; result: VerifyReport };
+  'seed.read': { args: { path: string }; result: SeedSummary };
+  'reproduce.begin': { args: { seedPath: string; outDir: string }; result: JobStarted };
+}
+
+export type RequestName = keyof RequestMap;
+export type RequestArgs<K extends RequestName> = RequestMap[K]['args'];
+export type RequestResult<K extends RequestName> = RequestMap[K]['result'];
+
+export const REQUEST_NAMES = [
+  'app.info',
+  'scenario.listExamples',
+  'scenario.read',
+  'scenario.write',
+  'scenario.check',
+  'folder.choose',
+  'folder.browse',
+  'folder.allow',
+  'export.begin',
+  'export.cancel',
+  'dataset.summary',
+  'dataset.episodes',
+  'dataset.episodeArrays',
+  'dataset.verify',
+  'seed.read',
+  'reproduce.begin',
+] as const satisfies readonly RequestName[];
+
+export function isRequestName(value: unknown): value is RequestName {
+  return typeof value === 'string' && (REQUEST_NAMES as readonly string[]).includes(value);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Replies and errors.
+
+export type RequestErrorCode =
+  | 'unknown-request'
+  | 'invalid-arguments'
+  | 'path-refused'
+  | 'not-found'
+  | 'already-exists'
+  | 'permission-denied'
+  | 'too-large'
+  | 'not-available'
+  | 'unsupported-in-mode'
+  | 'refused-sender'
+  // Transport refusals, sent before any handler runs (web mode; 'refused-sender' is Electron's).
+  | 'refused-host'
+  | 'refused-origin'
+  | 'refused-token'
+  | 'method-not-allowed'
+  | 'unsupported-media-type'
+  | 'bad-path'
+  // Raised by the renderer's bridge itself when the shell cannot be reached or answers nonsense.
+  | 'shell-unreachable'
+  | 'io-error'
+  | 'internal';
+
+export interface RequestErrorInfo {
+  code: RequestErrorCode;
+  /** What went wrong, where, and how to fix it. Never a stack trace. */
+  message: string;
+}
+
+export type RequestReply<K extends RequestName> =
+  | { ok: true; result: RequestResult<K> }
+  | { ok: false; error: RequestErrorInfo };
+
+// ---------------------------------------------------------------------------------------------
+// Events (main process or server to renderer).
+
+export interface EventMap {
+  'job.progress': JobProgress;
+}
+
+export type EventName = keyof EventMap;
+export const EVENT_NAMES = ['job.progress'] as const satisfies readonly EventName[];
+
+export type BridgeEvent = { [K in EventName]: { name: K; payload: EventMap[K] } }[EventName];
+
+// ---------------------------------------------------------------------------------------------
+// Transports.
+
+/** The one renderer-to-main IPC channel; every request travels on it as (name, args). */
+export const IPC_REQUEST_CHANNEL = 'pliant:request';
+/** Main-to-renderer channel for events; the renderer never sends on it. */
+export const IPC_EVENT_CHANNEL = 'pliant:event';
+/** Name of the object the preload script exposes on `window`. */
+export const PRELOAD_GLOBAL_NAME = 'pliantBridge';
+
+/** Web mode: POST a JSON argument object to WEB_REQUEST_PREFIX + request name. */
+export const WEB_REQUEST_PREFIX = '/api/request/';
+/** Web mode: Server-Sent Events stream of BridgeEvent objects. */
+export const WEB_EVENTS_PATH = '/api/events';
+/** Web mode: header that carries the session token on every API request. */
+export const WEB_TOKEN_HEADER = 'x-pliant-session';
+/**
+ * Web mode: the page URL carries the token in its fragment (#session=...), which browsers never
+ * send to a server or put in a Referer. EventSource cannot set headers, so the events stream
+ * alone takes it as the query parameter of the same name.
+ */
+export const WEB_TOKEN_PARAM = 'session';
+
+/** What the preload script exposes as window.pliantBridge. */
+export interface PreloadBridgeApi {
+  invoke(name: string, args: unknown): Promise<RequestReply<RequestName>>;
+  /** Returns a function that removes the listener. */
+  onEvent(listener: (event: BridgeEvent) => void): () => void;
+}
+
+export const SAFETY_NOTICE =
+  'Simulated data does not replace hardware testing. Bring any controller trained on it up on ' +
+  'the real hardware with conservative limits, under your lab\'s own safety rules.';
+
+// ---------------------------------------------------------------------------------------------
+// Argument schemas (JSON Schema draft 2020-12). Every object is closed (additionalProperties
+// false) and every string is bounded, so validation itself stays cheap for hostile input.
+
+export interface JsonSchema {
+  $schema?: string;
+  $id?: string;
+  title?: string;
+  description?: string;
+  type?: 'object' | 'string' | 'integer' | 'number' | 'boolean' | 'array' | 'null';
+  properties?: Record<string, JsonSchema>;
+  required?: string[];
+  additionalProperties?: boolean;
+  minLength?: number;
+  maxLength?: number;
+  pattern?: string;
+  enum?: readonly (string | number | boolean)[];
+  minimum?: number;
+  maximum?: number;
+}
+
+const SCHEMA_DIALECT = 'https://json-schema.org/draft/2020-12/schema';
+
+const pathSchema = (description: string): JsonSchema => ({
+  type: 'string',
+  description: `${description} Absolute, inside a folder chosen in this session.`,
+  minLength: 1,
+  maxLength: BRIDGE_LIMITS.pathChars,
+  // NUL ends a path in the C library, so "a\u0000b" would name a different file than it shows.
+  pattern: '^[^\\u0000]*$',
+});
+
+const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario'] };
+
+function closedObject(name: string, properties: Record<string, JsonSchema>, required: string[]): JsonSchema {
+  return {
+    $schema: SCHEMA_DIALECT,
+    $id: `pliant:request/${name}`,
+    title: `Arguments of ${name}`,
+    type: 'object',
+    properties,
+    required,
+    additionalProperties: false,
+  };
+}
+
+export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema } = {
+  'app.info': closedObject('app.info', {}, []),
+  'scenario.listExamples': closedObject('scenario.listExamples', {}, []),
+  'scenario.read': closedObject('scenario.read', { path: pathSchema('Scenario file to read.') }, ['path']),
+  'scenario.write': closedObject(
+    'scenario.write',
+    {
+      path: pathSchema('Scenario file to write; must end in .json.'),
+      text: { type: 'string', maxLength: BRIDGE_LIMITS.scenarioTextChars },
+    },
+    ['path', 'text'],
+  ),
+  'scenario.check': closedObject(
+    'scenario.check',
+    {
+      text: { type: 'string', maxLength: BRIDGE_LIMITS.scenarioTextChars },
+      fileName: {
+        type: 'string',
+        description: 'Bare file name used in problem messages; no folders.',
+        minLength: 1,
+        maxLength: BRIDGE_LIMITS.fileNameChars,
+        pattern: '^[^/\\\\\\u0000]+$',
+      },
+    },
+    ['text', 'fileName'],
+  ),
+  'folder.choose': closedObject('folder.choose', { purpose: purposeSchema }, ['purpose']),
+  'folder.browse': closedObject(
+    'folder.browse',
+    {
+      path: {
+        type: 'string',
+        description: 'Absolute folder to list; "" lists the home folder.',
+        maxLength: BRIDGE_LIMITS.pathChars,
+        pattern: '^[^\\u0000]*$',
+      },
+    },
+    ['path'],
+  ),
+  'folder.allow': closedObject(
+    'folder.allow',
+    { path: pathSchema('Folder the person picked in the in-page chooser.'), purpose: purposeSchema },
+    ['path', 'purpose'],
+  ),
+  'export.begin': closedObject(
+    'export.begin',
+    {
+      scenarioText: { type: 'string', minLength: 1, maxLength: BRIDGE_LIMITS.scenarioTextChars },
+      outDir: pathSchema('Folder the dataset is written into.'),
+      format: { type: 'string', enum: ['npz', 'hdf5', 'both'] },
+      workers: { type: 'integer', minimum: 1, maximum: BRIDGE_LIMITS.maxWorkers },
+      resume: { type: 'boolean' },
+    },
+    ['scenarioText', 'outDir', 'format', 'workers', 'resume'],
+  ),
+  'export.cancel': closedObject('export.cancel', { jobId: jobIdSchema() }, ['jobId']),
+  'dataset.summary': closedObject('dataset.summary', { path: pathSchema('Dataset folder.') }, ['path']),
+  'dataset.episodes': closedObject(
+    'dataset.episodes',
+    {
+      path: pathSchema('Dataset folder.'),
+      offset: { type: 'integer', minimum: 0, maximum: 1_000_000_000 },
+      limit: { type: 'integer', minimum: 1, maximum: BRIDGE_LIMITS.maxEpisodePage },
+      sortKey: { type: 'string', minLength: 1, maxLength: 128, pattern: '^[A-Za-z0-9_.:-]+$' },
+      descending: { type: 'boolean' },
+      filter: {
+        type: 'object',
+        properties: {
+          split: { type: 'string', enum: ['train', 'validation', 'test'] },
+          text: { type: 'string', maxLength: 200 },
+        },
+        additionalProperties: false,
+      },
+    },
+    ['path', 'offset', 'limit'],
+  ),
+  'dataset.episodeArrays': closedObject(
+    'dataset.episodeArrays',
+    {
+      path: pathSchema('Dataset folder.'),
+      episodeId: { type: 'string', minLength: 1, maxLength: 128, pattern: '^[A-Za-z0-9_.-]+$' },
+    },
+    ['path', 'episodeId'],
+  ),
+  'dataset.verify': closedObject('dataset.verify', { path: pathSchema('Dataset folder.') }, ['path']),
+  'seed.read': closedObject('seed.read', { path: pathSchema('Seed file.') }, ['path']),
+  'reproduce.begin': closedObject(
+    'reproduce.begin',
+    { seedPath: pathSchema('Seed file to regenerate from.'), outDir: pathSchema('Folder the regenerated dataset is written into.') },
+    ['seedPath', 'outDir'],
+  ),
+};
+
+function jobIdSchema(): JsonSchema {
+  return { type: 'string', minLength: 1, maxLength: 64, pattern: '^[A-Za-z0-9-]+$' };
+}

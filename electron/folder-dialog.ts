@@ -1,0 +1,35 @@
+// The desktop app's folder chooser: the system's folder dialog, worded for what the folder is
+// for. Whatever the person picks here is what the allowed-folder list then lets requests touch;
+// the dialog function is injected so this runs without Electron.
+import type { OpenDialogOptions, OpenDialogReturnValue } from 'electron';
+import type { FolderPurpose } from './bridge-contract.ts';
+import type { FolderChooser } from './request-services.ts';
+
+const WORDING: Readonly<Record<FolderPurpose, { title: string; buttonLabel: string; message: string }>> = {
+  dataset: { title: 'Open a dataset', buttonLabel: 'Open dataset', message: 'Pick the folder of a dataset Pliant wrote.' },
+  export: { title: 'Where should the dataset go?', buttonLabel: 'Write here', message: 'Pick or create the folder the new dataset is written into.' },
+  scenario: { title: 'Scenario folder', buttonLabel: 'Use this folder', message: 'Pick the folder your scenario files live in.' },
+};
+
+export function folderDialogOptions(purpose: FolderPurpose): OpenDialogOptions {
+  const wording = WORDING[purpose];
+  return {
+    title: wording.title,
+    buttonLabel: wording.buttonLabel,
+    message: wording.message,
+    properties: ['openDirectory', 'createDirectory', 'dontAddToRecent'],
+  };
+}
+
+export function createNativeFolderChooser(
+  showOpenDialog: (options: OpenDialogOptions) => Promise<OpenDialogReturnValue>,
+): FolderChooser {
+  return {
+    mode: 'native',
+    async choose(purpose) {
+      const result = await showOpenDialog(folderDialogOptions(purpose));
+      if (result.canceled || result.filePaths.length === 0) return null;
+      return result.filePaths[0];
+    },
+  };
+}

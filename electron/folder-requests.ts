@@ -1,0 +1,58 @@
+// Handlers for choosing folders. In the desktop app the system dialog picks and every pick is
+// added to the allowed folders. In web mode there is no dialog: the page browses subfolder names
+// with folder.browse and confirms one with folder.allow; the session token already proves the
+// caller is the person who started the server.
+import { dirname, join } from 'node:path';
+import { realpath } from 'node:fs/promises';
+import { refuseUnsafeSpelling, shown } from './allowed-folders.ts';
+import type { HandlerTable } from './handler-table.ts';
+import { RequestError } from './request-error.ts';
+import type { RequestServices } from './request-services.ts';
+
+type FolderRequests = Pick<HandlerTable, 'folder.choose' | 'folder.browse' | 'folder.allow'>;
+
+/** Enough for any real folder; a listing of a huge one is cut rather than held in full. */
+const MAX_LISTED_FOLDERS = 2000;
+
+export function folderRequests(services: RequestServices): FolderRequests {
+  const { folderChooser, folders, files } = services;
+  const inPageOnly = (name: string): void => {
+    if (folderChooser.mode !== 'in-page') {
+      throw new RequestError('unsupported-in-mode', `${name} is for the web-mode page only. In the desktop app, use folder.choose, which opens the system folder dialog.`);
+    }
+  };
+
+  return {
+    'folder.choose': async ({ purpose }) => {
+      if (folderChooser.mode !== 'native') {
+        throw new RequestError('unsupported-in-mode', 'In web mode the page chooses folders itself: list them with folder.browse and confirm one with folder.allow.');
+      }
+      const picked = await folderChooser.choose(purpose);
+      if (picked === null) return null;
+      return { path: await folders.allow(picked, purpose) };
+    },
+
+    'folder.browse': async ({ path }) => {
+      inPageOnly('folder.browse');
+      const requested = path === '' ? files.homeFolder() : path;
+      refuseUnsafeSpelling(requested);
+      const real = await realpath(requested);
+      if (!(await files.isFolder(real))) {
+        throw new RequestError('path-refused', `${shown(path)} is a file, not a folder.`);
+      }
+      const { names, truncated } = await files.listFolders(real, MAX_LISTED_FOLDERS);
+      const parent = dirname(real);
+      return {
+        path: real,
+        parent: parent === real ? null : parent,
+        folders: names.map((name) => ({ name, path: join(real, name) })),
+        truncated,
+      };
+    },
+
+    'folder.allow': async ({ path, purpose }) => {
+      inPageOnly('folder.allow');
+      return { path: await folders.allow(path, purpose) };
+    },
+  };
+}

@@ -1,0 +1,50 @@
+// The messages between the job runner (main process or web server) and a worker thread that
+// does one long job: writing a dataset from a scenario, or regenerating one from a seed file.
+// The dataset pipeline provides the worker entry; this file is all it needs to know about us.
+// Imports nothing at run time so a worker bundle stays free of the shell's code.
+import type { ExportFormat, JobKind } from './bridge-contract.ts';
+
+export interface ExportJobSpec {
+  kind: 'export';
+  scenarioText: string;
+  /** Real absolute path, already checked to be inside a folder the person chose. */
+  outDir: string;
+  format: ExportFormat;
+  workers: number;
+  resume: boolean;
+}
+
+export interface ReproduceJobSpec {
+  kind: 'reproduce';
+  /** Real absolute path, already checked. */
+  seedPath: string;
+  /** Real absolute path, already checked. */
+  outDir: string;
+}
+
+export type JobSpec = ExportJobSpec | ReproduceJobSpec;
+
+/** What the worker finds in `workerData`. */
+export interface JobWorkerData {
+  jobId: string;
+  spec: JobSpec;
+}
+
+/**
+ * Sent to the worker. On 'cancel' it should stop at the next episode boundary (so no half-written
+ * file is left behind) and answer 'cancelled'; a worker that does not answer within the runner's
+ * grace period is terminated.
+ */
+export type ToJobWorker = { type: 'cancel' };
+
+/**
+ * Sent by the worker. `done` and `total` count episodes; the runner derives the rate and the time
+ * left, so the worker only counts. Post progress at most a few times a second.
+ */
+export type FromJobWorker =
+  | { type: 'progress'; done: number; total: number }
+  | { type: 'done'; done: number; total: number }
+  | { type: 'cancelled'; done: number; total: number }
+  | { type: 'failed'; message: string };
+
+export type { JobKind };

@@ -1,0 +1,82 @@
+// What the request handlers need from the world, as interfaces, so the same handlers run inside
+// Electron, behind the web-mode server and in tests. The dataset pipeline plugs into the
+// ScenarioChecker, DatasetReader, SeedReader and job-worker seams; the shells provide the rest.
+import type {
+  DatasetSummary,
+  EpisodeArrays,
+  EpisodePage,
+  EpisodeQuery,
+  FolderPurpose,
+  JobProgress,
+  JobStarted,
+  ScenarioCheck,
+  SeedSummary,
+  VerifyReport,
+} from './bridge-contract.ts';
+import type { AllowedFolders } from './allowed-folders.ts';
+import type { JobSpec } from './job-worker-protocol.ts';
+
+/** Checks scenario text against the scenario schema and physical limits. */
+export interface ScenarioChecker {
+  check(text: string, fileName: string): Promise<ScenarioCheck>;
+}
+
+/** Reads a written dataset. Every path it receives is real, absolute and already allowed. */
+export interface DatasetReader {
+  summary(datasetDir: string): Promise<DatasetSummary>;
+  episodes(datasetDir: string, query: EpisodeQuery): Promise<EpisodePage>;
+  episodeArrays(datasetDir: string, episodeId: string): Promise<EpisodeArrays>;
+  /** Recomputes checksums against the manifest; may take a while on large datasets. */
+  verify(datasetDir: string): Promise<VerifyReport>;
+}
+
+/** Reads a seed file (the recipe that regenerates a dataset bit for bit). */
+export interface SeedReader {
+  read(seedPath: string): Promise<SeedSummary>;
+}
+
+/** Runs long jobs off the main thread and reports their progress. */
+export interface JobRunner {
+  begin(spec: JobSpec): JobStarted;
+  /** False when the job is unknown or already over. */
+  cancel(jobId: string): boolean;
+  /** Returns a function that removes the listener. */
+  onProgress(listener: (progress: JobProgress) => void): () => void;
+}
+
+/** File-system access for the handlers; paths are real and already checked. */
+export interface FileAccess {
+  /** Refuses files larger than maxBytes with 'too-large'. */
+  readText(path: string, maxBytes: number): Promise<string>;
+  /** Writes through a temporary file and a rename, so a crash never leaves half a file. Returns bytes written. */
+  writeTextAtomic(path: string, text: string): Promise<number>;
+  /** Names of subfolders, sorted; at most `max`. */
+  listFolders(path: string, max: number): Promise<{ names: string[]; truncated: boolean }>;
+  /** Names of regular files ending in `extension`, sorted. */
+  listFiles(path: string, extension: string): Promise<string[]>;
+  isFolder(path: string): Promise<boolean>;
+  homeFolder(): string;
+}
+
+/**
+ * 'native': the shell shows the system folder dialog. 'in-page': there is no dialog (web mode);
+ * the page lists folders with folder.browse and confirms one with folder.allow.
+ */
+export type FolderChooser =
+  | { mode: 'native'; choose(purpose: FolderPurpose): Promise<string | null> }
+  | { mode: 'in-page' };
+
+export interface RequestServices {
+  app: { name: string; version: string; mode: 'desktop' | 'web'; platform: string };
+  files: FileAccess;
+  folders: AllowedFolders;
+  folderChooser: FolderChooser;
+  /** Real path of the bundled example scenarios (read-only). */
+  bundledScenariosDir: string;
+  scenarioChecker: ScenarioChecker;
+  datasetReader: DatasetReader;
+  seedReader: SeedReader;
+  jobRunner: JobRunner;
+  /** Receives unexpected errors with their stacks, for the developer's log; the caller only gets the message. */
+  reportInternalError?: (requestName: string, error: unknown) => void;
+}

@@ -1,0 +1,149 @@
+// JobRunner that runs each long job in its own worker thread, so an export of thousands of
+// episodes never blocks the Electron main process or the web server's event loop. It relays the
+// worker's episode counts as job.progress events, deriving the rate and the time left itself.
+import { randomUUID } from 'node:crypto';
+import { Worker } from 'node:worker_threads';
+import type { JobKind, JobProgress, JobState } from './bridge-contract.ts';
+import type { FromJobWorker, JobSpec, JobWorkerData, ToJobWorker } from './job-worker-protocol.ts';
+import { RequestError } from './request-error.ts';
+import type { JobRunner } from './request-services.ts';
+
+/** The parts of node:worker_threads' Worker the runner uses; tests may pass their own. */
+export interface JobWorker {
+  postMessage(message: ToJobWorker): void;
+  on(event: 'message', listener: (message: unknown) => void): unknown;
+  on(event: 'error', listener: (error: Error) => void): unknown;
+  on(event: 'exit', listener: (exitCode: number) => void): unknown;
+  terminate(): Promise<number>;
+}
+
+export interface WorkerJobRunnerOptions {
+  /** Worker entry per job kind; a kind without one is refused with 'not-available'. */
+  workerUrls: Partial<Record<JobKind, URL>>;
+  startWorker?: (url: URL, data: JobWorkerData) => JobWorker;
+  /** Monotonic clock in seconds. */
+  nowS?: () => number;
+  /** How long a cancelled worker may take to stop at an episode boundary before it is terminated. */
+  cancelGraceMs?: number;
+  newJobId?: () => string;
+  /** Receives errors thrown by progress listeners, which must not kill the runner. */
+  reportListenerError?: (error: unknown) => void;
+}
+
+interface RunningJob {
+  jobId: string;
+  kind: JobKind;
+  worker: JobWorker;
+  startedS: number;
+  done: number;
+  total: number;
+  cancelRequested: boolean;
+  cancelTimer: ReturnType<typeof setTimeout> | undefined;
+}
+
+export function createWorkerJobRunner(options: WorkerJobRunnerOptions): JobRunner {
+  const startWorker = options.startWorker ?? ((url, workerData) => new Worker(url, { workerData }));
+  const nowS = options.nowS ?? (() => performance.now() / 1000);
+  const cancelGraceMs = options.cancelGraceMs ?? 5000;
+  const newJobId = options.newJobId ?? (() => randomUUID());
+  const listeners = new Set<(progress: JobProgress) => void>();
+  const jobs = new Map<string, RunningJob>();
+
+  const emit = (job: RunningJob, state: JobState, message?: string): void => {
+    const elapsedS = nowS() - job.startedS;
+    const episodesPerS = elapsedS > 0 ? job.done / elapsedS : 0;
+    const remaining = Math.max(0, job.total - job.done);
+    const etaS = state === 'done' ? 0 : episodesPerS > 0 ? remaining / episodesPerS : null;
+    const progress: JobProgress = { jobId: job.jobId, kind: job.kind, done: job.done, total: job.total, episodesPerS, etaS, state };
+    if (message !== undefined) progress.message = message;
+    for (const listener of listeners) {
+      try {
+        listener(progress);
+      } catch (error) {
+        options.reportListenerError?.(error);
+      }
+    }
+  };
+
+  const finish = (job: RunningJob, state: Exclude<JobState, 'running'>, message?: string): void => {
+    if (!jobs.has(job.jobId)) return;
+    jobs.delete(job.jobId);
+    if (job.cancelTimer !== undefined) clearTimeout(job.cancelTimer);
+    emit(job, state, message);
+  };
+
+  const onMessage = (job: RunningJob, raw: unknown): void => {
+    const message = asWorkerMessage(raw);
+    if (message === null) {
+      finish(job, 'failed', `The ${job.kind} worker sent a message Pliant does not understand; the job was stopped.`);
+      void job.worker.terminate();
+      return;
+    }
+    if (message.type === 'failed') {
+      finish(job, 'failed', message.message);
+      return;
+    }
+    job.done = message.done;
+    job.total = message.total;
+    if (message.type === 'progress') emit(job, 'running');
+    else if (message.type === 'done') finish(job, 'done');
+    else finish(job, 'cancelled', `Cancelled after ${job.done} of ${job.total} episodes. Files written so far are complete; start again with "resume" to continue.`);
+  };
+
+  return {
+    begin(spec: JobSpec) {
+      const url = options.workerUrls[spec.kind];
+      if (!url) {
+        throw new RequestError('not-available', `Running ${spec.kind} jobs is not part of this build of Pliant yet.`);
+      }
+      const jobId = newJobId();
+      const worker = startWorker(url, { jobId, spec });
+      const job: RunningJob = { jobId, kind: spec.kind, worker, startedS: nowS(), done: 0, total: 0, cancelRequested: false, cancelTimer: undefined };
+      jobs.set(jobId, job);
+      worker.on('message', (raw) => onMessage(job, raw));
+      worker.on('error', (error) => finish(job, 'failed', `The ${job.kind} job stopped with an error: ${firstLine(error.message)}`));
+      worker.on('exit', (exitCode) => {
+        if (job.cancelRequested) finish(job, 'cancelled', `Cancelled after ${job.done} of ${job.total} episodes.`);
+        else finish(job, 'failed', `The ${job.kind} job's worker stopped before finishing (exit code ${exitCode}).`);
+      });
+      emit(job, 'running');
+      return { jobId };
+    },
+
+    cancel(jobId) {
+      const job = jobs.get(jobId);
+      if (!job || job.cancelRequested) return false;
+      job.cancelRequested = true;
+      job.worker.postMessage({ type: 'cancel' });
+      job.cancelTimer = setTimeout(() => {
+        void job.worker.terminate();
+        finish(job, 'cancelled', `Stopped after ${job.done} of ${job.total} episodes; the worker did not stop by itself, so the last episode may be incomplete. Start again with "resume" to redo it.`);
+      }, cancelGraceMs);
+      return true;
+    },
+
+    onProgress(listener) {
+      listeners.add(listener);
+      return () => listeners.delete(listener);
+    },
+  };
+}
+
+function asWorkerMessage(raw: unknown): FromJobWorker | null {
+  if (typeof raw !== 'object' || raw === null) return null;
+  const m = raw as Record<string, unknown>;
+  if (m.type === 'failed') return typeof m.message === 'string' ? { type: 'failed', message: m.message } : null;
+  if (m.type !== 'progress' && m.type !== 'done' && m.type !== 'cancelled') return null;
+  const { done, total } = m;
+  if (!isCount(done) || !isCount(total) || done > total) return null;
+  return { type: m.type, done, total };
+}
+
+function isCount(value: unknown): value is number {
+  return typeof value === 'number' && Number.isInteger(value) && value >= 0;
+}
+
+function firstLine(text: string): string {
+  const end = text.indexOf('\n');
+  return end < 0 ? text : text.slice(0, end);
+}
