@@ -12,7 +12,9 @@ export const APP_ENTRY_URL = `${APP_SCHEME}://${APP_HOST}/index.html`;
  * Registered before the app's ready event (registerSchemesAsPrivileged may only be called then).
  * standard: relative URLs resolve and the page gets a real origin; secure: it counts as a secure
  * context like https; supportFetchAPI: the renderer may fetch its own assets; codeCache: faster
- * start. bypassCSP stays false so our policy applies, and nothing else is granted.
+ * start. bypassCSP stays false so our policy applies. corsEnabled stays false so no other origin
+ * can read our files; our own module scripts still load, being same-origin on a standard scheme.
+ * Nothing else is granted.
  */
 export const APP_SCHEME_REGISTRATION: CustomScheme = {
   scheme: APP_SCHEME,

@@ -1,0 +1,110 @@
+// `npm run web`: starts Pliant in web mode for a browser on this machine and prints the address
+// to open. Run through tsx. Opens a browser only when the BROWSER environment variable names one
+// (a common convention, no source); otherwise it just prints.
+//
+//   tsx electron/web-cli.ts [--port N] [--renderer DIR]
+import { spawn } from 'node:child_process';
+import { existsSync, readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { SAFETY_NOTICE } from './bridge-contract.ts';
+import { createDefaultServices } from './default-services.ts';
+import { createRequestHandlers } from './request-handlers.ts';
+import { startWebServer } from './web-server.ts';
+
+const repoRoot = fileURLToPath(new URL('..', import.meta.url));
+
+const USAGE = `Usage: npm run web [-- --port N] [-- --renderer DIR]
+
+Serves Pliant to a browser on this machine (127.0.0.1 only) and prints the address to open.
+  --port N        listen on port N (default: a free port the system picks)
+  --renderer DIR  the built renderer folder (default: dist/renderer)
+Set BROWSER to a browser command to have it opened for you.`;
+
+interface CliOptions {
+  port: number;
+  rendererDir: string;
+}
+
+function parseArguments(argv: readonly string[]): CliOptions | string {
+  const options: CliOptions = { port: 0, rendererDir: join(repoRoot, 'dist', 'renderer') };
+  for (let i = 0; i < argv.length; i += 1) {
+    const flag = argv[i];
+    const value = argv[i + 1];
+    if (flag === '--help' || flag === '-h') return USAGE;
+    if (flag === '--port') {
+      const port = Number(value);
+      if (value === undefined || !Number.isInteger(port) || port < 0 || port > 65535) {
+        return `--port needs a whole number from 0 to 65535, got ${value === undefined ? 'nothing' : JSON.stringify(value)}.\n\n${USAGE}`;
+      }
+      options.port = port;
+      i += 1;
+    } else if (flag === '--renderer') {
+      if (value === undefined) return `--renderer needs a folder.\n\n${USAGE}`;
+      options.rendererDir = resolve(value);
+      i += 1;
+    } else {
+      return `Unknown option ${JSON.stringify(flag)}.\n\n${USAGE}`;
+    }
+  }
+  return options;
+}
+
+async function main(): Promise<number> {
+  const parsed = parseArguments(process.argv.slice(2));
+  if (typeof parsed === 'string') {
+    const isHelp = parsed === USAGE;
+    (isHelp ? process.stdout : process.stderr).write(`${parsed}\n`);
+    return isHelp ? 0 : 2;
+  }
+  if (!existsSync(join(parsed.rendererDir, 'index.html'))) {
+    process.stderr.write(`No built renderer in ${parsed.rendererDir} (index.html is missing). Run "npm run build:renderer" first, or pass --renderer.\n`);
+    return 1;
+  }
+  const version = (JSON.parse(readFileSync(join(repoRoot, 'package.json'), 'utf8')) as { version: string }).version;
+  const services = await createDefaultServices({
+    mode: 'web',
+    version,
+    bundledScenariosDir: join(repoRoot, 'scenarios'),
+    folderChooser: { mode: 'in-page' },
+    reportInternalError: (name, error) => console.error(`[pliant] request ${name} failed:`, error),
+  });
+  let server;
+  try {
+    server = await startWebServer({
+      handlers: createRequestHandlers(services),
+      rendererDir: parsed.rendererDir,
+      port: parsed.port,
+      reportError: (error) => console.error('[pliant] web server error:', error),
+    });
+  } catch (error) {
+    const code = (error as { code?: string }).code;
+    process.stderr.write(code === 'EADDRINUSE'
+      ? `Port ${parsed.port} is already in use. Pick another with --port, or leave it out to get a free one.\n`
+      : `The web server could not start: ${(error as Error).message}\n`);
+    return 1;
+  }
+  process.stdout.write(
+    `Pliant web mode is running. Open this address in a browser on this machine:\n\n  ${server.url}\n\n` +
+      `The address carries this session's key; anyone with it can use Pliant as you. Stop with Ctrl+C.\n${SAFETY_NOTICE}\n`,
+  );
+
+  const browser = process.env.BROWSER;
+  if (browser) {
+    const child = spawn(browser, [server.url], { detached: true, stdio: 'ignore' });
+    child.on('error', (error) => process.stderr.write(`Could not open the browser "${browser}": ${error.message}\n`));
+    child.unref();
+  }
+
+  const running = server;
+  await new Promise<void>((resolveStop) => {
+    const stop = (): void => {
+      void running.close().then(resolveStop);
+    };
+    process.once('SIGINT', stop);
+    process.once('SIGTERM', stop);
+  });
+  return 0;
+}
+
+process.exitCode = await main();

@@ -1,0 +1,67 @@
+// `npm run web`'s entry (electron/web-cli.ts, run through tsx): prints the address with the
+// session key, serves it on 127.0.0.1, stops cleanly on SIGTERM, and explains bad options without
+// a stack trace. BROWSER is removed from the environment so no browser is ever opened here.
+import { spawn } from 'node:child_process';
+import { mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+let renderer: string;
+
+beforeAll(() => {
+  renderer = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-cli-')));
+  writeFileSync(join(renderer, 'index.html'), '<!doctype html><title>Pliant web</title>');
+});
+afterAll(() => rmSync(renderer, { recursive: true, force: true }));
+
+function startCli(args: string[]) {
+  const env = { ...process.env };
+  delete env.BROWSER;
+  const child = spawn(process.execPath, ['--import', 'tsx', 'electron/web-cli.ts', ...args], { cwd: process.cwd(), env, stdio: ['ignore', 'pipe', 'pipe'] });
+  let stdout = '';
+  let stderr = '';
+  child.stdout.on('data', (c: Buffer) => (stdout += c.toString('utf8')));
+  child.stderr.on('data', (c: Buffer) => (stderr += c.toString('utf8')));
+  const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
+  return { child, exited, out: () => stdout, err: () => stderr };
+}
+
+describe('web-mode command line', () => {
+  it('prints the address, serves the page and answers requests, then stops on SIGTERM', async () => {
+    const cli = startCli(['--port', '0', '--renderer', renderer]);
+    const url = await new Promise<string>((resolve, reject) => {
+      const timer = setTimeout(() => reject(new Error(`no address printed; stderr: ${cli.err()}`)), 60_000);
+      cli.child.stdout.on('data', () => {
+        const match = /http:\/\/127\.0\.0\.1:\d+\/#session=[0-9a-f]{64}/.exec(cli.out());
+        // Wait for the whole banner: a pipe may deliver one write in several chunks.
+        if (match && cli.out().includes('safety rules.')) {
+          clearTimeout(timer);
+          resolve(match[0]);
+        }
+      });
+    });
+    expect(cli.out()).toMatch(/does not replace hardware testing/);
+    const address = new URL(url);
+    const page = await fetch(new URL('/', address));
+    expect(await page.text()).toBe('<!doctype html><title>Pliant web</title>');
+    const token = address.hash.replace('#session=', '');
+    const info = await fetch(new URL('/api/request/app.info', address), { method: 'POST', headers: { 'content-type': 'application/json', 'x-pliant-session': token }, body: '{}' });
+    expect(await info.json()).toMatchObject({ ok: true, result: { mode: 'web', version: expect.stringMatching(/^\d+\.\d+\.\d+/) } });
+    cli.child.kill('SIGTERM');
+    expect(await cli.exited).toBe(0);
+  });
+
+  it('explains a bad --port and exits 2', async () => {
+    const cli = startCli(['--port', 'eighty']);
+    expect(await cli.exited).toBe(2);
+    expect(cli.err()).toMatch(/^--port needs a whole number from 0 to 65535, got "eighty"\./);
+    expect(cli.err()).not.toMatch(/\n\s+at\s/);
+  });
+
+  it('explains a missing renderer build and exits 1', async () => {
+    const cli = startCli(['--renderer', join(renderer, 'not-built')]);
+    expect(await cli.exited).toBe(1);
+    expect(cli.err()).toMatch(/No built renderer in .*not-built \(index\.html is missing\)\. Run "npm run build:renderer" first/);
+  });
+});
