@@ -1,0 +1,44 @@
+// The checker every front end uses: scenario text (or an already parsed value) in, either the
+// checked Scenario with its defaults filled in, or every problem found, each with its JSON
+// pointer and, for text, its line and column. Nothing here throws for a user's mistake.
+import { parseJsonText, placeProblems } from './json-source-map.ts';
+import { findPhysicalProblems } from './physical-checks.ts';
+import { findSchemaProblems } from './schema-problems.ts';
+import type { ScenarioProblem } from './scenario-problem.ts';
+import type { Scenario } from './scenario-types.ts';
+
+export type ScenarioCheck = { ok: true; scenario: Scenario } | { ok: false; problems: ScenarioProblem[] };
+
+/** `fileName` is named in the message for an empty file; formatProblems prints it before every line. */
+export function checkScenarioText(text: string, fileName: string): ScenarioCheck {
+  const parsed = parseJsonText(text, fileName);
+  if (!parsed.ok) return parsed;
+  const checked = checkScenarioValue(parsed.value);
+  if (checked.ok) return checked;
+  const placed = placeProblems(checked.problems, parsed.sourceMap);
+  placed.sort((a, b) => (a.line ?? 0) - (b.line ?? 0) || (a.column ?? 0) - (b.column ?? 0));
+  return { ok: false, problems: placed };
+}
+
+export function checkScenarioValue(value: unknown): ScenarioCheck {
+  // Defaults are filled into a copy, so the caller's value stays as written.
+  const copy = copyJson(value);
+  const schemaProblems = findSchemaProblems(copy);
+  if (schemaProblems.length > 0) return { ok: false, problems: schemaProblems };
+  const scenario = copy as Scenario;
+  const physical = findPhysicalProblems(scenario);
+  if (physical.length > 0) return { ok: false, problems: physical };
+  return { ok: true, scenario };
+}
+
+// A plain recursive copy: a JSON round trip would turn an overflowing 1e400 (Infinity) into null.
+function copyJson(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(copyJson);
+  if (value !== null && typeof value === 'object') {
+    const out: Record<string, unknown> = {};
+    // defineProperty, because assigning a "__proto__" key would replace the prototype instead.
+    for (const [key, inner] of Object.entries(value)) Object.defineProperty(out, key, { value: copyJson(inner), enumerable: true, writable: true, configurable: true });
+    return out;
+  }
+  return value;
+}

@@ -1,0 +1,133 @@
+// Checks beyond the schema, on a value that already fits it: every distribution well formed
+// (min ≤ max and the like), physical consistency (kinetic ≤ static friction, split fractions
+// summing to 1), sizes within the limits, held-out rules that can work, control specs and
+// channel names that fit the system, and sub-steps that keep the integration stable.
+import { isConstant, specBounds } from '../random/distribution.ts';
+import { findValueSpecProblems } from '../random/value-spec-problems.ts';
+import { findChannelKeyProblems, findControlSpecProblemsOf } from './control-checks.ts';
+import { cornerSystems } from './corner-systems.ts';
+import { DemandingCorner } from './demanding-corner.ts';
+import type { ParameterSite } from './demanding-corner.ts';
+import { findHeldOutProblems } from './held-out-checks.ts';
+import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
+import { resolveChainParameters } from './resolve-chain.ts';
+import { resolveLatticeParameters } from './resolve-lattice.ts';
+import { resolveWorld } from './resolve-world.ts';
+import { FRACTION_SUM_TOLERANCE, MAX_RECORDED_NODE_STATES, MAX_STRING_SEED } from './scenario-limits.ts';
+import type { ScenarioProblem } from './scenario-problem.ts';
+import type { ChainSystemSpec, Scenario } from './scenario-types.ts';
+import { SPLIT_ORDER } from './split-assignment.ts';
+import { findStabilityProblems } from './stability-check.ts';
+
+/** Every numeric parameter of the scenario, as the sampler will visit it. */
+export function parameterSites(scenario: Scenario): ParameterSite[] {
+  const corner = new DemandingCorner('demanding');
+  if (scenario.system.kind === 'chain') resolveChainParameters(scenario.system, corner);
+  else resolveLatticeParameters(scenario.system, corner);
+  resolveWorld(scenario.world, corner);
+  corner.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
+  corner.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');
+  return corner.sites;
+}
+
+export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
+  const sites = parameterSites(scenario);
+  const problems: ScenarioProblem[] = [];
+  for (const site of sites) {
+    // The map choice is made from "maps" and "weights", checked with the shape.
+    if (site.pointer === '/system/shape/maps') continue;
+    for (const p of findValueSpecProblems(site.spec, site.pointer)) problems.push({ pointer: p.pointer, message: `${p.message}; ${p.fix}` });
+  }
+  problems.push(...findSeedProblems(scenario));
+  problems.push(...findControlSpecProblemsOf(scenario));
+  // Bounds of malformed distributions mean nothing; report those first.
+  if (problems.length > 0) return problems;
+
+  problems.push(...findFrictionProblems(scenario), ...findFractionProblems(scenario), ...findHeldOutProblems(scenario.splits.heldOut, sites));
+  let maxNodes: number;
+  if (scenario.system.kind === 'chain') {
+    problems.push(...findChainProblems(scenario.system));
+    maxNodes = specBounds(scenario.system.partCount).max + 1;
+  } else {
+    const shape = findLatticeShapeProblems(scenario.system);
+    problems.push(...shape.problems);
+    maxNodes = shape.maxNodes;
+  }
+  const states = (scenario.time.recordedSteps + 1) * maxNodes;
+  if (states > MAX_RECORDED_NODE_STATES) {
+    problems.push({
+      pointer: '/time/recordedSteps',
+      message:
+        `${scenario.time.recordedSteps + 1} records × ${maxNodes} nodes (the largest system here) = ${states} node states per episode, above the limit of ` +
+        `${MAX_RECORDED_NODE_STATES} (about ${Math.round((MAX_RECORDED_NODE_STATES * 48) / 1e6)} MB of positions and velocities); record fewer steps or use fewer nodes`,
+    });
+  }
+  if (problems.length > 0) return problems;
+
+  const demanding = cornerSystems(scenario, 'demanding');
+  const gentle = cornerSystems(scenario, 'gentle');
+  problems.push(...findChannelKeyProblems(scenario, [...demanding, ...gentle]));
+  problems.push(...findStabilityProblems(scenario, demanding, cornerWords(sites)));
+  return problems;
+}
+
+function cornerWords(sites: readonly ParameterSite[]): string {
+  const varying = sites.filter((s) => s.demanding !== 'none' && !isConstant(s.spec));
+  return varying.map((s) => `${s.pointer} = ${Number(s.value.toPrecision(6))}`).join(', ');
+}
+
+function findSeedProblems(scenario: Scenario): ScenarioProblem[] {
+  if (typeof scenario.seed === 'string' && BigInt(scenario.seed) > MAX_STRING_SEED) {
+    return [{ pointer: '/seed', message: `"${scenario.seed}" is above 18446744073709551615 (2^64 - 1), the largest seed; use a smaller one` }];
+  }
+  return [];
+}
+
+function findFrictionProblems(scenario: Scenario): ScenarioProblem[] {
+  const ground = scenario.world.ground;
+  if (ground === undefined) return [];
+  const kinetic = specBounds(ground.kineticFriction);
+  const stat = specBounds(ground.staticFriction);
+  if (kinetic.max <= stat.min) return [];
+  const same = isConstant(ground.kineticFriction) && isConstant(ground.staticFriction);
+  return [
+    {
+      pointer: '/world/ground/kineticFriction',
+      message: same
+        ? `${kinetic.max} is above the static friction ${stat.min}; Coulomb friction needs kinetic ≤ static, so lower kineticFriction or raise staticFriction`
+        : `can reach ${kinetic.max}, above the lowest static friction ${stat.min} (/world/ground/staticFriction); Coulomb friction needs kinetic ≤ static in every episode, so keep kineticFriction's range below staticFriction's`,
+    },
+  ];
+}
+
+function findFractionProblems(scenario: Scenario): ScenarioProblem[] {
+  const fractions = scenario.splits.fractions;
+  const sum = SPLIT_ORDER.reduce((total, name) => total + fractions[name], 0);
+  if (Math.abs(sum - 1) <= FRACTION_SUM_TOLERANCE) return [];
+  const parts = SPLIT_ORDER.map((name) => `${name} ${fractions[name]}`).join(' + ');
+  return [{ pointer: '/splits/fractions', message: `must sum to 1 (got ${parts} = ${Number(sum.toPrecision(12))}); adjust them, e.g. train 0.8, validation 0.1, test 0.1` }];
+}
+
+function findChainProblems(spec: ChainSystemSpec): ScenarioProblem[] {
+  const problems: ScenarioProblem[] = [];
+  if (spec.directionUnit.every((c) => isConstant(c) && specBounds(c).max === 0)) {
+    problems.push({ pointer: '/system/directionUnit', message: 'is the zero vector [0, 0, 0], which has no direction; give e.g. [0, -1, 0] to hang the chain downwards' });
+  }
+  const shortest = specBounds(spec.partCount).min;
+  const seen = new Map<number, number>();
+  spec.forceHandles.forEach((handle, i) => {
+    const pointer = `/system/forceHandles/${i}`;
+    const { min, max } = specBounds(handle);
+    if (max > shortest) {
+      problems.push({ pointer, message: `can be node ${max}, which the shortest chain (${shortest} parts, nodes 0 to ${shortest}) does not have; use a smaller index, or a negative one to count from the free end` });
+    } else if (min < -(shortest + 1)) {
+      problems.push({ pointer, message: `can be ${min}, which counts past the start of the shortest chain (${shortest + 1} nodes, so -1 to -${shortest + 1}); use an index closer to the free end` });
+    }
+    if (isConstant(handle)) {
+      const earlier = seen.get(min);
+      if (earlier !== undefined) problems.push({ pointer, message: `repeats handle ${min} of /system/forceHandles/${earlier}; list each handle once` });
+      else seen.set(min, i);
+    }
+  });
+  return problems;
+}

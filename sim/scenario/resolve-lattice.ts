@@ -1,0 +1,26 @@
+// Lattice specs to the numbers a lattice episode needs before its body is grown: cell size,
+// materials, origin and the shape's parameters, one value per parameter from the resolver.
+import type { LatticeMaterial } from '../systems/lattice.ts';
+import { resolveLatticeMaterials } from './lattice-materials.ts';
+import { resolveShapeParameters } from './lattice-shape.ts';
+import type { ShapeParameters } from './lattice-shape.ts';
+import type { ParameterResolver } from './parameter-resolver.ts';
+import { resolveVector3 } from './resolve-chain.ts';
+import type { LatticeSystemSpec } from './scenario-types.ts';
+
+export interface ResolvedLattice {
+  cellSizeM: number;
+  materials: LatticeMaterial[];
+  shape: ShapeParameters;
+  originM: [number, number, number];
+}
+
+export function resolveLatticeParameters(spec: LatticeSystemSpec, resolver: ParameterResolver): ResolvedLattice {
+  return {
+    // ω² ∝ E/(ρ·a²): small cells are the demanding end.
+    cellSizeM: resolver.value(spec.cellSizeM, '/system/cellSizeM', 'low'),
+    materials: resolveLatticeMaterials(spec, resolver),
+    shape: resolveShapeParameters(spec.shape, resolver),
+    originM: resolveVector3(spec.originM, '/system/originM', resolver),
+  };
+}

@@ -1,0 +1,95 @@
+// One episode of a sweep from (scenario, master seed, episode index) alone: every parameter
+// drawn from the stream of its JSON pointer, the system built by the real builders, the start
+// state randomised, the controls generated per channel and the split assigned.
+import { SpecError } from '../random/spec-problem.ts';
+import type { SpecProblem } from '../random/spec-problem.ts';
+import { buildChain } from '../systems/chain.ts';
+import { buildLattice, latticeDimension } from '../systems/lattice.ts';
+import type { BuiltSystem } from '../systems/built-system.ts';
+import { sampleControls } from './control-sampling.ts';
+import type { ReplayReader } from './control-sampling.ts';
+import { EpisodeDraws } from './episode-draws.ts';
+import { applyInitialStateNoise } from './initial-state-noise.ts';
+import { latticeBody } from './lattice-shape.ts';
+import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, shapeStream, splitStream } from './parameter-streams.ts';
+import { resolveChainParameters } from './resolve-chain.ts';
+import { resolveLatticeParameters } from './resolve-lattice.ts';
+import { resolveWorld } from './resolve-world.ts';
+import type { SampledEpisode } from './sampled-episode.ts';
+import { ScenarioProblemError } from './scenario-problem.ts';
+import type { ScenarioProblem } from './scenario-problem.ts';
+import type { Scenario } from './scenario-types.ts';
+import { assignSplit } from './split-assignment.ts';
+
+export interface SampleEpisodeOptions {
+  /** Reads a replay table (a .npy file named in a "replay" control spec). */
+  replay?: ReplayReader;
+}
+
+/**
+ * Samples episode `episodeIndex` of a checked scenario. Throws ScenarioProblemError (pointers
+ * into the scenario) when a replay file is missing or too short.
+ */
+export function sampleEpisode(scenario: Scenario, episodeIndex: number, options: SampleEpisodeOptions = {}): SampledEpisode {
+  if (!Number.isSafeInteger(episodeIndex) || episodeIndex < 0 || episodeIndex >= scenario.episodes) {
+    throw new RangeError(`episode index ${episodeIndex} is outside the scenario's ${scenario.episodes} episodes (0 to ${scenario.episodes - 1})`);
+  }
+  try {
+    return drawEpisode(scenario, episodeIndex, options);
+  } catch (error) {
+    if (error instanceof SpecError) throw new ScenarioProblemError(error.problems.map(fromSpecProblem));
+    throw error;
+  }
+}
+
+function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEpisodeOptions): SampledEpisode {
+  const seed = scenario.seed;
+  const draws = new EpisodeDraws(seed, episodeIndex);
+  const spec = scenario.system;
+  let system: BuiltSystem;
+  let dimensions: 2 | 3 = 3;
+  if (spec.kind === 'chain') {
+    system = buildChain(resolveChainParameters(spec, draws));
+  } else {
+    const lattice = resolveLatticeParameters(spec, draws);
+    const body = latticeBody(spec.shape, lattice.shape, lattice.materials, spec.base === 'clamped', shapeStream(seed, episodeIndex));
+    dimensions = latticeDimension(body.materialMap);
+    system = buildLattice({ cellSizeM: lattice.cellSizeM, materialMap: body.materialMap, materials: body.materials, base: spec.base, originM: lattice.originM });
+  }
+  const world = resolveWorld(scenario.world, draws);
+  const positionStdM = draws.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
+  const velocityStdMPerS = draws.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');
+  applyInitialStateNoise(
+    system.model,
+    dimensions,
+    positionStdM,
+    velocityStdMPerS,
+    initialStateStream(seed, episodeIndex, INITIAL_POSITION_SUB_STREAM),
+    initialStateStream(seed, episodeIndex, INITIAL_VELOCITY_SUB_STREAM),
+  );
+  const parameterLabels = { ...draws.labels };
+  const { recordIntervalS, recordedSteps, substeps, autoSafety } = scenario.time;
+  const controls = sampleControls(scenario.controls, system.controlChannels, seed, episodeIndex, recordIntervalS, recordedSteps, draws.labels, options.replay);
+  const split = assignSplit(
+    scenario.splits,
+    (pointer) => {
+      const value = parameterLabels[pointer];
+      return typeof value === 'number' ? value : undefined;
+    },
+    splitStream(seed, episodeIndex),
+  );
+  return {
+    index: episodeIndex,
+    masterSeed: String(seed),
+    split,
+    system,
+    world,
+    recording: { recordIntervalS, recordedSteps, substeps, autoSafety },
+    controls,
+    labels: draws.labels,
+  };
+}
+
+function fromSpecProblem(problem: SpecProblem): ScenarioProblem {
+  return { pointer: problem.pointer, message: `${problem.message}; ${problem.fix}` };
+}

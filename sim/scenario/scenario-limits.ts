@@ -1,0 +1,26 @@
+// Limits that keep one episode within a laptop's memory and time, shared by the schema, the
+// physical checks and their messages so the number a user is told is the number enforced.
+
+/** Nodes of one system. */
+export const MAX_NODES = 100_000;
+/** Chain parts (a chain of n parts has n + 1 nodes). */
+export const MAX_CHAIN_PARTS = MAX_NODES - 1;
+/** Cells of one lattice body, from a map or a generator. */
+export const MAX_LATTICE_CELLS = 50_000;
+/** Records of one episode. */
+export const MAX_RECORDED_STEPS = 1_000_000;
+/**
+ * Node states recorded in one episode, (recordedSteps + 1) × nodes: positions and velocities
+ * in float64 take 48 bytes each, so this caps one episode's arrays near 480 MB.
+ */
+export const MAX_RECORDED_NODE_STATES = 10_000_000;
+/** Sub-steps per record interval, fixed or chosen by "auto". */
+export const MAX_SUBSTEPS = 100_000;
+/** Episodes of one scenario. */
+export const MAX_EPISODES = 100_000_000;
+/** Largest seed a JSON number carries exactly: 2^53 − 1. */
+export const MAX_NUMBER_SEED = Number.MAX_SAFE_INTEGER;
+/** Largest seed at all: 2^64 − 1, written as a decimal string. */
+export const MAX_STRING_SEED = 18446744073709551615n;
+/** Sum of split fractions may differ from 1 by this much (rounding in hand-written decimals). */
+export const FRACTION_SUM_TOLERANCE = 1e-9;

@@ -1,0 +1,312 @@
+// The JSON Schema (draft 2020-12) of a scenario file: the single description of the format
+// that the checker validates against, the app's editor completes from and the docs render.
+// Structure, types, enums and per-value physical limits live here; what one value cannot say
+// on its own (ranges against ranges, stability, sizes) is in physical-checks.ts.
+import { controlSpecSchema } from '../controls/control-spec-schema.ts';
+import type { JsonSchema } from '../random/value-spec-schema.ts';
+import { valueSpecSchema } from '../random/value-spec-schema.ts';
+import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
+import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NUMBER_SEED, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
+
+export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
+
+function closed(description: string, properties: Record<string, JsonSchema>, required: string[]): JsonSchema {
+  return { type: 'object', description, properties, required, additionalProperties: false };
+}
+
+function vector3(description: string, options: ValueSpecSchemaOptions = {}, defaultValue?: number[]): JsonSchema {
+  const schema: JsonSchema = {
+    type: 'array',
+    description: `${description} Three entries [x, y, z], each a number or a distribution; y is up.`,
+    minItems: 3,
+    maxItems: 3,
+    items: valueSpecSchema(`One component. ${description}`, options),
+  };
+  if (defaultValue !== undefined) schema.default = defaultValue;
+  return schema;
+}
+
+const AXES = { type: 'string', enum: ['x', 'y', 'z'] };
+
+const chainSchema = closed(
+  'A chain of equal parts: a rope, cable or tether. Part j joins nodes j and j + 1; each part\'s mass is lumped half to each end.',
+  {
+    kind: { const: 'chain' },
+    partCount: valueSpecSchema(`Number of parts (the chain has one node more), at most ${MAX_CHAIN_PARTS}.`, { integer: true, minimum: 1, maximum: MAX_CHAIN_PARTS }),
+    lengthM: valueSpecSchema('Unstretched length of the whole chain, m.', { exclusiveMinimum: 0 }),
+    totalMassKg: valueSpecSchema('Mass of the whole chain, kg.', { exclusiveMinimum: 0 }),
+    axialStiffnessN: valueSpecSchema('Axial rigidity EA (Young\'s modulus times cross-section area), N.', { exclusiveMinimum: 0 }),
+    bendingStiffnessRatio: valueSpecSchema('Stiffness of the bending springs (node i to i + 2) over the structural ones, dimensionless; 0 for none.', { minimum: 0, default: 0 }),
+    dampingRatio: valueSpecSchema('Damping ratio of each spring with its two end masses, dimensionless (1 is critical).', { minimum: 0 }),
+    diameterM: valueSpecSchema('Outer diameter, m: sets the drag width and the displaced volume.', { exclusiveMinimum: 0 }),
+    anchor: {
+      type: 'string',
+      enum: ['top-pinned', 'both-pinned', 'free', 'top-driven'],
+      description: 'What holds the chain: node 0 pinned, both ends pinned, nothing, or node 0 moved by control channels along drivenAxes.',
+    },
+    originM: vector3('Position of node 0 (the top), m.', {}, [0, 0, 0]),
+    directionUnit: vector3('Direction the chain is laid out in from node 0, normalised before use.', {}, [0, -1, 0]),
+    forceHandles: {
+      type: 'array',
+      description: 'Nodes pushed by control forces (one channel per handle and force axis); negative indices count from the free end, -1 is the tip.',
+      items: valueSpecSchema('Node index of a handle; negative counts from the free end.', { integer: true }),
+      default: [],
+    },
+    forceAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which every handle is pushed.', default: ['x', 'y', 'z'] },
+    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which a top-driven node 0 follows its control channels.', default: ['x', 'y', 'z'] },
+  },
+  ['kind', 'partCount', 'lengthM', 'totalMassKg', 'axialStiffnessN', 'dampingRatio', 'diameterM', 'anchor'],
+);
+
+const materialIndex: JsonSchema = { type: 'integer', minimum: 0, description: '0 for an empty cell, m >= 1 for materials[m - 1].' };
+
+const materialMapSchema: JsonSchema = {
+  type: 'array',
+  minItems: 1,
+  description: 'A material map: 2-D as rows [y][x], 3-D as layers [y][z][x]; y is up and index 0 is the bottom. 0 is empty, m >= 1 is materials[m - 1].',
+  items: {
+    type: 'array',
+    minItems: 1,
+    description: 'A row of a 2-D map, or a layer of a 3-D map.',
+    items: {
+      type: ['integer', 'array'],
+      description: 'A cell of a 2-D row, or a row of a 3-D layer.',
+      if: { type: 'integer' },
+      then: materialIndex,
+      else: { type: 'array', minItems: 1, items: materialIndex },
+    },
+  },
+};
+
+const generatorSchema = closed(
+  'Random face-connected bodies: grown cell by cell from a seed cell inside a box, each cell given a material by materialWeights.',
+  {
+    dimension: { type: 'integer', enum: [2, 3], description: '2 for square cells in the x-y plane, 3 for cubes.' },
+    boundsCells: {
+      type: 'array',
+      minItems: 2,
+      maxItems: 3,
+      description: 'Size of the box the body grows in, cells along [x, y] (2-D) or [x, y, z] (3-D).',
+      items: valueSpecSchema('Cells along one axis of the box.', { integer: true, minimum: 1 }),
+    },
+    cellCount: valueSpecSchema('Cells in the body, at most the number of cells in the box.', { integer: true, minimum: 1 }),
+    materialWeights: {
+      type: 'array',
+      minItems: 1,
+      description: 'Relative chance of each material per cell, one entry per material (not all zero).',
+      items: valueSpecSchema('Relative chance of one material, dimensionless.', { minimum: 0 }),
+    },
+    actuatedChannelCount: valueSpecSchema(
+      'When given, each cell of an actuated material (actuatorChannel not null) is driven by one of this many channels, each equally likely; otherwise cells keep their material\'s channel.',
+      { integer: true, minimum: 0, maximum: 64 },
+    ),
+  },
+  ['dimension', 'boundsCells', 'cellCount', 'materialWeights'],
+);
+
+const shapeSchema: JsonSchema = {
+  type: 'object',
+  description: 'The body\'s cells: a list of material maps ("maps", one drawn per episode) or a random shape ("generator").',
+  if: { properties: { generator: {} }, required: ['generator'] },
+  then: closed('A random shape.', { generator: generatorSchema }, ['generator']),
+  else: closed(
+    'A list of material maps.',
+    {
+      maps: {
+        type: 'array',
+        minItems: 1,
+        items: materialMapSchema,
+        description: 'Material maps, one drawn per episode (equally likely unless "weights" is given); or give "generator" instead of "maps" for random shapes.',
+      },
+      weights: { type: 'array', items: { type: 'number', minimum: 0 }, description: 'Relative chance of each map, one per map (optional).' },
+    },
+    ['maps'],
+  ),
+};
+
+const materialSchema = closed(
+  'A cell material. Stiffness comes from the Young\'s modulus by energy equivalence of the cell\'s springs (Poisson\'s ratio 1/4 in 3-D, 1/3 in 2-D).',
+  {
+    name: { type: 'string', minLength: 1, maxLength: 64, description: 'Name shown in labels and channel descriptions.' },
+    youngsModulusPa: valueSpecSchema('Young\'s modulus, Pa.', { exclusiveMinimum: 0 }),
+    densityKgPerM3: valueSpecSchema('Density, kg/m³ (2-D cells are one cell size thick).', { exclusiveMinimum: 0 }),
+    dampingRatio: valueSpecSchema('Damping ratio of the cell\'s springs, dimensionless.', { minimum: 0 }),
+    actuatorChannel: {
+      type: ['integer', 'null'],
+      minimum: 0,
+      maximum: 63,
+      default: null,
+      description: 'Control channel that actuates cells of this material, or null for a passive material.',
+    },
+    actuationStrainMax: valueSpecSchema('Largest relative change of rest length at a command of ±1, dimensionless.', { minimum: 0, maximum: 0.5, default: 0 }),
+  },
+  ['name', 'youngsModulusPa', 'densityKgPerM3', 'dampingRatio'],
+);
+
+const latticeSchema = closed(
+  'A soft body of square (2-D) or cubic (3-D) cells sharing corner nodes; actuated materials change their springs\' rest lengths with their channel.',
+  {
+    kind: { const: 'lattice' },
+    cellSizeM: valueSpecSchema('Edge length of one cell, m.', { exclusiveMinimum: 0 }),
+    shape: shapeSchema,
+    materials: { type: 'array', minItems: 1, maxItems: 64, items: materialSchema, description: 'Materials, referred to by position (1 is the first).' },
+    base: { type: 'string', enum: ['clamped', 'free'], default: 'free', description: 'clamped: the bottom nodes of the lowest layer are pinned; free: nothing is pinned.' },
+    originM: vector3('Position of the grid\'s minimum corner, m.', {}, [0, 0, 0]),
+  },
+  ['kind', 'cellSizeM', 'shape', 'materials'],
+);
+
+const systemSchema: JsonSchema = {
+  type: 'object',
+  description: 'The system family: "chain" (ropes, tethers) or "lattice" (soft bodies, fins, swimmers).',
+  required: ['kind'],
+  properties: { kind: { enum: ['chain', 'lattice'], description: 'Which builder makes the system.' } },
+  allOf: [
+    { if: { properties: { kind: { const: 'chain' } }, required: ['kind'] }, then: chainSchema },
+    { if: { properties: { kind: { const: 'lattice' } }, required: ['kind'] }, then: latticeSchema },
+  ],
+};
+
+const worldSchema = closed(
+  'The surroundings: gravity, air drag, an optional ground plane and an optional fluid.',
+  {
+    gravityMPerS2: vector3('Gravitational acceleration, m/s².', {}, [0, -9.81, 0]),
+    airDragPerS: valueSpecSchema('Mass-proportional linear drag F = -m·rate·v, 1/s.', { minimum: 0, default: 0 }),
+    ground: closed(
+      'A horizontal ground plane y = heightM with Coulomb friction; leave out for none.',
+      {
+        heightM: valueSpecSchema('Height of the plane, m.', { default: 0 }),
+        staticFriction: valueSpecSchema('Static friction coefficient, dimensionless.', { minimum: 0 }),
+        kineticFriction: valueSpecSchema('Kinetic friction coefficient, dimensionless; at most the static one.', { minimum: 0 }),
+      },
+      ['staticFriction', 'kineticFriction'],
+    ),
+    fluid: closed(
+      'A surrounding fluid with resistive-force drag on surface panels; leave out for none.',
+      {
+        densityKgPerM3: valueSpecSchema('Fluid density, kg/m³ (fresh water about 1000).', { exclusiveMinimum: 0 }),
+        normalDragNsPerM3: valueSpecSchema('Drag coefficient for motion across a panel, N·s/m³.', { minimum: 0 }),
+        tangentialDragNsPerM3: valueSpecSchema('Drag coefficient for motion along a panel, N·s/m³.', { minimum: 0 }),
+        flowVelocityMPerS: vector3('Uniform flow velocity, m/s.', {}, [0, 0, 0]),
+        buoyancy: { type: 'boolean', default: true, description: 'Apply buoyancy to every node\'s displaced volume.' },
+      },
+      ['densityKgPerM3', 'normalDragNsPerM3', 'tangentialDragNsPerM3'],
+    ),
+  },
+  [],
+);
+
+const controlsSchema = closed(
+  'Control signals per channel. Channel names come from the system (e.g. "top-offset-x", "force-node12-y", "actuator-0").',
+  {
+    default: { ...controlSpecSchema, description: 'Signal of every channel not named in "channels".', default: { kind: 'none' } },
+    channels: {
+      type: 'object',
+      description: 'Signals by channel name, or by channel index written as a string ("0").',
+      additionalProperties: controlSpecSchema,
+      default: {},
+    },
+  },
+  [],
+);
+
+const timeSchema = closed(
+  'Recording. Fixed for the whole sweep so every episode has the same time base.',
+  {
+    recordIntervalS: { type: 'number', exclusiveMinimum: 0, maximum: 3600, description: 'Time between records (and between control updates), s.' },
+    recordedSteps: { type: 'integer', minimum: 1, maximum: MAX_RECORDED_STEPS, description: 'Records per episode after the initial state.' },
+    substeps: {
+      type: ['integer', 'string'],
+      default: 'auto',
+      description: `Integration sub-steps per record interval: "auto" (from the stability bound) or a whole number from 1 to ${MAX_SUBSTEPS}.`,
+      if: { type: 'string' },
+      then: { enum: ['auto'] },
+      else: { minimum: 1, maximum: MAX_SUBSTEPS },
+    },
+    autoSafety: { type: 'number', exclusiveMinimum: 0, maximum: 1, default: 0.5, description: 'Fraction of the critical time step that "auto" sub-steps stay within.' },
+  },
+  ['recordIntervalS', 'recordedSteps'],
+);
+
+const initialStateSchema = closed(
+  'Randomisation of the start state; pinned and driven nodes are never moved.',
+  {
+    positionNoiseM: valueSpecSchema('Standard deviation of normal noise on each coordinate of every free node, m.', { minimum: 0, default: 0 }),
+    velocityNoiseMPerS: valueSpecSchema('Standard deviation of normal noise on each velocity component of every free node, m/s.', { minimum: 0, default: 0 }),
+  },
+  [],
+);
+
+const fraction = (description: string): JsonSchema => ({ type: 'number', minimum: 0, maximum: 1, default: 0, description });
+
+const heldOutRuleSchema = closed(
+  'Sends every episode whose sampled parameter matches to its own split, before the fractions are applied. above and below are strict; inside includes both ends; several conditions must all hold.',
+  {
+    split: { type: 'string', pattern: '^[a-z][a-z0-9-]{0,31}$', default: 'held-out', description: 'Name of the split, lower-case letters, digits and "-", e.g. "held-out".' },
+    parameter: { type: 'string', pattern: '^/', description: 'JSON pointer of a sampled parameter, e.g. "/system/partCount".' },
+    above: { type: 'number', description: 'Matches values above this.' },
+    below: { type: 'number', description: 'Matches values below this.' },
+    inside: { type: 'array', minItems: 2, maxItems: 2, items: { type: 'number' }, description: 'Matches values in [a, b].' },
+  },
+  ['parameter'],
+);
+
+const splitsSchema = closed(
+  'How episodes are split.',
+  {
+    fractions: {
+      ...closed('Share of the episodes (other than held-out ones) in each split; they sum to 1.', {
+        train: fraction('Share for training.'),
+        validation: fraction('Share for validation.'),
+        test: fraction('Share for testing.'),
+      }, []),
+      default: { train: 0.8, validation: 0.1, test: 0.1 },
+    },
+    heldOut: { type: 'array', items: heldOutRuleSchema, default: [], description: 'Rules checked in order; the first match decides.' },
+  },
+  [],
+);
+
+const exportSchema = closed(
+  'Dataset files.',
+  {
+    format: { type: 'string', enum: ['npz', 'hdf5', 'both'], default: 'npz', description: 'NPZ (zipped NPY arrays), HDF5, or both.' },
+    dtype: { type: 'string', enum: ['float32', 'float64'], default: 'float32', description: 'Floating-point type of the recorded arrays.' },
+  },
+  [],
+);
+
+export const SCENARIO_SCHEMA: JsonSchema = {
+  $schema: 'https://json-schema.org/draft/2020-12/schema',
+  $id: SCENARIO_SCHEMA_ID,
+  title: 'Pliant scenario',
+  description: 'A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "choice", ...} drawn once per episode.',
+  type: 'object',
+  properties: {
+    $schema: { type: 'string', description: 'Optional: where an editor finds this schema.' },
+    formatVersion: { const: 1, description: 'Version of the scenario format; this Pliant reads 1.' },
+    name: {
+      type: 'string',
+      pattern: '^[A-Za-z0-9][A-Za-z0-9._-]{0,63}$',
+      description: 'Short name used in file names: letters, digits, ".", "_" and "-", starting with a letter or digit, at most 64 characters.',
+    },
+    description: { type: 'string', maxLength: 4000, default: '', description: 'What the sweep is for; copied into the dataset card.' },
+    system: systemSchema,
+    world: { ...worldSchema, default: {} },
+    controls: { ...controlsSchema, default: {} },
+    time: timeSchema,
+    initialState: { ...initialStateSchema, default: {} },
+    episodes: { type: 'integer', minimum: 1, maximum: MAX_EPISODES, description: `Number of episodes to draw, at most ${MAX_EPISODES}.` },
+    seed: {
+      type: ['integer', 'string'],
+      description: `Master seed: a whole number from 0 to ${MAX_NUMBER_SEED} (2^53 - 1), or a decimal string up to "18446744073709551615" (2^64 - 1).`,
+      if: { type: 'integer' },
+      then: { minimum: 0, maximum: MAX_NUMBER_SEED },
+      else: { pattern: '^(0|[1-9][0-9]{0,19})$' },
+    },
+    splits: { ...splitsSchema, default: {} },
+    export: { ...exportSchema, default: {} },
+  },
+  required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
+  additionalProperties: false,
+};

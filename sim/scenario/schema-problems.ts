@@ -1,0 +1,236 @@
+// Validates a parsed scenario against SCENARIO_SCHEMA with ajv (draft 2020-12) and turns ajv's
+// errors into one plain message per real problem: the offending value's JSON pointer, what was
+// expected there and what was found, with "did you mean …?" for misspelt keys and names.
+// Defaults written in the schema are filled into the value as it is checked.
+import Ajv2020 from 'ajv/dist/2020.js';
+import type { ErrorObject, ValidateFunction } from 'ajv';
+import type { JsonSchema } from '../random/value-spec-schema.ts';
+import { closestName } from './closest-name.ts';
+import { pointerSegments } from './json-source-map.ts';
+import { SCENARIO_SCHEMA } from './scenario-schema.ts';
+import type { ScenarioProblem } from './scenario-problem.ts';
+
+let compiled: ValidateFunction | undefined;
+
+function validator(): ValidateFunction {
+  if (compiled === undefined) {
+    // allowUnionTypes: a value spec is "a number or an object"; strictTypes would refuse it.
+    const ajv = new Ajv2020({ allErrors: true, verbose: true, useDefaults: true, strict: true, allowUnionTypes: true });
+    compiled = ajv.compile(SCENARIO_SCHEMA);
+  }
+  return compiled;
+}
+
+/** Checks `value` in place (defaults are filled in); an empty list means it fits the schema. */
+export function findSchemaProblems(value: unknown): ScenarioProblem[] {
+  const validate = validator();
+  if (validate(value)) return [];
+  return describeErrors(validate.errors ?? []);
+}
+
+// Keywords that change which part of the instance a subschema applies to.
+const DESCENDING = new Set(['properties', 'patternProperties', 'prefixItems', 'dependentSchemas']);
+const DESCENDING_LEAF = new Set(['items', 'additionalProperties', 'contains', 'propertyNames', 'unevaluatedProperties', 'unevaluatedItems']);
+const COMBINING = new Set(['allOf', 'anyOf', 'oneOf']);
+
+/**
+ * The schema nodes that apply to the same instance location as the error, outermost first:
+ * from the last keyword of the schema path that stepped into a member or item, down through
+ * if/then/else and allOf/anyOf/oneOf, to the node holding the failing keyword.
+ */
+function schemasAtErrorLocation(schemaPath: string): JsonSchema[] {
+  const segments = pointerSegments(schemaPath.replace(/^#/, ''));
+  const nodes: JsonSchema[] = [SCENARIO_SCHEMA];
+  let node: unknown = SCENARIO_SCHEMA;
+  let locationStart = 0;
+  // The last segment is the failing keyword itself.
+  for (let i = 0; i < segments.length - 1; i++) {
+    const segment = segments[i];
+    node = (node as Record<string, unknown> | undefined)?.[segment];
+    if (DESCENDING.has(segment) || COMBINING.has(segment)) {
+      node = (node as Record<string, unknown> | undefined)?.[segments[++i]];
+      if (DESCENDING.has(segment)) locationStart = nodes.length;
+    } else if (DESCENDING_LEAF.has(segment)) {
+      locationStart = nodes.length;
+    }
+    nodes.push(node as JsonSchema);
+  }
+  return nodes.slice(locationStart).filter((n) => n !== undefined && typeof n === 'object');
+}
+
+function firstWith<K extends string>(schemas: JsonSchema[], keyword: K): JsonSchema | undefined {
+  return schemas.find((s) => s[keyword] !== undefined);
+}
+
+function describeValue(value: unknown): string {
+  if (typeof value === 'string') return JSON.stringify(value.length > 40 ? `${value.slice(0, 37)}...` : value);
+  if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'a number too large for a double';
+  if (Array.isArray(value)) return `an array of ${value.length}`;
+  if (value === null) return 'null';
+  if (typeof value === 'object') return 'an object';
+  return String(value);
+}
+
+const TYPE_WORDS: Record<string, string> = {
+  integer: 'a whole number',
+  number: 'a number',
+  string: 'a string',
+  boolean: 'true or false',
+  object: 'an object {...}',
+  array: 'an array [...]',
+  null: 'null',
+};
+
+function expectedTypeWords(types: string[]): string {
+  const key = [...types].sort().join(',');
+  if (key === 'number,object') return 'a number or a distribution such as {"kind": "uniform", "min": 1, "max": 2}';
+  if (key === 'integer,object') return 'a whole number or a distribution such as {"kind": "integer", "min": 1, "max": 10}';
+  const words = types.map((t) => TYPE_WORDS[t] ?? t);
+  return words.length === 1 ? words[0] : `${words.slice(0, -1).join(', ')} or ${words[words.length - 1]}`;
+}
+
+function firstSentence(text: unknown): string {
+  if (typeof text !== 'string') return '';
+  const end = text.search(/\.(\s|$)/);
+  return end < 0 ? text : text.slice(0, end + 1);
+}
+
+function quoteList(values: readonly unknown[]): string {
+  return values.map((v) => JSON.stringify(v)).join(', ');
+}
+
+interface Described {
+  pointer: string;
+  message: string;
+  /** Type errors supersede every other complaint about the same value. */
+  isType: boolean;
+}
+
+function describeOne(error: ErrorObject): Described | undefined {
+  const pointer = error.instancePath;
+  const params = error.params as Record<string, unknown>;
+  const value = error.data;
+  const schemas = () => schemasAtErrorLocation(error.schemaPath);
+  switch (error.keyword) {
+    case 'if':
+    case 'allOf':
+      return undefined;
+    case 'type': {
+      const outer = firstWith(schemas(), 'type');
+      const declared = outer?.type ?? params.type;
+      const types = Array.isArray(declared) ? declared.map(String) : String(declared).split(',');
+      if (typeof value === 'number' && !Number.isFinite(value)) {
+        return { pointer, message: `must be a finite number (got a number too large for a double); write an ordinary number`, isType: true };
+      }
+      const hint = types.length > 1 && !types.includes('object') ? ` (${firstSentence(firstWith(schemas(), 'description')?.description)})` : '';
+      return { pointer, message: `must be ${expectedTypeWords(types)}${hint} (got ${describeValue(value)})`, isType: true };
+    }
+    case 'required': {
+      const missing = String(params.missingProperty);
+      const properties = (error.parentSchema as JsonSchema | undefined)?.properties as Record<string, JsonSchema> | undefined;
+      const member = properties?.[missing];
+      const allowed = Array.isArray(member?.enum) ? ` (one of ${quoteList(member.enum as unknown[])})` : '';
+      const about = firstSentence(member?.description);
+      return { pointer, message: `is missing the key "${missing}"${allowed}${about ? `: ${about}` : ''}`, isType: false };
+    }
+    case 'additionalProperties': {
+      const key = String(params.additionalProperty);
+      const known = Object.keys(((error.parentSchema as JsonSchema | undefined)?.properties as Record<string, unknown> | undefined) ?? {});
+      const suggestion = closestName(key, known);
+      const advice = suggestion !== undefined ? `did you mean "${suggestion}"?` : known.length > 0 ? `the keys allowed here are ${quoteList(known)}` : 'no keys are allowed here';
+      const escaped = key.replace(/~/g, '~0').replace(/\//g, '~1');
+      return { pointer: `${pointer}/${escaped}`, message: `unknown key "${key}"; ${advice}`, isType: false };
+    }
+    case 'enum': {
+      const allowed = (params.allowedValues as unknown[]) ?? [];
+      const suggestion = typeof value === 'string' ? closestName(value, allowed.filter((a): a is string => typeof a === 'string')) : undefined;
+      return {
+        pointer,
+        message: `must be one of ${quoteList(allowed)} (got ${describeValue(value)})${suggestion !== undefined ? `; did you mean "${suggestion}"?` : ''}`,
+        isType: false,
+      };
+    }
+    case 'const': {
+      const about = firstSentence(firstWith(schemas(), 'description')?.description);
+      return { pointer, message: `must be ${JSON.stringify(params.allowedValue)} (got ${describeValue(value)})${about ? `: ${about}` : ''}`, isType: false };
+    }
+    case 'minimum':
+    case 'maximum':
+    case 'exclusiveMinimum':
+    case 'exclusiveMaximum': {
+      const symbol = { minimum: '≥', maximum: '≤', exclusiveMinimum: '>', exclusiveMaximum: '<' }[error.keyword];
+      const hint = pointer === '/seed' && typeof value === 'number' && value > Number.MAX_SAFE_INTEGER
+        ? '; a seed this large cannot be read exactly as a JSON number, so write it as a decimal string, e.g. "18446744073709551615"'
+        : '';
+      return { pointer, message: `must be ${symbol} ${params.limit} (got ${describeValue(value)})${hint}`, isType: false };
+    }
+    case 'minItems':
+    case 'maxItems': {
+      const count = Array.isArray(value) ? value.length : 0;
+      const parent = error.parentSchema as JsonSchema | undefined;
+      if (parent?.minItems !== undefined && parent.minItems === parent.maxItems) {
+        return { pointer, message: `must have exactly ${parent.minItems} entries (got ${count})`, isType: false };
+      }
+      const word = error.keyword === 'minItems' ? 'at least' : 'at most';
+      return { pointer, message: `must have ${word} ${params.limit} entr${params.limit === 1 ? 'y' : 'ies'} (got ${count})`, isType: false };
+    }
+    case 'minLength':
+    case 'maxLength': {
+      const word = error.keyword === 'minLength' ? 'at least' : 'at most';
+      return { pointer, message: `must be ${word} ${params.limit} characters long (got ${typeof value === 'string' ? value.length : 0})`, isType: false };
+    }
+    case 'pattern': {
+      const about = firstWith(schemas(), 'description')?.description;
+      return { pointer, message: `${describeValue(value)} is not allowed here${typeof about === 'string' ? `: ${about}` : ` (must match ${params.pattern})`}`, isType: false };
+    }
+    case 'uniqueItems':
+      return { pointer, message: `lists the same value twice (entries ${params.j} and ${params.i}); list each only once`, isType: false };
+    case 'minProperties':
+      return { pointer, message: `must not be empty; give at least ${params.limit} key${params.limit === 1 ? '' : 's'} or leave it out`, isType: false };
+    case 'anyOf':
+    case 'oneOf': {
+      const branches = (error.schema as JsonSchema[] | undefined) ?? [];
+      const forms = branches.map((b, i) => (typeof b.title === 'string' ? b.title : firstSentence(b.description) || `form ${i + 1}`));
+      const passing = params.passingSchemas;
+      if (Array.isArray(passing)) return { pointer, message: `matches more than one allowed form (${forms.join('; ')}); keep only the members of one`, isType: false };
+      return { pointer, message: `matches none of the allowed forms: ${forms.join('; ')}`, isType: false };
+    }
+    default:
+      return { pointer, message: error.message ?? `does not fit the scenario format (${error.keyword})`, isType: false };
+  }
+}
+
+function describeErrors(errors: readonly ErrorObject[]): ScenarioProblem[] {
+  // Branch errors of an anyOf/oneOf are replaced by one message, unless exactly one branch
+  // failed only below the value itself: then the value clearly meant that form.
+  const dropped = new Set<ErrorObject>();
+  for (const error of errors) {
+    if (error.keyword !== 'anyOf' && error.keyword !== 'oneOf') continue;
+    const prefix = `${error.schemaPath}/`;
+    const inside = errors.filter((e) => e.schemaPath.startsWith(prefix));
+    const byBranch = new Map<string, ErrorObject[]>();
+    for (const e of inside) {
+      const branch = e.schemaPath.slice(prefix.length).split('/')[0];
+      byBranch.set(branch, [...(byBranch.get(branch) ?? []), e]);
+    }
+    const deepOnly = [...byBranch.values()].filter((list) => list.every((e) => e.instancePath.length > error.instancePath.length || e.keyword === 'if'));
+    if (deepOnly.length === 1) {
+      dropped.add(error);
+      for (const e of inside) if (!deepOnly[0].includes(e)) dropped.add(e);
+    } else {
+      for (const e of inside) dropped.add(e);
+    }
+  }
+  const described = errors.filter((e) => !dropped.has(e)).map(describeOne).filter((d): d is Described => d !== undefined);
+  const typed = new Set(described.filter((d) => d.isType).map((d) => d.pointer));
+  const seen = new Set<string>();
+  const problems: ScenarioProblem[] = [];
+  for (const d of described) {
+    if (!d.isType && typed.has(d.pointer)) continue;
+    const key = `${d.pointer}\u0000${d.message}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    problems.push({ pointer: d.pointer, message: d.message });
+  }
+  return problems;
+}
