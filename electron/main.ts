@@ -25,7 +25,9 @@ const scenariosDir = app.isPackaged
   ? join(process.resourcesPath, 'scenarios')
   : fileURLToPath(new URL('../../scenarios/', import.meta.url));
 
-// Must happen before the ready event; Electron allows it only then.
+// Both must happen before the ready event; Electron allows them only then. enableSandbox makes
+// every renderer sandboxed even if a window's options were ever to forget it (checklist item 4).
+app.enableSandbox();
 protocol.registerSchemesAsPrivileged([APP_SCHEME_REGISTRATION]);
 
 if (!app.requestSingleInstanceLock()) app.quit();
