@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { SAFETY_NOTICE } from './bridge-contract.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createRequestHandlers } from './request-handlers.ts';
+import { SIM_SCENARIO_CHECKER } from './sim-scenario-checker.ts';
 import { startWebServer } from './web-server.ts';
 
 const repoRoot = fileURLToPath(new URL('..', import.meta.url));
@@ -67,6 +68,8 @@ async function main(): Promise<number> {
     version,
     bundledScenariosDir: join(repoRoot, 'scenarios'),
     folderChooser: { mode: 'in-page' },
+    // Other pipeline parts join as sim/dataset provides them (see pipeline-seams.ts).
+    pipeline: { scenarioChecker: SIM_SCENARIO_CHECKER },
     reportInternalError: (name, error) => console.error(`[pliant] request ${name} failed:`, error),
   });
   let server;
