@@ -27,6 +27,10 @@ export function createNodeFileAccess(): FileAccess {
         await rename(temporary, path);
       } catch (error) {
         await unlink(temporary).catch(() => undefined);
+        // The error names the temporary file, which the person never asked for; name the folder.
+        if ((error as { code?: string }).code === 'ENOENT') {
+          throw new RequestError('not-found', `The folder ${shown(dirname(path))} does not exist. Create it first, or save in a folder that exists.`);
+        }
         throw error;
       }
       return Buffer.byteLength(text, 'utf8');

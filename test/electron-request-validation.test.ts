@@ -192,6 +192,12 @@ describe('file access stays inside chosen folders (OWASP Path Traversal)', () =>
     expect(error.message).toMatch(/not a \.json file/);
   });
 
+  it('reports a write into a missing folder as not-found, naming the folder rather than a temporary file', async () => {
+    const error = refusal(await handlers.handle('scenario.write', { path: join(picked, 'no-such-folder', 'a.json'), text: '{}' }));
+    expect(error.code).toBe('not-found');
+    expect(error.message).toBe(`The folder ${JSON.stringify(join(picked, 'no-such-folder'))} does not exist. Create it first, or save in a folder that exists.`);
+  });
+
   it('reports a missing file as not-found, naming the path, without a stack', async () => {
     const error = refusal(await handlers.handle('scenario.read', { path: join(picked, 'missing.json') }));
     expect(error.code).toBe('not-found');
