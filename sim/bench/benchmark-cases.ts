@@ -1,5 +1,8 @@
 // Every case `pliant bench` runs, in order.
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { chain1024Case } from './chain-1024.ts';
+import { chain1024NativeCase } from './chain-1024-native.ts';
+import { chain1024JsVsNativeCase } from './chain-1024-js-vs-native.ts';
+import { lattice8x8x8Case } from './lattice-8x8x8.ts';
 
-export const BENCHMARK_CASES: BenchmarkCase[] = [chain1024Case];
+export const BENCHMARK_CASES: BenchmarkCase[] = [chain1024Case, chain1024NativeCase, chain1024JsVsNativeCase, lattice8x8x8Case];
