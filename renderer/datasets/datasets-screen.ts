@@ -1,0 +1,137 @@
+// The Datasets screen: open an exported dataset folder, read its card and summary, page through
+// its episodes, play any episode back in the 3-D view from its own files, verify its checksums,
+// and open its seed file to preview or regenerate episodes.
+import type { DatasetSummary, EpisodeRow } from '../../electron/bridge-contract.ts';
+import type { PliantBridge } from '../bridge/pliant-bridge.ts';
+import { TrajectoryPlots } from '../plots/trajectory-plots.ts';
+import { button, h } from '../ui/element.ts';
+import type { Screen } from '../ui/screen.ts';
+import { StatusLine } from '../ui/status-line.ts';
+import { TrajectoryPlayer } from '../view/trajectory-player.ts';
+import { EpisodeTable } from './episode-table.ts';
+import { playableEpisode } from './episode-playback.ts';
+
+export class DatasetsScreen implements Screen {
+  readonly id = 'datasets';
+  readonly title = 'Datasets';
+  readonly root: HTMLElement;
+  readonly player = new TrajectoryPlayer();
+  private readonly plots = new TrajectoryPlots();
+  private readonly status = new StatusLine('datasets-status');
+  private readonly summaryHost: HTMLElement;
+  private readonly table: EpisodeTable;
+  private readonly playing: HTMLElement;
+  private readonly seedButton: HTMLButtonElement;
+  private readonly verifyButton: HTMLButtonElement;
+  private readonly verifyResult: HTMLElement;
+  private summary: DatasetSummary | null = null;
+  private frameTimes: Float64Array | null = null;
+
+  constructor(private readonly bridge: PliantBridge, private readonly openSeed: (seedPath: string) => void) {
+    this.summaryHost = h('div', { className: 'dataset-summary', attrs: { 'data-role': 'dataset-summary' } });
+    this.table = new EpisodeTable({
+      fetch: (query) => {
+        if (!this.summary) return Promise.resolve({ total: 0, offset: 0, rows: [] });
+        return this.bridge.invoke('dataset.episodes', { path: this.summary.path, ...query });
+      },
+      play: (row) => void this.play(row),
+      failed: (error) => this.status.error('Could not list the episodes', error),
+    });
+    this.playing = h('p', { className: 'playing-line', attrs: { 'data-role': 'playing-episode' } });
+    this.seedButton = button('Open its seed file', () => this.summary?.seedFilePath && this.openSeed(this.summary.seedFilePath), { attrs: { 'data-role': 'open-seed' } });
+    this.seedButton.disabled = true;
+    this.verifyButton = button('Verify checksums', () => void this.verify(), { attrs: { 'data-role': 'dataset-verify' } });
+    this.verifyButton.disabled = true;
+    this.verifyResult = h('span', { className: 'verify-inline', attrs: { 'data-role': 'dataset-verify-result' } });
+    this.player.onFrame((frame) => {
+      if (this.frameTimes) this.plots.mark(this.frameTimes[frame]);
+    });
+    this.root = h(
+      'section',
+      { className: 'screen datasets-screen', attrs: { 'data-screen': 'datasets' } },
+      h('header', { className: 'screen-head' }, h('h2', { text: 'Datasets' })),
+      h('div', { className: 'toolbar' }, button('Open dataset folder…', () => void this.choose(), { attrs: { 'data-role': 'open-dataset' } }), this.verifyButton, this.verifyResult, this.seedButton),
+      this.status.root,
+      this.summaryHost,
+      this.table.root,
+      this.playing,
+      h('div', { className: 'playback-body' }, this.player.root, this.plots.root),
+    );
+  }
+
+  hidden(): void {
+    this.player.pause();
+  }
+
+  async open(path: string): Promise<void> {
+    this.status.show('busy', `Reading ${path}…`);
+    try {
+      this.summary = await this.bridge.invoke('dataset.summary', { path });
+    } catch (error) {
+      this.status.error(`Could not open ${path} as a dataset`, error);
+      return;
+    }
+    this.renderSummary(this.summary);
+    this.seedButton.disabled = this.summary.seedFilePath === null;
+    this.verifyButton.disabled = false;
+    this.verifyResult.textContent = '';
+    this.table.open(this.summary.labelKeys);
+    this.status.show('ok', `Opened ${this.summary.path}.`);
+  }
+
+  private async choose(): Promise<void> {
+    try {
+      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'dataset' });
+      if (chosen) await this.open(chosen.path);
+    } catch (error) {
+      this.status.error('Could not choose a folder', error);
+    }
+  }
+
+  private async verify(): Promise<void> {
+    if (!this.summary) return;
+    this.verifyResult.textContent = 'Verifying…';
+    try {
+      const report = await this.bridge.invoke('dataset.verify', { path: this.summary.path });
+      this.verifyResult.textContent = report.ok ? `All ${report.checkedFiles} files match their checksums.` : `${report.problems.length} problem(s): ${report.problems.map((p) => `${p.file}: ${p.message}`).join('; ')}`;
+      this.verifyResult.setAttribute('data-ok', String(report.ok));
+    } catch (error) {
+      this.verifyResult.textContent = '';
+      this.status.error('Could not verify', error);
+    }
+  }
+
+  private async play(row: EpisodeRow): Promise<void> {
+    if (!this.summary) return;
+    this.status.show('busy', `Loading episode ${row.episodeId}…`);
+    try {
+      const arrays = await this.bridge.invoke('dataset.episodeArrays', { path: this.summary.path, episodeId: row.episodeId });
+      const episode = playableEpisode(arrays);
+      this.frameTimes = episode.frames.timeS;
+      const world = { ground: { enabled: false, heightM: 0 }, fluid: { enabled: false } };
+      this.player.load(episode.topology, episode.frames, episode.frameIntervalS, world);
+      this.plots.load(episode.frames, Array.from({ length: episode.channelCount }, (_, c) => ({ name: `channel ${c}`, unit: 'per channel' })));
+      this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${episode.frameIntervalS} s.`;
+      this.playing.setAttribute('data-episode', row.episodeId);
+      this.status.show('ok', 'Space plays and pauses, ← → step.');
+      this.player.play();
+    } catch (error) {
+      this.status.error(`Could not play episode ${row.episodeId}`, error);
+    }
+  }
+
+  private renderSummary(s: DatasetSummary): void {
+    const facts: [string, string][] = [
+      ['dataset', s.title],
+      ['folder', s.path],
+      ['scenario', s.scenarioName],
+      ['episodes', `${s.episodeCount.toLocaleString('en')} (train ${s.splitCounts.train}, validation ${s.splitCounts.validation}, test ${s.splitCounts.test})`],
+      ['files', s.formats.join(' and ').toUpperCase()],
+      ['written', `${s.createdAtIso} by Pliant ${s.toolVersion}`],
+      ['seed file', s.seedFilePath ?? 'missing: this dataset cannot be regenerated'],
+      ['arrays', s.arrays.map((a) => `${a.name} [${a.shape.join('×')}] ${a.unit}`).join('; ')],
+    ];
+    const card = h('details', { className: 'dataset-card' }, h('summary', { text: 'Dataset card' }), h('pre', { className: 'card-text', text: s.cardMarkdown }));
+    this.summaryHost.replaceChildren(h('dl', { className: 'facts' }, ...facts.flatMap(([k, v]) => [h('dt', { text: k }), h('dd', { text: v })])), card);
+  }
+}

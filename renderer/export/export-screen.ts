@@ -1,0 +1,202 @@
+// The Export screen: write the sweep on the Sweep screen as a dataset. Choose where, which file
+// format and how many worker threads; follow the progress with the rate and the time left;
+// cancel at an episode boundary so a later run with "resume" finishes the same folder; and at the
+// end see the folder and the result of verifying every checksum.
+import type { AppInfo, ExportFormat, JobProgress } from '../../electron/bridge-contract.ts';
+import { BRIDGE_LIMITS } from '../../electron/bridge-contract.ts';
+import type { PliantBridge } from '../bridge/pliant-bridge.ts';
+import type { SweepDocument } from '../app/sweep-document.ts';
+import { button, h, labelled, select } from '../ui/element.ts';
+import { safetyCaution } from '../ui/safety-caution.ts';
+import type { Screen } from '../ui/screen.ts';
+import { StatusLine } from '../ui/status-line.ts';
+import { describeRate } from './progress-words.ts';
+
+export class ExportScreen implements Screen {
+  readonly id = 'export';
+  readonly title = 'Export';
+  readonly root: HTMLElement;
+  private readonly status = new StatusLine('export-status');
+  private readonly scenarioLine: HTMLElement;
+  private readonly folderLine: HTMLElement;
+  private readonly nameInput: HTMLInputElement;
+  private readonly format: HTMLSelectElement;
+  private readonly workers: HTMLInputElement;
+  private readonly resume: HTMLInputElement;
+  private readonly startButton: HTMLButtonElement;
+  private readonly cancelButton: HTMLButtonElement;
+  private readonly bar: HTMLProgressElement;
+  private readonly progressText: HTMLElement;
+  private readonly result: HTMLElement;
+  private parentFolder: string | null = null;
+  private jobId: string | null = null;
+  private outDir: string | null = null;
+  private stopListening: (() => void) | null = null;
+
+  constructor(private readonly bridge: PliantBridge, private readonly sweep: SweepDocument, info: AppInfo, private readonly openDataset: (path: string) => void) {
+    this.scenarioLine = h('p', { className: 'export-scenario', attrs: { 'data-role': 'export-scenario' } });
+    this.folderLine = h('span', { className: 'folder-line', attrs: { 'data-role': 'export-folder' }, text: 'no folder chosen' });
+    this.nameInput = h('input', { attrs: { type: 'text', spellcheck: 'false', 'aria-label': 'Dataset folder name', 'data-role': 'export-name' } });
+    this.format = select([['npz', 'NPZ (zipped NPY arrays)'], ['hdf5', 'HDF5'], ['both', 'NPZ and HDF5']], 'npz', { 'data-role': 'export-format' });
+    const cores = Math.max(1, Math.min(BRIDGE_LIMITS.maxWorkers, navigator.hardwareConcurrency || 2));
+    this.workers = h('input', { attrs: { type: 'number', min: '1', max: String(BRIDGE_LIMITS.maxWorkers), step: '1', value: String(Math.max(1, cores - 1)), 'data-role': 'export-workers' } });
+    this.resume = h('input', { attrs: { type: 'checkbox', 'data-role': 'export-resume' } });
+    this.startButton = button('Start export', () => void this.start(), { className: 'primary', attrs: { 'data-role': 'export-start' } });
+    this.cancelButton = button('Cancel', () => void this.cancel(), { attrs: { 'data-role': 'export-cancel' } });
+    this.cancelButton.disabled = true;
+    this.bar = h('progress', { className: 'export-bar', attrs: { max: '1', value: '0', 'data-role': 'export-progress' } });
+    this.progressText = h('div', { className: 'progress-text', attrs: { 'data-role': 'export-progress-text', 'aria-live': 'polite' } });
+    this.result = h('div', { className: 'export-result', attrs: { 'data-role': 'export-result' } });
+    this.root = h(
+      'section',
+      { className: 'screen export-screen', attrs: { 'data-screen': 'export' } },
+      h('header', { className: 'screen-head' }, h('h2', { text: 'Export' })),
+      safetyCaution(info.safetyNotice),
+      this.scenarioLine,
+      h(
+        'div',
+        { className: 'form-grid' },
+        h('div', { className: 'field-inline' }, h('span', { className: 'field-caption', text: 'Into folder' }), this.folderLine, button('Choose…', () => void this.chooseFolder(), { attrs: { 'data-role': 'export-choose' } })),
+        labelled('Dataset folder name', this.nameInput),
+        labelled('Format', this.format),
+        labelled('Worker threads', this.workers, `1 to ${BRIDGE_LIMITS.maxWorkers}; this computer has ${navigator.hardwareConcurrency || 'an unknown number of'} cores`),
+        labelled('Resume a cancelled export in this folder', this.resume),
+      ),
+      h('div', { className: 'toolbar' }, this.startButton, this.cancelButton),
+      this.status.root,
+      this.bar,
+      this.progressText,
+      this.result,
+    );
+    sweep.subscribe(() => this.describeScenario());
+  }
+
+  shown(): void {
+    this.describeScenario();
+  }
+
+  private describeScenario(): void {
+    const state = this.sweep.current;
+    const doc = state.document;
+    if (!doc) {
+      this.scenarioLine.textContent = 'Open a scenario on the Sweep screen first.';
+      this.startButton.disabled = true;
+      return;
+    }
+    const name = typeof doc.name === 'string' ? doc.name : 'sweep';
+    const episodes = typeof doc.episodes === 'number' ? doc.episodes : '?';
+    const problems = state.problems.length;
+    this.scenarioLine.textContent = `Scenario ${state.fileName}: ${episodes} episodes${problems > 0 ? ` — ${problems} problem${problems === 1 ? '' : 's'} to fix on the Sweep screen first` : ''}.`;
+    if (this.nameInput.value === '') this.nameInput.value = name;
+    const format = (doc.export as { format?: unknown } | undefined)?.format;
+    if (format === 'npz' || format === 'hdf5' || format === 'both') this.format.value = format;
+    this.startButton.disabled = this.jobId !== null || !this.sweep.usable;
+  }
+
+  private async chooseFolder(): Promise<void> {
+    try {
+      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'export' });
+      if (!chosen) return;
+      this.parentFolder = chosen.path;
+      this.folderLine.textContent = chosen.path;
+    } catch (error) {
+      this.status.error('Could not choose a folder', error);
+    }
+  }
+
+  private async start(): Promise<void> {
+    if (!this.parentFolder) {
+      this.status.show('error', 'Choose the folder to export into first (Choose…).');
+      return;
+    }
+    const name = this.nameInput.value.trim();
+    if (!/^[A-Za-z0-9][A-Za-z0-9._-]{0,127}$/.test(name)) {
+      this.status.show('error', `"${name}" is not usable as a folder name: use letters, digits, ".", "_" and "-", starting with a letter or digit.`);
+      return;
+    }
+    const workers = Math.round(Number(this.workers.value));
+    if (!(workers >= 1 && workers <= BRIDGE_LIMITS.maxWorkers)) {
+      this.status.show('error', `Worker threads must be a whole number from 1 to ${BRIDGE_LIMITS.maxWorkers}, got ${this.workers.value}.`);
+      return;
+    }
+    this.outDir = `${this.parentFolder.replace(/[/\\]$/, '')}/${name}`;
+    this.result.replaceChildren();
+    this.bar.value = 0;
+    this.progressText.textContent = 'Starting…';
+    this.root.setAttribute('data-export-state', 'running');
+    this.stopListening?.();
+    this.stopListening = this.bridge.onEvent((event) => {
+      if (event.name === 'job.progress' && event.payload.jobId === this.jobId) this.progress(event.payload);
+    });
+    try {
+      const started = await this.bridge.invoke('export.begin', {
+        scenarioText: this.sweep.current.text,
+        outDir: this.outDir,
+        format: this.format.value as ExportFormat,
+        workers,
+        resume: this.resume.checked,
+      });
+      this.jobId = started.jobId;
+      this.startButton.disabled = true;
+      this.cancelButton.disabled = false;
+      this.status.show('busy', `Exporting into ${this.outDir}…`);
+    } catch (error) {
+      this.root.setAttribute('data-export-state', 'refused');
+      this.progressText.textContent = '';
+      this.status.error('The export did not start', error);
+    }
+  }
+
+  private async cancel(): Promise<void> {
+    if (!this.jobId) return;
+    this.cancelButton.disabled = true;
+    this.status.show('busy', 'Cancelling at the next episode boundary…');
+    try {
+      await this.bridge.invoke('export.cancel', { jobId: this.jobId });
+    } catch (error) {
+      this.status.error('Could not cancel', error);
+    }
+  }
+
+  private progress(p: JobProgress): void {
+    this.bar.max = Math.max(1, p.total);
+    this.bar.value = p.done;
+    this.progressText.textContent = describeRate(p);
+    this.progressText.setAttribute('data-done', String(p.done));
+    this.progressText.setAttribute('data-total', String(p.total));
+    if (p.state === 'running') return;
+    this.jobId = null;
+    this.cancelButton.disabled = true;
+    this.startButton.disabled = !this.sweep.usable;
+    this.root.setAttribute('data-export-state', p.state);
+    if (p.state === 'done') {
+      this.resume.checked = false;
+      void this.finished();
+    } else if (p.state === 'cancelled') {
+      this.resume.checked = true;
+      this.status.show('info', `Cancelled after ${p.done} of ${p.total} episodes. The folder keeps every finished episode; press Start export with "Resume" ticked to finish it.`);
+    } else {
+      this.status.show('error', `The export failed: ${p.message ?? 'no reason given'}`);
+    }
+  }
+
+  private async finished(): Promise<void> {
+    const outDir = this.outDir;
+    if (!outDir) return;
+    this.status.show('busy', 'Export finished; verifying every checksum…');
+    try {
+      const report = await this.bridge.invoke('dataset.verify', { path: outDir });
+      const verdict = report.ok
+        ? h('p', { className: 'verify-ok', attrs: { 'data-role': 'verify-result', 'data-ok': 'true' }, text: `Verified: all ${report.checkedFiles} files match their recorded SHA-256 checksums.` })
+        : h('div', { className: 'verify-bad', attrs: { 'data-role': 'verify-result', 'data-ok': 'false' } }, h('p', { text: `Verification found ${report.problems.length} problem${report.problems.length === 1 ? '' : 's'} in ${report.checkedFiles} files:` }), h('ul', {}, ...report.problems.map((pr) => h('li', { text: `${pr.file}: ${pr.message}` }))));
+      this.result.replaceChildren(
+        h('p', { attrs: { 'data-role': 'export-out-dir' }, text: `Dataset written to ${outDir}.` }),
+        verdict,
+        button('Open in Datasets', () => this.openDataset(outDir), { attrs: { 'data-role': 'export-open-dataset' } }),
+      );
+      this.status.show(report.ok ? 'ok' : 'error', report.ok ? 'Export finished and verified.' : 'Export finished, but verification found problems (listed below).');
+    } catch (error) {
+      this.status.error('Export finished, but it could not be verified', error);
+    }
+  }
+}

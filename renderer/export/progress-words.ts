@@ -1,0 +1,19 @@
+// Job progress in words: how many episodes are done, how fast, and about how long is left.
+import type { JobProgress } from '../../electron/bridge-contract.ts';
+
+export function describeRate(p: JobProgress): string {
+  const head = `${p.done} of ${p.total} episodes`;
+  const rate = p.episodesPerS > 0 ? ` · ${p.episodesPerS >= 10 ? p.episodesPerS.toFixed(0) : p.episodesPerS.toPrecision(2)} episodes/s` : '';
+  if (p.state === 'done') return `${head} · done${rate}`;
+  if (p.state === 'cancelled') return `${head} · cancelled`;
+  if (p.state === 'failed') return `${head} · failed`;
+  return `${head}${rate} · ${p.etaS === null ? 'time left not known yet' : `about ${formatDuration(p.etaS)} left`}`;
+}
+
+/** "45 s", "3 min 20 s", "2 h 05 min". */
+export function formatDuration(seconds: number): string {
+  const s = Math.max(0, Math.round(seconds));
+  if (s < 60) return `${s} s`;
+  if (s < 3600) return `${Math.floor(s / 60)} min ${String(s % 60).padStart(2, '0')} s`;
+  return `${Math.floor(s / 3600)} h ${String(Math.floor((s % 3600) / 60)).padStart(2, '0')} min`;
+}

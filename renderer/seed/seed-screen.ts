@@ -1,0 +1,167 @@
+// The Seed file screen: open a dataset's seed.json (the recipe that regenerates it bit for bit),
+// preview any of its episodes, and regenerate it into a new folder, comparing file by file.
+import type { JobProgress, SeedSummary } from '../../electron/bridge-contract.ts';
+import type { PliantBridge } from '../bridge/pliant-bridge.ts';
+import { describeRate } from '../export/progress-words.ts';
+import { button, h, labelled } from '../ui/element.ts';
+import type { Screen } from '../ui/screen.ts';
+import { StatusLine } from '../ui/status-line.ts';
+
+export interface SeedScreenEvents {
+  /** Show episode `index` of the seed file's scenario on the Preview screen. */
+  preview(text: string, fileName: string, source: string, index: number): void;
+}
+
+export class SeedScreen implements Screen {
+  readonly id = 'seed';
+  readonly title = 'Seed file';
+  readonly root: HTMLElement;
+  private readonly status = new StatusLine('seed-status');
+  private readonly summaryHost: HTMLElement;
+  private readonly indexInput: HTMLInputElement;
+  private readonly outFolder: HTMLElement;
+  private readonly outName: HTMLInputElement;
+  private readonly regenerate: HTMLButtonElement;
+  private readonly bar: HTMLProgressElement;
+  private readonly progressText: HTMLElement;
+  private readonly files: HTMLElement;
+  private seed: SeedSummary | null = null;
+  private parentFolder: string | null = null;
+  private jobId: string | null = null;
+  private outDir: string | null = null;
+  private stopListening: (() => void) | null = null;
+
+  constructor(private readonly bridge: PliantBridge, private readonly events: SeedScreenEvents) {
+    this.summaryHost = h('dl', { className: 'facts', attrs: { 'data-role': 'seed-summary' } });
+    this.indexInput = h('input', { attrs: { type: 'number', min: '0', step: '1', value: '0', 'data-role': 'seed-index', 'aria-label': 'Episode index' } });
+    this.outFolder = h('span', { className: 'folder-line', text: 'no folder chosen', attrs: { 'data-role': 'seed-out-folder' } });
+    this.outName = h('input', { attrs: { type: 'text', value: 'regenerated', spellcheck: 'false', 'aria-label': 'Folder name for the regenerated dataset', 'data-role': 'seed-out-name' } });
+    this.regenerate = button('Regenerate', () => void this.begin(), { className: 'primary', attrs: { 'data-role': 'seed-regenerate' } });
+    this.regenerate.disabled = true;
+    this.bar = h('progress', { attrs: { max: '1', value: '0', 'data-role': 'seed-progress' } });
+    this.progressText = h('div', { className: 'progress-text', attrs: { 'data-role': 'seed-progress-text' } });
+    this.files = h('div', { className: 'seed-files', attrs: { 'data-role': 'seed-files' } });
+    this.root = h(
+      'section',
+      { className: 'screen seed-screen', attrs: { 'data-screen': 'seed' } },
+      h('header', { className: 'screen-head' }, h('h2', { text: 'Seed file' }), h('p', { className: 'screen-note', text: 'A seed file regenerates its dataset byte for byte with the same Pliant version.' })),
+      h('div', { className: 'toolbar' }, button('Open seed file…', () => void this.choose(), { attrs: { 'data-role': 'open-seed-file' } })),
+      this.status.root,
+      this.summaryHost,
+      h('div', { className: 'toolbar' }, labelled('Episode', this.indexInput), button('Preview this episode', () => this.previewEpisode(), { attrs: { 'data-role': 'seed-preview' } })),
+      h('div', { className: 'toolbar' }, h('span', { className: 'field-caption', text: 'Regenerate into' }), this.outFolder, button('Choose…', () => void this.chooseOut(), { attrs: { 'data-role': 'seed-choose-out' } }), labelled('named', this.outName), this.regenerate),
+      this.bar,
+      this.progressText,
+      this.files,
+    );
+  }
+
+  async open(seedPath: string): Promise<void> {
+    try {
+      this.seed = await this.bridge.invoke('seed.read', { path: seedPath });
+    } catch (error) {
+      this.status.error(`Could not read ${seedPath}`, error);
+      return;
+    }
+    const s = this.seed;
+    this.indexInput.max = String(Math.max(0, s.episodeCount - 1));
+    this.summaryHost.replaceChildren(
+      ...([
+        ['seed file', s.path],
+        ['written by', `Pliant ${s.toolVersion}`],
+        ['episodes', s.episodeCount.toLocaleString('en')],
+        ['files to reproduce', `${s.expectedFiles.length}`],
+      ] as const).flatMap(([k, v]) => [h('dt', { text: k }), h('dd', { text: v })]),
+    );
+    this.renderFiles(null);
+    this.regenerate.disabled = this.parentFolder === null;
+    this.status.show('ok', `Opened ${s.path}.`);
+  }
+
+  private async choose(): Promise<void> {
+    try {
+      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'dataset' });
+      if (chosen) await this.open(`${chosen.path.replace(/[/\\]$/, '')}/seed.json`);
+    } catch (error) {
+      this.status.error('Could not choose a folder', error);
+    }
+  }
+
+  private async chooseOut(): Promise<void> {
+    try {
+      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'export' });
+      if (!chosen) return;
+      this.parentFolder = chosen.path;
+      this.outFolder.textContent = chosen.path;
+      this.regenerate.disabled = this.seed === null;
+    } catch (error) {
+      this.status.error('Could not choose a folder', error);
+    }
+  }
+
+  private previewEpisode(): void {
+    if (!this.seed) return;
+    const index = Math.round(Number(this.indexInput.value));
+    if (!(index >= 0 && index < this.seed.episodeCount)) {
+      this.status.show('error', `Episode ${this.indexInput.value} is not in this dataset: choose 0 to ${this.seed.episodeCount - 1}.`);
+      return;
+    }
+    this.events.preview(this.seed.scenarioText, 'seed.json', this.seed.path, index);
+  }
+
+  private async begin(): Promise<void> {
+    if (!this.seed || !this.parentFolder) return;
+    const name = this.outName.value.trim();
+    if (!/^[A-Za-z0-9][A-Za-z0-9._-]{0,127}$/.test(name)) {
+      this.status.show('error', `"${name}" is not usable as a folder name: use letters, digits, ".", "_" and "-".`);
+      return;
+    }
+    this.outDir = `${this.parentFolder.replace(/[/\\]$/, '')}/${name}`;
+    this.stopListening?.();
+    this.stopListening = this.bridge.onEvent((event) => {
+      if (event.name === 'job.progress' && event.payload.jobId === this.jobId) this.progress(event.payload);
+    });
+    try {
+      this.jobId = (await this.bridge.invoke('reproduce.begin', { seedPath: this.seed.path, outDir: this.outDir })).jobId;
+      this.regenerate.disabled = true;
+      this.status.show('busy', `Regenerating into ${this.outDir}…`);
+    } catch (error) {
+      this.status.error('Regeneration did not start', error);
+    }
+  }
+
+  private progress(p: JobProgress): void {
+    this.bar.max = Math.max(1, p.total);
+    this.bar.value = p.done;
+    this.progressText.textContent = describeRate(p);
+    if (p.state === 'running') return;
+    this.jobId = null;
+    this.regenerate.disabled = false;
+    this.root.setAttribute('data-seed-state', p.state);
+    if (p.state === 'done') void this.compare(p);
+    else this.status.show(p.state === 'failed' ? 'error' : 'info', `Regeneration ${p.state}: ${p.message ?? 'no reason given'}`);
+  }
+
+  /** The job's verdict, and each expected file checked in the regenerated folder. */
+  private async compare(p: JobProgress): Promise<void> {
+    if (!this.outDir) return;
+    try {
+      const report = await this.bridge.invoke('dataset.verify', { path: this.outDir });
+      const problems = new Map(report.problems.map((pr) => [pr.file, pr.message]));
+      this.renderFiles(problems);
+      this.status.show(report.ok ? 'ok' : 'error', `${p.message ?? 'Regenerated.'} The regenerated folder ${report.ok ? 'passes' : 'fails'} its checksum check (${report.checkedFiles} files).`);
+    } catch (error) {
+      this.status.error('Regenerated, but the result could not be checked', error);
+    }
+  }
+
+  private renderFiles(problems: Map<string, string> | null): void {
+    if (!this.seed) return;
+    const rows = this.seed.expectedFiles.map((f) => {
+      const problem = problems?.get(f.file);
+      const result = problems === null ? 'not regenerated yet' : problem ?? 'regenerated, checksum as recorded';
+      return h('tr', { attrs: { 'data-file': f.file, 'data-result': problems === null ? 'pending' : problem ? 'problem' : 'ok' } }, h('td', { text: f.file }), h('td', { className: 'hash', text: f.sha256.slice(0, 16) + '…' }), h('td', { text: result }));
+    });
+    this.files.replaceChildren(h('table', { className: 'file-table' }, h('thead', {}, h('tr', {}, h('th', { text: 'file' }), h('th', { text: 'SHA-256 (recorded)' }), h('th', { text: 'result' }))), h('tbody', {}, ...rows)));
+  }
+}

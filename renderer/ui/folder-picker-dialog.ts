@@ -1,0 +1,70 @@
+// The folder chooser of web mode, where a browser page has no system folder dialog: a modal that
+// lists subfolders through folder.browse, lets the person walk up and down or type a path, and
+// answers with the folder they confirm (the bridge then grants it with folder.allow).
+import type { FolderListing, FolderPurpose } from '../../electron/bridge-contract.ts';
+import { button, h } from './element.ts';
+
+const PURPOSE_WORDS: Record<FolderPurpose, string> = {
+  dataset: 'Choose a dataset folder to open',
+  export: 'Choose the folder to export into',
+  scenario: 'Choose the folder of the scenario file',
+};
+
+export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) => Promise<FolderListing>): Promise<string | null> {
+  return new Promise((resolve) => {
+    const dialog = h('dialog', { className: 'folder-picker', attrs: { 'data-role': 'folder-picker', 'aria-label': PURPOSE_WORDS[purpose] } });
+    const pathInput = h('input', { className: 'folder-path', attrs: { type: 'text', spellcheck: 'false', 'aria-label': 'Folder path', 'data-role': 'folder-path' } });
+    const list = h('ul', { className: 'folder-list', attrs: { 'data-role': 'folder-list' } });
+    const note = h('div', { className: 'folder-note', attrs: { role: 'status' } });
+    let current: FolderListing | null = null;
+
+    const finish = (result: string | null): void => {
+      dialog.close();
+      dialog.remove();
+      resolve(result);
+    };
+
+    const show = async (path: string): Promise<void> => {
+      note.textContent = 'Listing…';
+      try {
+        current = await browse(path);
+      } catch (error) {
+        note.textContent = `${(error as Error).message}`;
+        return;
+      }
+      pathInput.value = current.path;
+      note.textContent = current.truncated ? 'Only the first folders are listed; type a path to go deeper.' : `${current.folders.length} folder${current.folders.length === 1 ? '' : 's'}`;
+      const up = current.parent;
+      list.replaceChildren(
+        ...(up ? [h('li', {}, button('↑ parent folder', () => void show(up), { className: 'folder-up', attrs: { 'data-role': 'folder-up' } }))] : []),
+        ...current.folders.map((f) => h('li', {}, button(`${f.name}/`, () => void show(f.path), { className: 'folder-entry', attrs: { 'data-folder': f.name } }))),
+      );
+    };
+
+    pathInput.addEventListener('keydown', (event) => {
+      if (event.key === 'Enter') {
+        event.preventDefault();
+        void show(pathInput.value.trim());
+      }
+    });
+    dialog.addEventListener('cancel', (event) => {
+      event.preventDefault();
+      finish(null);
+    });
+    dialog.append(
+      h('h3', { text: PURPOSE_WORDS[purpose] }),
+      h('div', { className: 'folder-path-row' }, pathInput, button('Go', () => void show(pathInput.value.trim()), { attrs: { 'data-role': 'folder-go' } })),
+      list,
+      note,
+      h(
+        'div',
+        { className: 'dialog-buttons' },
+        button('Choose this folder', () => current && finish(current.path), { className: 'primary', attrs: { 'data-role': 'folder-confirm' } }),
+        button('Cancel', () => finish(null), { attrs: { 'data-role': 'folder-cancel' } }),
+      ),
+    );
+    document.body.append(dialog);
+    dialog.showModal();
+    void show('');
+  });
+}

@@ -1,0 +1,51 @@
+// The legend beside the 3-D view: what the colours mean in the current colour mode, with the
+// quantity's unit. Materials get swatches with their names; strain and actuator level get the
+// diverging bar with its end values.
+import type { ColourMode } from './body-view.ts';
+import { divergingGradientCss, materialCss } from './colour-scale.ts';
+import { h } from '../ui/element.ts';
+
+export function renderColourLegend(host: HTMLElement, mode: ColourMode, materialNames: string[], strainLimit: number): void {
+  host.replaceChildren();
+  host.setAttribute('data-mode', mode);
+  if (mode === 'material') {
+    host.append(h('div', { className: 'legend-title', text: 'Material' }));
+    const names = materialNames.length > 0 ? materialNames : [];
+    const list = h('ul', { className: 'legend-swatches' });
+    names.forEach((name, index) => list.append(swatchItem(materialCss(index), name)));
+    if (names.length === 0) list.append(swatchItem(materialCss(-1), 'one material (chain)'));
+    list.append(swatchItem('rgb(38, 38, 46)', 'pinned or driven node'));
+    host.append(list);
+    return;
+  }
+  const isStrain = mode === 'strain';
+  const limitText = isStrain ? `${formatPercent(strainLimit)}` : '1';
+  host.append(
+    h('div', { className: 'legend-title', text: isStrain ? 'Strain (L − L₀)/L₀, %' : 'Actuator level u, 1 (dimensionless)' }),
+    gradientBar(),
+    h(
+      'div',
+      { className: 'legend-ends' },
+      h('span', { text: `−${limitText}${isStrain ? ' %' : ''} ${isStrain ? 'compressed' : 'contract'}` }),
+      h('span', { text: '0' }),
+      h('span', { text: `+${limitText}${isStrain ? ' %' : ''} ${isStrain ? 'stretched' : 'expand'}` }),
+    ),
+  );
+}
+
+function swatchItem(css: string, name: string): HTMLLIElement {
+  const swatch = h('span', { className: 'swatch' });
+  swatch.style.background = css;
+  return h('li', {}, swatch, h('span', { text: name }));
+}
+
+function gradientBar(): HTMLElement {
+  const bar = h('div', { className: 'legend-bar' });
+  bar.style.background = divergingGradientCss();
+  return bar;
+}
+
+function formatPercent(fraction: number): string {
+  const percent = fraction * 100;
+  return percent >= 1 ? percent.toFixed(0) : percent.toPrecision(2);
+}

@@ -1,0 +1,213 @@
+// A 3-D view with everything needed to watch one trajectory: the stage, the body, the colour
+// mode and its legend, what parts to draw, the playback bar and a draw-rate readout. The Preview
+// and Datasets screens each own one. While playing it runs one requestAnimationFrame loop that
+// moves the body in place; paused, it draws only on change.
+import { h, labelled, select } from '../ui/element.ts';
+import type { BodyTopology } from './body-topology.ts';
+import type { ColourMode } from './body-view.ts';
+import { BodyView } from './body-view.ts';
+import { renderColourLegend } from './colour-legend.ts';
+import type { StageWorld } from './scene-view.ts';
+import { SceneView } from './scene-view.ts';
+import { PlaybackBar } from '../playback/playback-bar.ts';
+import { PlaybackClock } from '../playback/playback-clock.ts';
+import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
+
+const STRAIN_LIMITS = [0.01, 0.05, 0.2] as const;
+
+export class TrajectoryPlayer {
+  readonly root: HTMLElement;
+  readonly scene: SceneView;
+  private readonly bar: PlaybackBar;
+  private readonly legend: HTMLElement;
+  private readonly colourMode: HTMLSelectElement;
+  private readonly strainLimit: HTMLSelectElement;
+  private readonly showNodes: HTMLInputElement;
+  private readonly showSprings: HTMLInputElement;
+  private readonly showFaces: HTMLInputElement;
+  private readonly rateReadout: HTMLElement;
+  private body: BodyView | null = null;
+  private frames: TrajectoryFrames | null = null;
+  private clock: PlaybackClock | null = null;
+  private shownFrame = -1;
+  private framed = false;
+  private world: StageWorld = { ground: { enabled: false, heightM: 0 }, fluid: { enabled: false } };
+  private looping = false;
+  private lastTickMs = 0;
+  private rateWindowStartMs = 0;
+  private rateWindowFrames = 0;
+  private readonly frameListeners: ((frame: number) => void)[] = [];
+
+  constructor() {
+    const stageHost = h('div', { className: 'stage', attrs: { 'data-role': 'stage' } });
+    this.scene = new SceneView(stageHost);
+    this.rateReadout = h('div', { className: 'draw-rate', attrs: { 'data-role': 'draw-rate' }, text: 'paused' });
+    stageHost.append(this.rateReadout);
+    this.legend = h('div', { className: 'legend', attrs: { 'data-role': 'legend' } });
+    this.colourMode = select([['material', 'Material'], ['actuator', 'Actuator level'], ['strain', 'Strain']], 'material', { 'data-role': 'colour-mode' });
+    this.strainLimit = select(STRAIN_LIMITS.map((v) => [String(v), `±${v * 100} %`] as const), '0.05', { 'data-role': 'strain-limit' });
+    this.showNodes = checkbox(true, 'show-nodes');
+    this.showSprings = checkbox(true, 'show-springs');
+    this.showFaces = checkbox(true, 'show-faces');
+    for (const control of [this.colourMode, this.strainLimit]) control.addEventListener('change', () => this.recolour());
+    for (const box of [this.showNodes, this.showSprings, this.showFaces]) box.addEventListener('change', () => this.applyVisibility());
+    const options = h(
+      'div',
+      { className: 'view-options' },
+      labelled('Colour by', this.colourMode),
+      labelled('Strain scale', this.strainLimit),
+      labelled('Nodes', this.showNodes),
+      labelled('Springs', this.showSprings),
+      labelled('Cell skin', this.showFaces),
+    );
+    this.bar = new PlaybackBar({ changed: () => this.afterClockChange() });
+    this.root = h('div', { className: 'player' }, h('div', { className: 'stage-row' }, stageHost, h('aside', { className: 'stage-side' }, options, this.legend)), this.bar.root);
+    this.recolour();
+  }
+
+  /** Shows a new trajectory; frames may still be arriving (see framesArrived). */
+  load(topology: BodyTopology, frames: TrajectoryFrames, frameIntervalS: number, world: StageWorld): void {
+    this.body = new BodyView(topology);
+    this.frames = frames;
+    this.world = world;
+    this.clock = new PlaybackClock(frameIntervalS, frames.frameCount);
+    this.shownFrame = -1;
+    this.framed = false;
+    this.scene.setBody(this.body);
+    this.scene.setWorld(world);
+    this.showFaces.disabled = !this.body.hasFaces;
+    this.applyVisibility();
+    this.recolour();
+    this.bar.setClock(this.clock, frames.filled);
+    this.framesArrived();
+  }
+
+  clear(): void {
+    this.stopLoop();
+    this.body = null;
+    this.frames = null;
+    this.clock = null;
+    this.scene.setBody(null);
+    this.bar.setClock(null, 0);
+  }
+
+  /** Call after frames were added to the loaded trajectory. */
+  framesArrived(): void {
+    if (!this.frames || !this.body) return;
+    this.bar.setAvailable(this.frames.filled);
+    if (this.frames.filled > 0 && !this.framed) {
+      // Frame the camera on the first frame, with room for the motion to come.
+      this.scene.frame(BodyView.frameBounds(this.frames.positionsM, 0, this.frames.nodeCount), this.world.ground.heightM);
+      this.framed = true;
+    }
+    if (this.shownFrame < 0 && this.frames.filled > 0) this.showFrame(0);
+  }
+
+  get currentFrame(): number {
+    return this.clock?.frame ?? 0;
+  }
+
+  play(): void {
+    if (!this.clock || this.clock.playing) return;
+    this.clock.toggle();
+    this.afterClockChange();
+  }
+
+  pause(): void {
+    if (!this.clock || !this.clock.playing) return;
+    this.clock.toggle();
+    this.afterClockChange();
+  }
+
+  /** Called with the shown frame whenever it changes. */
+  onFrame(listener: (frame: number) => void): void {
+    this.frameListeners.push(listener);
+  }
+
+  private afterClockChange(): void {
+    if (!this.clock) return;
+    this.bar.sync();
+    if (this.clock.frame !== this.shownFrame) this.showFrame(this.clock.frame);
+    if (this.clock.playing) this.startLoop();
+    else this.stopLoop();
+  }
+
+  private startLoop(): void {
+    if (this.looping) return;
+    this.looping = true;
+    this.lastTickMs = performance.now();
+    this.rateWindowStartMs = this.lastTickMs;
+    this.rateWindowFrames = 0;
+    requestAnimationFrame(this.tick);
+  }
+
+  private stopLoop(): void {
+    this.looping = false;
+    this.rateReadout.textContent = 'paused';
+  }
+
+  private readonly tick = (nowMs: number): void => {
+    if (!this.looping || !this.clock || !this.frames) return;
+    const elapsedS = Math.min(0.25, Math.max(0, (nowMs - this.lastTickMs) / 1000));
+    this.lastTickMs = nowMs;
+    if (this.clock.advance(elapsedS, this.frames.filled)) {
+      this.showFrame(this.clock.frame);
+      this.bar.sync();
+    }
+    this.rateWindowFrames++;
+    if (nowMs - this.rateWindowStartMs >= 1000) {
+      const rate = (1000 * this.rateWindowFrames) / (nowMs - this.rateWindowStartMs);
+      this.rateReadout.textContent = `drawing ${rate.toFixed(0)} frames/s`;
+      this.rateReadout.setAttribute('data-rate', rate.toFixed(1));
+      this.rateWindowStartMs = nowMs;
+      this.rateWindowFrames = 0;
+    }
+    if (!this.clock.playing) {
+      this.stopLoop();
+      this.bar.sync();
+      return;
+    }
+    requestAnimationFrame(this.tick);
+  };
+
+  private showFrame(frame: number): void {
+    const body = this.body;
+    const frames = this.frames;
+    if (!body || !frames || frame >= frames.filled) return;
+    const offset = frames.positionOffset(frame);
+    body.showPositions(frames.positionsM, offset);
+    const mode = this.colourMode.value as ColourMode;
+    // Material colours do not change over time; recolour only when the frame matters.
+    if (mode !== 'material' || this.shownFrame < 0) {
+      body.showColours(mode, frames.positionsM, offset, frames.controls, frames.controlOffset(frame), Number(this.strainLimit.value));
+    }
+    this.shownFrame = frame;
+    this.root.setAttribute('data-frame', String(frame));
+    this.scene.requestRender();
+    for (const listener of this.frameListeners) listener(frame);
+  }
+
+  private recolour(): void {
+    const mode = this.colourMode.value as ColourMode;
+    this.strainLimit.disabled = mode !== 'strain';
+    renderColourLegend(this.legend, mode, this.body?.topology.materialNames ?? [], Number(this.strainLimit.value));
+    if (this.body && this.frames && this.shownFrame >= 0) {
+      const offset = this.frames.positionOffset(this.shownFrame);
+      this.body.showColours(mode, this.frames.positionsM, offset, this.frames.controls, this.frames.controlOffset(this.shownFrame), Number(this.strainLimit.value));
+      this.scene.requestRender();
+    }
+  }
+
+  private applyVisibility(): void {
+    this.body?.setVisibility({ nodes: this.showNodes.checked, springs: this.showSprings.checked, faces: this.showFaces.checked });
+    this.scene.requestRender();
+  }
+}
+
+function checkbox(checked: boolean, role: string): HTMLInputElement {
+  const box = document.createElement('input');
+  box.type = 'checkbox';
+  box.checked = checked;
+  box.setAttribute('data-role', role);
+  return box;
+}
