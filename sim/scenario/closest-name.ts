@@ -21,11 +21,16 @@ export function editDistance(a: string, b: string): number {
 }
 
 /**
- * The candidate closest to `written`, if within a third of its length (at least 2 edits for
- * short names); undefined when nothing is that close.
+ * The one candidate that `written` abbreviates, else the candidate closest to it if within a
+ * third of its length (at least 2 edits; 1 for words of up to 4 letters); else undefined.
  */
 export function closestName(written: string, candidates: readonly string[]): string | undefined {
-  const allowed = Math.max(2, Math.floor(written.length / 3));
+  // A clear abbreviation ("valid" for "validation") is a likelier intent than any near word.
+  const lower = written.toLowerCase();
+  const extending = lower.length >= 3 ? candidates.filter((c) => c.toLowerCase().startsWith(lower) && c !== written) : [];
+  if (extending.length === 1) return extending[0];
+  // Short words are only a typo away from many others ("sine" and "none"), so allow one edit.
+  const allowed = written.length <= 4 ? 1 : Math.max(2, Math.floor(written.length / 3));
   let best: string | undefined;
   let bestDistance = Infinity;
   for (const candidate of candidates) {

@@ -196,14 +196,17 @@ const worldSchema = closed(
   [],
 );
 
+// The control spec is large and used for every channel: written once, referenced by each.
+const CONTROL_SPEC_REF = '#/$defs/controlSpec';
+
 const controlsSchema = closed(
   'Control signals per channel. Channel names come from the system (e.g. "top-offset-x", "force-node12-y", "actuator-0").',
   {
-    default: { ...controlSpecSchema, description: 'Signal of every channel not named in "channels".', default: { kind: 'none' } },
+    default: { $ref: CONTROL_SPEC_REF, description: 'Signal of every channel not named in "channels".', default: { kind: 'none' } },
     channels: {
       type: 'object',
       description: 'Signals by channel name, or by channel index written as a string ("0").',
-      additionalProperties: controlSpecSchema,
+      additionalProperties: { $ref: CONTROL_SPEC_REF },
       default: {},
     },
   },
@@ -211,7 +214,7 @@ const controlsSchema = closed(
 );
 
 const timeSchema = closed(
-  'Recording. Fixed for the whole sweep so every episode has the same time base.',
+  'Recording: the record interval, the number of records and the integration sub-steps; fixed for the whole sweep so every episode has the same time base.',
   {
     recordIntervalS: { type: 'number', exclusiveMinimum: 0, maximum: 3600, description: 'Time between records (and between control updates), s.' },
     recordedSteps: { type: 'integer', minimum: 1, maximum: MAX_RECORDED_STEPS, description: 'Records per episode after the initial state.' },
@@ -309,4 +312,5 @@ export const SCENARIO_SCHEMA: JsonSchema = {
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,
+  $defs: { controlSpec: controlSpecSchema },
 };
