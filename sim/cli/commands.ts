@@ -1,5 +1,12 @@
 // The table of `pliant` sub-commands. Each lives in its own file; add new ones here.
 import type { CliCommand } from './command.ts';
 import { benchCommand } from './bench-command.ts';
+import { validateCommand } from './validate-command.ts';
+import { generateCommand } from './generate-command.ts';
+import { mergeCommand } from './merge-command.ts';
+import { verifyCommand } from './verify-command.ts';
+import { reproduceCommand } from './reproduce-command.ts';
+import { inspectCommand } from './inspect-command.ts';
+import { demoCommand } from './demo-command.ts';
 
-export const COMMANDS: CliCommand[] = [benchCommand];
+export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, demoCommand, benchCommand];

@@ -1,0 +1,246 @@
+// Writes CARD.md, the human-readable description of a dataset: what the systems are, how every
+// sampled parameter is spread (with text histograms), the splits, the arrays, how to load them
+// in Python, which episodes were rejected and why, and the hardware-safety caution. It is made
+// from the manifest's content alone (never the run metadata), so every copy of a dataset made
+// from the same seed file has the same card, byte for byte.
+import type { DatasetManifest, EpisodeRecord } from './dataset-manifest.ts';
+import { EPISODE_ARRAYS } from './episode-array-catalogue.ts';
+import { categoricalHistogram, formatLabelNumber, numericHistogram } from './text-histogram.ts';
+import { valueAtPointer } from './json-pointer-lookup.ts';
+import { unitOfLabel } from './label-units.ts';
+import { SAFETY_CAUTION } from './safety-caution.ts';
+import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
+
+export type CardSource = Omit<DatasetManifest, 'documents' | 'run'>;
+
+/** How many rejected episodes the card lists one by one; the manifest lists them all. */
+const REJECTED_LISTED = 50;
+
+function fence(language: string, lines: string[]): string[] {
+  return ['```' + language, ...lines, '```'];
+}
+
+function describeSystem(scenario: Record<string, unknown>, episodes: EpisodeRecord[]): string[] {
+  const system = (scenario.system ?? {}) as Record<string, unknown>;
+  const nodes = episodes.map((e) => e.simulation.nodeCount);
+  const springs = episodes.map((e) => e.simulation.springCount);
+  const range = (values: number[]) => (values.length === 0 ? 'none' : Math.min(...values) === Math.max(...values) ? String(values[0]) : `${Math.min(...values)} to ${Math.max(...values)}`);
+  const lines: string[] = [];
+  if (system.kind === 'chain') {
+    lines.push('Each episode is a **chain** (rope, cable or tether) of equal parts: point masses joined by structural springs, with bending springs across every second node, simulated by semi-implicit Euler.');
+  } else if (system.kind === 'lattice') {
+    lines.push('Each episode is a **voxel lattice**: a soft body of cells of one or more materials whose corner nodes are joined by edge and diagonal springs; cells of actuated materials change their rest lengths with their control channel. Simulated by semi-implicit Euler.');
+  } else {
+    lines.push(`Each episode is a system of kind ${JSON.stringify(system.kind)}.`);
+  }
+  lines.push('', `Nodes per episode: ${range(nodes)}; springs per episode: ${range(springs)}.`);
+  const steps = episodes[0]?.simulation;
+  if (steps) {
+    lines.push(`Recorded: ${steps.recordedSteps} steps of ${formatLabelNumber(steps.recordIntervalS)} s (${formatLabelNumber(steps.recordedSteps * steps.recordIntervalS)} s) per episode; sub-steps per record vary from ${Math.min(...episodes.map((e) => e.simulation.substeps))} to ${Math.max(...episodes.map((e) => e.simulation.substeps))} (chosen from the stability bound when "auto").`);
+  }
+  return lines;
+}
+
+function labelPointers(episodes: EpisodeRecord[]): string[] {
+  const seen = new Set<string>();
+  for (const e of episodes) for (const key of Object.keys(e.labels)) seen.add(key);
+  return [...seen];
+}
+
+/** Most distinct non-numeric values a card shows one row each for. */
+const CATEGORY_ROWS = 12;
+
+/**
+ * The spec a label was drawn from. Control labels are keyed by channel name
+ * (/controls/<channel>/<member>), so they are looked up in the spec that drives that channel.
+ */
+function specOfLabel(source: CardSource, pointer: string): unknown {
+  const direct = valueAtPointer(source.scenario, pointer);
+  if (direct !== undefined) return direct;
+  const match = /^\/controls\/([^/]+)(\/.*)?$/.exec(pointer);
+  if (!match) return undefined;
+  const channel = match[1].replace(/~1/g, '/').replace(/~0/g, '~');
+  const rest = match[2] ?? '';
+  const controls = ((source.scenario as Record<string, unknown>).controls ?? {}) as { default?: unknown; channels?: Record<string, unknown> };
+  const index = source.episodes.flatMap((e) => e.controlChannels).find((c) => c.name === channel)?.index;
+  const spec = controls.channels?.[channel] ?? (index === undefined ? undefined : controls.channels?.[String(index)]) ?? controls.default;
+  return valueAtPointer(spec, rest);
+}
+
+function parameterSections(source: CardSource): string[] {
+  const lines: string[] = [];
+  const fixed: string[] = [];
+  const lists: string[] = [];
+  const channelUnits = new Map(source.episodes.flatMap((e) => e.controlChannels).map((c) => [c.name, c.unit]));
+  for (const pointer of labelPointers(source.episodes)) {
+    const values = source.episodes.filter((e) => pointer in e.labels).map((e) => e.labels[pointer]);
+    const unit = unitOfLabel(pointer, channelUnits);
+    const distinct = new Set(values.map((v) => JSON.stringify(v)));
+    if (distinct.size === 1) {
+      fixed.push(`| \`${pointer}\` | ${JSON.stringify(values[0])} | ${unit || '—'} |`);
+      continue;
+    }
+    if (values.some((v) => v !== null && typeof v === 'object')) {
+      lists.push(`- \`${pointer}\`${unit ? ` (${unit})` : ''}: a list per episode, ${distinct.size} distinct`);
+      continue;
+    }
+    const spec = specOfLabel(source, pointer);
+    const origin = spec === undefined || (typeof spec === 'object' && spec !== null && !('kind' in spec))
+      ? 'Derived by the sampler from other draws.'
+      : `Sampled from \`${JSON.stringify(spec)}\`.`;
+    lines.push('', `### \`${pointer}\`${unit ? ` (${unit})` : ''}`, '', origin);
+    const numbers = values.filter((v): v is number => typeof v === 'number');
+    if (numbers.length === values.length) {
+      lines.push(`Range over ${numbers.length} episodes: ${formatLabelNumber(Math.min(...numbers))} to ${formatLabelNumber(Math.max(...numbers))}.`, '');
+      lines.push(...fence('text', numericHistogram(numbers)));
+    } else if (distinct.size <= CATEGORY_ROWS) {
+      lines.push('', ...fence('text', categoricalHistogram(values)));
+    } else {
+      lines.push(`${distinct.size} distinct values over ${values.length} episodes.`);
+    }
+  }
+  if (fixed.length > 0) {
+    lines.push('', '### Fixed values', '', 'Labels that took the same value in every episode:', '', '| label | value | unit |', '| --- | --- | --- |', ...fixed);
+  }
+  if (lists.length > 0) {
+    lines.push('', '### Per-episode lists', '', 'Labels whose value is a list (for example the frequencies and phases a control signal drew); see each episode\'s `labels` in the manifest:', '', ...lists);
+  }
+  return lines;
+}
+
+function splitSection(source: CardSource): string[] {
+  const lines = ['| split | good episodes | rejected |', '| --- | --- | --- |'];
+  for (const [split, counts] of Object.entries(source.splits)) lines.push(`| ${split} | ${counts.ok} | ${counts.rejected} |`);
+  const splits = ((source.scenario as Record<string, unknown>).splits ?? {}) as Record<string, unknown>;
+  const heldOut = Array.isArray(splits.heldOut) ? splits.heldOut : [];
+  if (splits.fractions !== undefined) {
+    lines.push('', `Episodes outside every held-out range are assigned to splits with the fractions \`${JSON.stringify(splits.fractions)}\`, drawn from each episode's own random stream (so the assignment does not depend on how many episodes there are or how they are sharded).`);
+  }
+  for (const rule of heldOut) {
+    lines.push(`- Held-out rule: \`${JSON.stringify(rule)}\` — episodes whose sampled value matches go to that split whatever the fractions say, for testing generalisation beyond the training range.`);
+  }
+  return lines;
+}
+
+function arraySection(source: CardSource): string[] {
+  const float = source.export.dtype;
+  const lattice = source.episodes.some((e) => e.systemKind === 'lattice');
+  const lines = ['| array | dtype | shape | unit | meaning |', '| --- | --- | --- | --- | --- |'];
+  for (const a of EPISODE_ARRAYS) {
+    if (a.latticeOnly && !lattice) continue;
+    lines.push(`| \`${a.name}\` | ${a.dtype === 'float' ? float : a.dtype} | (${a.shape.join(', ')}) | ${a.unit} | ${a.meaning} |`);
+  }
+  lines.push('', 'T is the number of recorded steps, N nodes, C control channels, E springs, K cells. The control channels of each episode (name, kind, unit) are listed under `controlChannels` in its manifest record; its sampled parameters under `labels`.');
+  return lines;
+}
+
+function loadingSection(source: CardSource): string[] {
+  const first = source.episodes.find((e) => e.status === 'ok');
+  const npz = source.files.some((f) => f.kind === 'episode-npz');
+  const h5 = source.files.filter((f) => f.kind === 'split-hdf5');
+  const lines: string[] = ['Run these from inside the dataset folder.'];
+  if (!first) return [...lines, '', 'No episode of this folder was recorded successfully, so there is nothing to load.'];
+  if (npz) {
+    lines.push('', 'With NumPy (one `.npz` file per episode):', '');
+    lines.push(...fence('python', [
+      'import json',
+      'import numpy as np',
+      '',
+      `with open("${MANIFEST_FILE}") as f:`,
+      '    manifest = json.load(f)',
+      'good = [e for e in manifest["episodes"] if e["status"] == "ok"]',
+      'episode = good[0]',
+      'with np.load(f"episodes/{episode[\'id\']}.npz") as arrays:',
+      '    positions = arrays["positions"]    # (T+1, N, 3), m',
+      '    controls = arrays["controls"]      # (T, C), per channel unit',
+      '    edges = arrays["edges"]            # (E, 2) node indices',
+      'print(episode["id"], episode["split"], positions.shape, controls.shape, edges.shape)',
+      'print("sampled parameters:", episode["labels"])',
+    ]));
+  }
+  if (h5.length > 0) {
+    const file = h5.find((f) => f.split === first.split) ?? h5[0];
+    lines.push('', 'With h5py (one `.h5` file per split, one group per episode):', '');
+    lines.push(...fence('python', [
+      'import h5py',
+      '',
+      `with h5py.File("${file.path}", "r") as f:`,
+      '    for episode_id in sorted(f.keys())[:3]:',
+      '        group = f[episode_id]',
+      '        positions = group["positions"][...]    # (T+1, N, 3), m',
+      '        print(episode_id, positions.shape, group["controls"].shape)',
+    ]));
+  }
+  return lines;
+}
+
+function rejectedSection(source: CardSource): string[] {
+  const rejected = source.episodes.filter((e) => e.status === 'rejected');
+  const lines = [
+    'An episode whose simulation becomes unstable (non-finite values, a spring stretched beyond the limit, an implausible speed) is never written as if it were good: it gets no data files, its manifest record has `"status": "rejected"` and the reason (step, node, cause), and the sweep moves on to the next episode. Which episodes are rejected depends only on the seed file, so every regeneration rejects the same ones.',
+    '',
+  ];
+  if (rejected.length === 0) return [...lines, 'No episode was rejected.'];
+  lines.push(`${rejected.length} episode${rejected.length === 1 ? ' was' : 's were'} rejected:`, '', '| episode | split | step | node | what happened |', '| --- | --- | --- | --- | --- |');
+  for (const e of rejected.slice(0, REJECTED_LISTED)) {
+    const r = e.rejection!;
+    lines.push(`| ${e.id} | ${e.split} | ${r.step} | ${r.node} | ${r.kind}: ${r.likelyCause} |`);
+  }
+  if (rejected.length > REJECTED_LISTED) lines.push('', `…and ${rejected.length - REJECTED_LISTED} more; see \`${MANIFEST_FILE}\`.`);
+  return lines;
+}
+
+export function renderDatasetCard(source: CardSource): string {
+  const ok = source.episodes.filter((e) => e.status === 'ok').length;
+  const rejected = source.episodes.length - ok;
+  const scenario = source.scenario as Record<string, unknown>;
+  const scope = source.shard
+    ? `This folder is shard ${source.shard.index} of ${source.shard.count} of a sweep of ${source.episodeCount} episodes: it holds ${source.episodes.length} of them. Merge all shards with \`pliant merge\` to get the whole dataset.`
+    : `The sweep has ${source.episodeCount} episodes.`;
+  const lines = [
+    `# ${source.name || 'Pliant dataset'}`,
+    '',
+    source.description || 'A simulated trajectory dataset made by Pliant.',
+    '',
+    `> **Caution.** ${SAFETY_CAUTION}`,
+    '',
+    '## What is in it',
+    '',
+    ...describeSystem(scenario, source.episodes),
+    '',
+    `${scope} ${ok} recorded, ${rejected} rejected. Master seed ${source.masterSeed}; floating-point arrays are ${source.export.dtype}; files: ${source.export.format === 'both' ? 'NPZ per episode and HDF5 per split' : source.export.format === 'npz' ? 'NPZ per episode' : 'HDF5 per split'}. Written by Pliant ${source.pliantVersion}.`,
+    '',
+    'Every file is listed with its SHA-256 in `manifest.json`; check them with `pliant verify .`.',
+    '',
+    '## Splits',
+    '',
+    ...splitSection(source),
+    '',
+    '## Sampled parameters',
+    '',
+    'Every sampled value is stored per episode under `labels` in the manifest, keyed by the JSON pointer of its place in the scenario. Units follow the scenario key names (SI).',
+    ...parameterSections(source),
+    '',
+    '## Arrays of each episode',
+    '',
+    ...arraySection(source),
+    '',
+    '## Loading in Python',
+    '',
+    ...loadingSection(source),
+    '',
+    '## Rejected episodes',
+    '',
+    ...rejectedSection(source),
+    '',
+    '## Regenerating',
+    '',
+    `\`${SEED_FILE}\` holds everything needed to regenerate this dataset bit for bit:`,
+    '',
+    ...fence('sh', [`npx pliant reproduce ${SEED_FILE} --out regenerated`]),
+    '',
+    `(\`${CARD_FILE}\` is written from the manifest; it is not a source of truth.)`,
+    '',
+  ];
+  return lines.join('\n');
+}

@@ -1,0 +1,44 @@
+// What each array of an episode holds: its name in the files, its shape in symbols, its unit
+// and its meaning. The manifest, the dataset card and LAYOUT.md all quote this one table, so a
+// learner reading any of them gets the same description of every column.
+import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
+import { RELATION_NAMES } from '../core/model.ts';
+
+/** 'float' arrays take the dataset's export dtype (float32 or float64); the rest are fixed. */
+export type CatalogueDtype = 'float' | 'int32' | 'uint8' | 'int16';
+
+export interface ArrayDescription {
+  name: string;
+  dtype: CatalogueDtype;
+  /** Shape in symbols: T recorded steps, N nodes, C control channels, E springs, K cells. */
+  shape: string[];
+  unit: string;
+  meaning: string;
+  /** Only lattices have cells. */
+  latticeOnly?: boolean;
+}
+
+export const ENERGY_COLUMNS = ['kinetic', 'elastic', 'gravitational'] as const;
+
+export const EPISODE_ARRAYS: readonly ArrayDescription[] = [
+  { name: 'time', dtype: 'float', shape: ['T+1'], unit: 's', meaning: 'record times from the start of the episode; row t of positions, velocities and energies is the state at time[t]' },
+  { name: 'positions', dtype: 'float', shape: ['T+1', 'N', '3'], unit: 'm', meaning: 'node positions (x, y, z) at each record time; y is up' },
+  { name: 'velocities', dtype: 'float', shape: ['T+1', 'N', '3'], unit: 'm/s', meaning: 'node velocities at each record time' },
+  { name: 'controls', dtype: 'float', shape: ['T', 'C'], unit: 'per channel (see controlChannels: N, m or 1)', meaning: 'control applied from time[t] to time[t+1]; column c is control channel c' },
+  { name: 'energies', dtype: 'float', shape: ['T+1', '3'], unit: 'J', meaning: `energies at each record time, columns ${ENERGY_COLUMNS.join(', ')}` },
+  { name: 'node_features', dtype: 'float', shape: ['N', String(NODE_FEATURE_NAMES.length)], unit: 'kg for mass_kg, else 1', meaning: `per-node features, columns ${NODE_FEATURE_NAMES.join(', ')} (flags are 0/1; material and channel are indices, -1 for none)` },
+  { name: 'edges', dtype: 'int32', shape: ['E', '2'], unit: '1', meaning: 'node indices (a, b) of each spring' },
+  { name: 'edge_relation', dtype: 'uint8', shape: ['E'], unit: '1', meaning: `relation type of each spring: ${RELATION_NAMES.map((name, i) => `${i} ${name}`).join(', ')}` },
+  { name: 'edge_rest_length', dtype: 'float', shape: ['E'], unit: 'm', meaning: 'rest length of each spring without actuation' },
+  { name: 'edge_stiffness', dtype: 'float', shape: ['E'], unit: 'N/m', meaning: 'stiffness k of each spring: force k·(L − rest length) along the spring' },
+  { name: 'edge_damping', dtype: 'float', shape: ['E'], unit: 'N·s/m', meaning: 'damping c of each spring along its axis: force c·(relative velocity · unit axis)' },
+  { name: 'cells', dtype: 'int32', shape: ['K', 'corners'], unit: '1', meaning: 'corner node indices of each cell (8 for voxels, 4 for squares; corner bit 0 = +x, bit 1 = +y, bit 2 = +z)', latticeOnly: true },
+  { name: 'cell_material', dtype: 'int16', shape: ['K'], unit: '1', meaning: 'material index of each cell (into the scenario\'s materials)', latticeOnly: true },
+  { name: 'cell_channel', dtype: 'int16', shape: ['K'], unit: '1', meaning: 'actuator channel of each cell, -1 for passive cells', latticeOnly: true },
+];
+
+export function describeArray(name: string): ArrayDescription {
+  const found = EPISODE_ARRAYS.find((a) => a.name === name);
+  if (!found) throw new RangeError(`no array named ${name} in the episode catalogue`);
+  return found;
+}

@@ -1,0 +1,52 @@
+// Turns a recorded trajectory and the graph labels of its model into the named, shaped arrays
+// an episode file stores, in the order and with the dtypes of the catalogue. Floating-point
+// arrays are narrowed to float32 unless float64 was asked for; narrowing rounds to nearest, so
+// it is the same on every machine.
+import type { RecordedTrajectory } from '../episode/record-episode.ts';
+import type { GraphLabels } from '../systems/graph-labels.ts';
+import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
+import type { ExportDtype } from './dataset-manifest.ts';
+import { EPISODE_ARRAYS } from './episode-array-catalogue.ts';
+import { namedArray } from './named-array.ts';
+import type { NamedArray } from './named-array.ts';
+
+type StoredArrayData = Float32Array | Float64Array | Int32Array | Uint8Array | Int16Array;
+
+/** An episode's arrays carry their catalogue unit and meaning, which HDF5 keeps as attributes. */
+export type EpisodeArray = NamedArray;
+
+function floats(values: Float64Array, dtype: ExportDtype): Float32Array | Float64Array {
+  return dtype === 'float64' ? values.slice() : Float32Array.from(values);
+}
+
+export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels, cellCornerCount: number, dtype: ExportDtype): EpisodeArray[] {
+  const t = trajectory.steps;
+  const n = trajectory.nodeCount;
+  const c = trajectory.channelCount;
+  const e = graph.edgeRelation.length;
+  const k = graph.cellMaterial.length;
+  const data: Record<string, { shape: number[]; data: StoredArrayData }> = {
+    time: { shape: [t + 1], data: floats(trajectory.timeS, dtype) },
+    positions: { shape: [t + 1, n, 3], data: floats(trajectory.positionM, dtype) },
+    velocities: { shape: [t + 1, n, 3], data: floats(trajectory.velocityMPerS, dtype) },
+    controls: { shape: [t, c], data: floats(trajectory.controls, dtype) },
+    energies: { shape: [t + 1, 3], data: floats(trajectory.energiesJ, dtype) },
+    node_features: { shape: [n, NODE_FEATURE_NAMES.length], data: floats(graph.nodeFeatures, dtype) },
+    edges: { shape: [e, 2], data: Int32Array.from(graph.edges) },
+    edge_relation: { shape: [e], data: graph.edgeRelation.slice() },
+    edge_rest_length: { shape: [e], data: floats(graph.edgeRestLengthM, dtype) },
+    edge_stiffness: { shape: [e], data: floats(graph.edgeStiffnessNPerM, dtype) },
+    edge_damping: { shape: [e], data: floats(graph.edgeDampingNsPerM, dtype) },
+    cells: { shape: [k, cellCornerCount], data: Int32Array.from(graph.cells) },
+    cell_material: { shape: [k], data: graph.cellMaterial.slice() },
+    cell_channel: { shape: [k], data: graph.cellChannel.slice() },
+  };
+  const arrays: EpisodeArray[] = [];
+  for (const description of EPISODE_ARRAYS) {
+    if (description.latticeOnly && k === 0) continue;
+    const entry = data[description.name];
+    // namedArray takes the dtype from the typed array, so it cannot disagree with the data.
+    arrays.push(namedArray(description.name, entry.shape, entry.data, { unit: description.unit, description: description.meaning }) as NamedArray);
+  }
+  return arrays;
+}

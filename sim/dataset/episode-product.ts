@@ -1,0 +1,89 @@
+// Runs one episode of a sweep from its index alone — sample it, simulate it, label it — and
+// returns either its arrays and manifest record, or a record saying why it was rejected. The
+// same function runs in the main thread and in worker threads, so where an episode is computed
+// can never change what is written.
+import { sampleEpisode } from '../scenario/sample-episode.ts';
+import type { Scenario } from '../scenario/scenario-types.ts';
+import { recordTrajectory, resolveSubsteps } from '../episode/record-episode.ts';
+import { SimulationBlowUpError, likelyCause } from '../core/simulation-error.ts';
+import { graphLabels } from '../systems/graph-labels.ts';
+import type { EpisodeRecord, EpisodeRejection, ExportDtype } from './dataset-manifest.ts';
+import { episodeArrays } from './episode-arrays.ts';
+import type { EpisodeArray } from './episode-arrays.ts';
+import { episodeId } from './dataset-files.ts';
+import type { ReplayTable } from './replay-inputs.ts';
+
+export interface EpisodeProduct {
+  record: EpisodeRecord;
+  /** The arrays to store, in catalogue order; null for a rejected episode. */
+  arrays: EpisodeArray[] | null;
+}
+
+/** An episode that could not even be built: a scenario problem, not an unstable simulation. */
+export class EpisodeBuildError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'EpisodeBuildError';
+  }
+
+  static of(episodeIndex: number, cause: unknown): EpisodeBuildError {
+    return new EpisodeBuildError(`episode ${episodeIndex} could not be built from the scenario: ${cause instanceof Error ? cause.message : String(cause)}`);
+  }
+}
+
+function rejectionOf(error: SimulationBlowUpError): EpisodeRejection {
+  const d = error.details;
+  return {
+    kind: d.kind,
+    step: d.step,
+    node: d.node,
+    spring: d.spring ?? null,
+    value: Number.isFinite(d.value) ? d.value : null,
+    dtS: d.dtS,
+    criticalDtS: d.criticalDtS,
+    message: error.message,
+    likelyCause: likelyCause(d),
+  };
+}
+
+export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable): EpisodeProduct {
+  let sampled;
+  try {
+    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file) });
+  } catch (error) {
+    throw EpisodeBuildError.of(index, error);
+  }
+  const model = sampled.system.model;
+  // Graph labels describe the unactuated model, so take them before the run moves anything.
+  const graph = graphLabels(model);
+  const { substeps, dtS, criticalDtS } = resolveSubsteps(model, sampled.world, sampled.recording);
+  const record: EpisodeRecord = {
+    id: episodeId(index, scenario.episodes),
+    index,
+    split: sampled.split,
+    seed: { masterSeed: sampled.masterSeed, episodeIndex: index },
+    status: 'ok',
+    rejection: null,
+    systemKind: sampled.system.kind,
+    labels: sampled.labels,
+    simulation: {
+      nodeCount: model.nodeCount,
+      springCount: model.springCount,
+      cellCount: model.cellCount,
+      substeps,
+      dtS,
+      criticalDtS,
+      recordIntervalS: sampled.recording.recordIntervalS,
+      recordedSteps: sampled.recording.recordedSteps,
+    },
+    controlChannels: sampled.system.controlChannels,
+    files: [],
+  };
+  try {
+    const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording);
+    return { record, arrays: episodeArrays(trajectory, graph, model.cellCornerCount, dtype) };
+  } catch (error) {
+    if (!(error instanceof SimulationBlowUpError)) throw EpisodeBuildError.of(index, error);
+    return { record: { ...record, status: 'rejected', rejection: rejectionOf(error.inEpisode(index)) }, arrays: null };
+  }
+}

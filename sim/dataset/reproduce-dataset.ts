@@ -1,0 +1,99 @@
+// Regenerates a dataset from its seed.json into a new folder and compares the two file by file
+// (bytes, by SHA-256): the proof that a dataset is what its seed file says it is.
+import { readFile } from 'node:fs/promises';
+import { dirname, join, resolve } from 'node:path';
+import { parseSeedFile } from './seed-file.ts';
+import { DatasetRequestError } from './dataset-request-error.ts';
+import { generateDataset } from './generate-dataset.ts';
+import type { GenerateResult } from './generate-dataset.ts';
+import type { GenerationListener } from './generation-progress.ts';
+import { readFolderState } from './dataset-folder-state.ts';
+import { MANIFEST_FILE } from './dataset-files.ts';
+import type { DatasetManifest } from './dataset-manifest.ts';
+import { sha256Hex } from './sha256.ts';
+
+export type FileComparison = 'identical' | 'different' | 'missing in original' | 'missing in regenerated';
+
+export interface ReproduceRequest {
+  seedPath: string;
+  outDir: string;
+  workers: number;
+  force: boolean;
+  pliantVersion: string;
+  onEvent?: GenerationListener;
+  shouldStop?: () => boolean;
+}
+
+export interface ReproduceReport {
+  generated: GenerateResult;
+  /** Pliant version that wrote the seed file; bytes may differ when it is not this one. */
+  seedVersion: string;
+  comparisons: Array<{ path: string; result: FileComparison }>;
+  identical: boolean;
+}
+
+async function hashOf(path: string): Promise<string | null> {
+  try {
+    return sha256Hex(await readFile(path));
+  } catch {
+    return null;
+  }
+}
+
+function listedPaths(manifest: DatasetManifest | null): string[] {
+  return manifest ? [...manifest.documents.map((d) => d.path), ...manifest.files.map((f) => f.path)] : [];
+}
+
+/** The manifest without `run`, the part two copies of a dataset must share. */
+function checkedPart(text: string | null): string | null {
+  if (text === null) return null;
+  try {
+    const { run: _run, ...rest } = JSON.parse(text) as DatasetManifest;
+    return JSON.stringify(rest);
+  } catch {
+    return null;
+  }
+}
+
+export async function reproduceDataset(request: ReproduceRequest): Promise<ReproduceReport> {
+  const seedPath = resolve(request.seedPath);
+  let seedText: string;
+  try {
+    seedText = await readFile(seedPath, 'utf8');
+  } catch {
+    throw new DatasetRequestError(`cannot read ${request.seedPath}; give the seed.json of a dataset folder`);
+  }
+  const seed = parseSeedFile(seedText, request.seedPath);
+  const originalDir = dirname(seedPath);
+  const original = await readFolderState(originalDir);
+  if (resolve(request.outDir) === originalDir) throw new DatasetRequestError('--out must be a different folder from the one holding the seed file');
+  const generated = await generateDataset({
+    scenario: seed.scenario,
+    inputs: { kind: 'seed', seedDir: originalDir, seedName: request.seedPath, inputs: seed.inputs },
+    outDir: request.outDir,
+    // A shard's seed file regenerates that shard.
+    shard: original.manifest?.shard ?? null,
+    workers: request.workers,
+    resume: false,
+    force: request.force,
+    pliantVersion: request.pliantVersion,
+    onEvent: request.onEvent,
+    shouldStop: request.shouldStop,
+    runInfo: { command: ['pliant', 'reproduce', request.seedPath], reproducing: originalDir },
+  });
+  const comparisons: ReproduceReport['comparisons'] = [];
+  if (generated.status === 'stopped') return { generated, seedVersion: seed.pliantVersion, comparisons, identical: false };
+  const paths = [...new Set([...listedPaths(original.manifest), ...listedPaths(generated.manifest)])].sort();
+  for (const path of paths) {
+    const a = await hashOf(join(originalDir, path));
+    const b = await hashOf(join(generated.outDir, path));
+    comparisons.push({ path, result: a === null ? 'missing in original' : b === null ? 'missing in regenerated' : a === b ? 'identical' : 'different' });
+  }
+  const regeneratedManifest = await readFile(join(generated.outDir, MANIFEST_FILE), 'utf8');
+  const a = checkedPart(original.manifestText);
+  comparisons.push({
+    path: `${MANIFEST_FILE} (all but "run")`,
+    result: a === null ? 'missing in original' : a === checkedPart(regeneratedManifest) ? 'identical' : 'different',
+  });
+  return { generated, seedVersion: seed.pliantVersion, comparisons, identical: comparisons.every((c) => c.result === 'identical') };
+}
