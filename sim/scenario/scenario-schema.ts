@@ -283,7 +283,7 @@ export const SCENARIO_SCHEMA: JsonSchema = {
   $schema: 'https://json-schema.org/draft/2020-12/schema',
   $id: SCENARIO_SCHEMA_ID,
   title: 'Pliant scenario',
-  description: 'A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "choice", ...} drawn once per episode.',
+  description: 'A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "choice", ...} drawn once per episode. Simulated data does not replace hardware testing: bring controllers trained on it up on hardware with conservative limits, under the lab\'s own safety rules.',
   type: 'object',
   properties: {
     $schema: { type: 'string', description: 'Optional: where an editor finds this schema.' },
