@@ -40,6 +40,10 @@ export class PreviewScreen implements Screen {
     this.episodeList = h('ol', { className: 'episode-cards', attrs: { 'data-role': 'preview-episodes' } });
     this.facts = h('dl', { className: 'episode-facts', attrs: { 'data-role': 'episode-facts' } });
     this.progress = h('div', { className: 'sim-progress', attrs: { 'data-role': 'sim-progress' } });
+    // A check that finishes while this screen shows brings the preview up to date.
+    sweep.subscribe((change) => {
+      if (change === 'checked' && this.visible && !this.override && this.sweep.current.text !== this.sampledText) this.drawEpisodes();
+    });
     this.player.onFrame((frame) => {
       if (this.frames) this.plots.mark(this.frames.timeS[frame]);
     });
@@ -61,9 +65,12 @@ export class PreviewScreen implements Screen {
   }
 
   shown(): void {
+    this.visible = true;
     const source = this.source();
     if (source.text !== '' && source.text !== this.sampledText) this.drawEpisodes();
   }
+
+  private visible = false;
 
   /** Previews a scenario that is not the one on the Sweep screen (the Seed file screen uses this). */
   previewScenario(text: string, fileName: string, source: string, episodeIndex: number): void {
@@ -90,10 +97,22 @@ export class PreviewScreen implements Screen {
       this.status.show('info', 'Open a scenario on the Sweep screen first.');
       return;
     }
+    if (!this.override) {
+      const state = this.sweep.current;
+      if (state.checking) {
+        this.status.show('busy', 'Waiting for the check of the sweep…');
+        return;
+      }
+      if (!this.sweep.usable) {
+        this.status.show('error', `The sweep has ${state.problems.length} problem${state.problems.length === 1 ? '' : 's'}; fix ${state.problems.length === 1 ? 'it' : 'them'} on the Sweep screen to preview it.`);
+        return;
+      }
+    }
     const count = Math.min(MAX_PREVIEW_COUNT, Math.max(1, Math.round(Number(this.countInput.value) || DEFAULT_PREVIEW_COUNT)));
     const indices = Array.from({ length: count }, (_, i) => i);
     if (runIndex !== undefined && !indices.includes(runIndex)) indices.push(runIndex);
     this.sampledText = source.text;
+    this.progress.removeAttribute('data-state');
     this.status.show('busy', `Drawing ${indices.length} episodes of ${source.source}…`);
     const id = this.send({ type: 'sample', requestId: ++this.requestId, scenarioText: source.text, fileName: source.fileName, episodeIndices: indices });
     this.pendingRun = { requestId: id, index: runIndex ?? 0 };
@@ -111,6 +130,7 @@ export class PreviewScreen implements Screen {
     this.indexInput.value = String(index);
     this.status.show('busy', `Simulating episode ${index}…`);
     this.progress.textContent = '';
+    this.progress.removeAttribute('data-state');
     for (const card of this.episodeList.querySelectorAll('li')) card.classList.toggle('is-selected', card.getAttribute('data-index') === String(index));
     this.send({ type: 'run', requestId: ++this.requestId, scenarioText: source.text, fileName: source.fileName, episodeIndex: index });
   }
@@ -192,6 +212,7 @@ export class PreviewScreen implements Screen {
   }
 
   hidden(): void {
+    this.visible = false;
     // Playing on while hidden would spend the laptop's battery on nothing.
     this.player.pause();
   }

@@ -24,6 +24,9 @@ export class SceneView {
   private readonly groundGrid: THREE.GridHelper;
   private readonly fluid: THREE.Mesh;
   private body: BodyView | null = null;
+  /** Time spent issuing draw calls, ms, and how many renders it covers (for the draw-rate readout). */
+  renderMsTotal = 0;
+  renderCount = 0;
   private renderQueued = false;
   private readonly resizeObserver: ResizeObserver;
 
@@ -131,7 +134,10 @@ export class SceneView {
 
   private readonly renderNow = (): void => {
     this.renderQueued = false;
+    const startMs = performance.now();
     this.renderer.render(this.scene, this.camera);
+    this.renderMsTotal += performance.now() - startMs;
+    this.renderCount++;
   };
 
   private resize(): void {

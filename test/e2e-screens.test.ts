@@ -1,0 +1,142 @@
+// The app's screens end to end: the web-mode server (electron/web-server.ts) serves a fresh
+// Vite build of the renderer to Debian's headless Chromium, and the tests use the page as a
+// person would — open the demo scenarios, read the 3-D view's pixels, break a field, play and
+// step. Expected values come from outside the screens: `pliant validate` for the problem
+// wording, textbook moments for the parameter histograms, NumPy for exported files.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { bodyPixels, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
+import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
+import type { PliantWebApp } from './support/e2e-web-app.ts';
+import { openDemo, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
+import { chromiumAvailability } from './support/reference-chromium.ts';
+
+const chromium = chromiumAvailability();
+const DEMOS = readdirSync(SCENARIOS_DIR).filter((name) => name.endsWith('.json')).sort();
+
+describe.runIf(chromium.available)('Pliant screens in headless Chromium through web mode', () => {
+  let app: PliantWebApp;
+  let browser: Browser;
+  let page: Page;
+  let pageErrors: string[];
+
+  beforeAll(async () => {
+    app = await startPliantWebApp();
+    browser = await launchChromium();
+    ({ page, errors: pageErrors } = await openApp(browser, app.server.url));
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await app?.close();
+  });
+
+  it('lists every demo scenario in scenarios/', async () => {
+    await page.waitForSelector('[data-role="example-list"] option', { state: 'attached' });
+    const listed = await page.$$eval('[data-role="example-list"] option', (options) => options.map((o) => o.textContent));
+    expect(listed.sort()).toEqual(DEMOS);
+    expect(DEMOS.length).toBeGreaterThan(0);
+  });
+
+  for (const demo of DEMOS) {
+    it(`${demo}: opens without problems and previews a 3-D view that shows the body`, async () => {
+      await openDemo(page, demo);
+      expect(await page.getAttribute('[data-role="problem-summary"]', 'data-state')).toBe('ok');
+      await saveScreenshot(page, `sweep-${demo.replace('.json', '')}`);
+      await page.click('[data-nav="preview"]');
+      await waitForPreviewFinished(page);
+      await page.keyboard.press('Space'); // pause, so both captures show one frame
+      const stage = await measureStage(page, 'preview');
+      // A blank or cleared canvas would be all background.
+      expect(stage.drawnPixels).toBeGreaterThan(0.05 * stage.width * stage.height);
+      // The body itself (not only the ground and the fluid) must cover a visible area.
+      expect(await bodyPixels(page, 'preview')).toBeGreaterThan(400);
+      await saveScreenshot(page, `preview-${demo.replace('.json', '')}`);
+      expect(pageErrors).toEqual([]);
+    });
+  }
+
+  it('histograms of uniform parameters centre on (min + max)/2 (mean of U(a, b), any probability text)', async () => {
+    await openDemo(page, 'korrin-tether.json');
+    const scenario = JSON.parse(readFileSync(join(SCENARIOS_DIR, 'korrin-tether.json'), 'utf8'));
+    const spec = scenario.system.lengthM as { kind: string; min: number; max: number };
+    expect(spec.kind).toBe('uniform');
+    const caption = await page.textContent('.value-spec[data-pointer="/system/lengthM"] [data-role="histogram"] .histogram-mean');
+    const match = /mean ([0-9.e+-]+) m · ([0-9]+) draws/.exec(caption ?? '');
+    expect(match).not.toBeNull();
+    const mean = Number(match![1]);
+    const draws = Number(match![2]);
+    // Standard error of the mean of U(a, b) is (b − a)/√(12 n); allow four of them.
+    const tolerance = (4 * (spec.max - spec.min)) / Math.sqrt(12 * draws);
+    expect(Math.abs(mean - (spec.min + spec.max) / 2)).toBeLessThan(tolerance);
+    expect(draws).toBe(1000);
+  });
+
+  it('a field made invalid shows its problem at the field, in exactly the words of pliant validate', async () => {
+    await openDemo(page, 'korrin-tether.json');
+    await page.selectOption('select[aria-label="/system/partCount is"]', 'fixed');
+    await page.fill('input[data-pointer="/system/partCount"]', '0');
+    await page.press('input[data-pointer="/system/partCount"]', 'Tab');
+    const inline = page.locator('[data-problems-for="/system/partCount"] .problem');
+    await inline.first().waitFor();
+    const shown = (await inline.allTextContents()).map((t) => t.trim());
+    await saveScreenshot(page, 'sweep-problem-inline');
+
+    // The same text, checked by the command line in a folder of its own.
+    const text = await page.inputValue('[data-role="json-text"]');
+    const folder = mkdtempSync(join(tmpdir(), 'pliant-e2e-validate-'));
+    try {
+      writeFileSync(join(folder, 'korrin-tether.json'), text);
+      const cli = spawnSync(process.execPath, [join(REPO_ROOT, 'sim/cli/pliant-launcher.mjs'), 'validate', 'korrin-tether.json'], { cwd: folder, encoding: 'utf8' });
+      expect(cli.status).toBe(2);
+      const printed = cli.stderr.split('\n').map((l) => l.trim()).filter((l) => l.includes(' /system/partCount:'));
+      expect(printed.length).toBeGreaterThan(0);
+      expect(shown).toEqual(printed);
+    } finally {
+      rmSync(folder, { recursive: true, force: true });
+    }
+    expect(await page.getAttribute('[data-role="problem-summary"]', 'data-state')).toBe('problems');
+  });
+
+  it('Space plays and pauses; → and ← step one frame, Shift ten (common practice, no source)', async () => {
+    await openDemo(page, 'korrin-fin.json');
+    await page.click('[data-nav="preview"]');
+    await waitForPreviewFinished(page);
+    const player = '[data-screen="preview"] .player';
+    await page.keyboard.press('Space');
+    expect(await page.textContent(`${player} [data-role="play"]`)).toBe('Play');
+    await page.fill(`${player} [data-role="timeline"]`, '20');
+    const frame = async (): Promise<number> => Number(await page.getAttribute(player, 'data-frame'));
+    expect(await frame()).toBe(20);
+    await page.locator('[data-screen="preview"] canvas.stage-canvas').focus();
+    await page.keyboard.press('ArrowRight');
+    expect(await frame()).toBe(21);
+    await page.keyboard.press('Shift+ArrowRight');
+    expect(await frame()).toBe(31);
+    await page.keyboard.press('ArrowLeft');
+    expect(await frame()).toBe(30);
+    await page.keyboard.press('Space');
+    expect(await page.textContent(`${player} [data-role="play"]`)).toBe('Pause');
+    await page.waitForFunction((selector) => Number(document.querySelector(selector)?.getAttribute('data-frame')) > 32, player);
+    await page.keyboard.press('Space');
+  });
+
+  it('colour by actuator level and by strain explains its colours with a legend in units', async () => {
+    await openDemo(page, 'korrin-fin.json');
+    await page.click('[data-nav="preview"]');
+    await waitForPreviewFinished(page);
+    const legend = '[data-screen="preview"] [data-role="legend"]';
+    await page.selectOption('[data-screen="preview"] [data-role="colour-mode"]', 'actuator');
+    expect(await page.textContent(`${legend} .legend-title`)).toContain('1 (dimensionless)');
+    await page.selectOption('[data-screen="preview"] [data-role="colour-mode"]', 'strain');
+    expect(await page.textContent(`${legend} .legend-title`)).toContain('%');
+    expect(await page.textContent(`${legend} .legend-ends`)).toContain('5 %');
+    await saveScreenshot(page, 'preview-strain');
+    await page.selectOption('[data-screen="preview"] [data-role="colour-mode"]', 'material');
+    expect(await page.$$eval(`${legend} .legend-swatches li`, (items) => items.length)).toBeGreaterThan(1);
+  });
+});
