@@ -132,7 +132,7 @@ describe('constant force on a free body: centre of mass accelerates at F/M (Newt
       forceHandles: [0, -1], forceAxes: ['x', 'y', 'z'], drivenAxes: [],
     });
     expect(system.controlChannels.map((c) => c.name)).toEqual([
-      'force-node0-x', 'force-node0-y', 'force-node0-z', 'force-node10-x', 'force-node10-y', 'force-node10-z',
+      'force-node0-x', 'force-node0-y', 'force-node0-z', 'force-tip-x', 'force-tip-y', 'force-tip-z',
     ]);
     expectCentreOfMassAcceleration(system.model, [0, 3], [0.3, -0.12, 0.05], 2, 6, () => {});
   });

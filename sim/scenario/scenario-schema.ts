@@ -200,7 +200,7 @@ const worldSchema = closed(
 const CONTROL_SPEC_REF = '#/$defs/controlSpec';
 
 const controlsSchema = closed(
-  'Control signals per channel. Channel names come from the system (e.g. "top-offset-x", "force-node12-y", "actuator-0").',
+  'Control signals per channel. Channel names come from the system (e.g. "top-offset-x", "force-tip-y", "actuator-0").',
   {
     default: { $ref: CONTROL_SPEC_REF, description: 'Signal of every channel not named in "channels".', default: { kind: 'none' } },
     channels: {

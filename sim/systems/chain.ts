@@ -85,13 +85,25 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
     const node = handle < 0 ? nodeCount + handle : handle;
     if (node < 0 || node >= nodeCount) throw new RangeError(`force handle ${handle} is outside the chain's ${nodeCount} nodes`);
     const axes: [number, number, number] = [-1, -1, -1];
+    const label = handleLabel(handle);
     for (const axis of p.forceAxes) {
       axes[AXIS_INDEX[axis]] = channels.length;
-      channels.push({ index: channels.length, name: `force-node${node}-${axis}`, kind: 'handle-force', unit: 'N', description: `external force on node ${node} along ${axis}` });
+      channels.push({ index: channels.length, name: `force-${label}-${axis}`, kind: 'handle-force', unit: 'N', description: `external force on node ${node} (${label}) along ${axis}` });
     }
     builder.addHandle(node, axes);
   }
   return { kind: 'chain', model: builder.build(), parameters: p, controlChannels: channels };
+}
+
+/**
+ * Channel names follow the handle as the scenario gives it, not the resolved node, so they
+ * stay the same across episodes with different part counts: "tip" for −1, "tip-2" for −3
+ * (two before the tip), "node4" for 4.
+ */
+function handleLabel(handle: number): string {
+  if (handle === -1) return 'tip';
+  if (handle < -1) return `tip-${-handle - 1}`;
+  return `node${handle}`;
 }
 
 function normalised(v: [number, number, number]): [number, number, number] {
