@@ -15,6 +15,7 @@ export interface BodyBounds {
 }
 
 const SUPPORT_COLOUR = [0.15, 0.15, 0.18] as const;
+const LARGE_BODY_NODES = 1000;
 
 export class BodyView {
   readonly group = new THREE.Group();
@@ -44,7 +45,9 @@ export class BodyView {
     const e = topology.springCount;
     const q = this.quads.quadCount;
 
-    const sphere = new THREE.IcosahedronGeometry(1, 1);
+    // Large bodies get 20-sided spheres: at their size on screen the facets do not show, and
+    // the triangle count stays within what software rendering draws at frame rate.
+    const sphere = new THREE.IcosahedronGeometry(1, n > LARGE_BODY_NODES ? 0 : 1);
     this.nodes = new THREE.InstancedMesh(sphere, new THREE.MeshLambertMaterial({ color: 0xffffff }), n);
     this.nodeMatrix = this.nodes.instanceMatrix.array as Float32Array;
     const r = this.nodeRadiusM;
@@ -284,11 +287,15 @@ function channelValue(channel: number, controls: Float64Array | null, controlOff
   return channel >= 0 && controls !== null ? controls[controlOffset + channel] : 0;
 }
 
-/** A quarter of the median rest length: big enough to see, small enough not to merge neighbours. */
+/**
+ * A fraction of the median rest length: big enough to see, small enough not to merge
+ * neighbours. Lattices count their diagonals in the median and pack nodes densely, so they get
+ * smaller spheres than chains.
+ */
 function typicalNodeRadiusM(topology: BodyTopology): number {
   const rest = topology.springRestLengthM;
   if (rest.length === 0) return 0.01;
   const sample = Array.from(rest.subarray(0, Math.min(rest.length, 512))).sort((a, b) => a - b);
   const median = sample[sample.length >> 1];
-  return median > 0 ? 0.25 * median : 0.01;
+  return median > 0 ? (topology.cellCount > 0 ? 0.14 : 0.3) * median : 0.01;
 }

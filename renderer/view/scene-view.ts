@@ -5,6 +5,7 @@ import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import type { BodyBounds } from './body-view.ts';
 import { BodyView } from './body-view.ts';
+import { isSoftwareRendering } from './software-rendering.ts';
 
 /** What of the world to draw around the body. */
 export interface StageWorld {
@@ -37,7 +38,7 @@ export class SceneView {
     this.canvas.setAttribute('aria-label', '3-D view: drag to orbit, scroll to zoom');
     host.append(this.canvas);
     // preserveDrawingBuffer keeps the last frame readable for snapshots and pixel checks.
-    this.renderer = new THREE.WebGLRenderer({ canvas: this.canvas, antialias: true, preserveDrawingBuffer: true });
+    this.renderer = new THREE.WebGLRenderer({ canvas: this.canvas, antialias: !isSoftwareRendering(), preserveDrawingBuffer: true });
     // Colours are given as display values so the legend's CSS colours and the drawn ones match.
     this.renderer.outputColorSpace = THREE.LinearSRGBColorSpace;
     this.renderer.setPixelRatio(Math.min(2, window.devicePixelRatio || 1));

@@ -35,3 +35,22 @@ export async function waitForPreviewFinished(page: Page, timeoutMs = 90_000): Pr
   const state = await page.getAttribute('[data-role="sim-progress"]', 'data-state');
   if (state !== 'finished') throw new Error(`the preview did not finish: ${await page.textContent('[data-role="preview-status"]')}`);
 }
+
+/** Replaces the scenario through the JSON text view and waits for the check of the new text. */
+export async function replaceScenarioText(page: Page, text: string): Promise<void> {
+  await page.click('[data-nav="sweep"]');
+  await page.click('[data-role="tab-text"]');
+  await page.fill('[data-role="json-text"]', text);
+  await page.waitForFunction(
+    () => {
+      const state = document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state');
+      return state === 'ok' || state === 'problems';
+    },
+    undefined,
+    { timeout: 30_000 },
+  );
+  // The settle delay passes before the check starts; wait for the check of this text.
+  await page.waitForTimeout(500);
+  await page.waitForFunction(() => document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state') !== 'checking', undefined, { timeout: 30_000 });
+  await page.click('[data-role="tab-form"]');
+}
