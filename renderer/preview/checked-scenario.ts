@@ -26,26 +26,45 @@ export function checkedScenario(text: string, fileName: string): CheckedScenario
   return { ok: true, scenario: value as Scenario };
 }
 
-/** Fills `data` in place with the defaults `schema` names, as ajv's useDefaults does. */
-export function fillDefaults(schema: Schema, data: unknown): void {
+/**
+ * Fills `data` in place with the defaults `schema` names, as ajv's useDefaults does. Local
+ * `$ref`s ("#/$defs/...") are followed within `root`.
+ */
+export function fillDefaults(given: Schema, data: unknown, root: Schema = given): void {
+  const schema = resolveRef(given, root);
   const properties = isSchema(schema.properties) ? schema.properties : null;
   if (isPlainObject(data)) {
     if (properties) {
       for (const [key, sub] of Object.entries(properties)) {
+        // ajv takes a default only from the member's own schema, not from behind a $ref.
         if (data[key] === undefined && isSchema(sub) && 'default' in sub) data[key] = structuredClone(sub.default);
       }
-      for (const [key, sub] of Object.entries(properties)) if (data[key] !== undefined && isSchema(sub)) fillDefaults(sub, data[key]);
+      for (const [key, sub] of Object.entries(properties)) if (data[key] !== undefined && isSchema(sub)) fillDefaults(sub, data[key], root);
     }
     if (isSchema(schema.additionalProperties)) {
-      for (const [key, inner] of Object.entries(data)) if (!properties || !(key in properties)) fillDefaults(schema.additionalProperties, inner);
+      for (const [key, inner] of Object.entries(data)) if (!properties || !(key in properties)) fillDefaults(schema.additionalProperties, inner, root);
     }
   }
-  if (Array.isArray(data) && isSchema(schema.items)) for (const item of data) fillDefaults(schema.items, item);
+  if (Array.isArray(data) && isSchema(schema.items)) for (const item of data) fillDefaults(schema.items, item, root);
   if (isSchema(schema.if)) {
     const branch = satisfies(schema.if, data) ? schema.then : schema.else;
-    if (isSchema(branch)) fillDefaults(branch, data);
+    if (isSchema(branch)) fillDefaults(branch, data, root);
   }
-  if (Array.isArray(schema.allOf)) for (const part of schema.allOf) if (isSchema(part)) fillDefaults(part, data);
+  if (Array.isArray(schema.allOf)) for (const part of schema.allOf) if (isSchema(part)) fillDefaults(part, data, root);
+}
+
+function resolveRef(schema: Schema, root: Schema): Schema {
+  let current = schema;
+  for (let guard = 0; guard < 32 && typeof current.$ref === 'string' && current.$ref.startsWith('#'); guard++) {
+    let target: unknown = root;
+    for (const token of current.$ref.slice(1).split('/').filter(Boolean)) {
+      target = isSchema(target) ? target[decodeURIComponent(token).replace(/~1/g, '/').replace(/~0/g, '~')] : undefined;
+    }
+    if (!isSchema(target)) throw new RangeError(`the scenario schema's $ref ${current.$ref} names nothing`);
+    const { $ref: _followed, ...siblings } = current;
+    current = { ...target, ...siblings };
+  }
+  return current;
 }
 
 /** The conditions the scenario schema's `if`s use: a type, const members, required members. */
