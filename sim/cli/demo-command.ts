@@ -7,7 +7,7 @@ import { fileURLToPath } from 'node:url';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
-import { loadScenarioFile } from './scenario-file.ts';
+import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
 import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
@@ -45,21 +45,25 @@ export const demoCommand: CliCommand = {
       const outDir = join(outRoot, scenario.name);
       io.stdout(`${scenario.name}: ${scenario.episodes} episodes → ${shownPath(io.cwd, outDir)}\n`);
       const display = new ProgressDisplay(progress, io.stdout);
-      const result = await withCliFailures(file, () =>
-        generateDataset({
-          scenario,
-          inputs: { kind: 'scenario', scenarioDir: load.loaded.directory, scenarioName: file },
-          outDir,
-          shard: null,
-          workers,
-          resume: true,
-          force: false,
-          pliantVersion: PLIANT_VERSION,
-          onEvent: display.onEvent,
-          runInfo: { command: ['pliant', 'demo', ...args] },
+      const code = await withCliFailures(file, () =>
+        reportingScenarioProblems(io, load.loaded, async () => {
+          const result = await generateDataset({
+            scenario,
+            inputs: { kind: 'scenario', scenarioDir: load.loaded.directory },
+            outDir,
+            shard: null,
+            workers,
+            resume: true,
+            force: false,
+            pliantVersion: PLIANT_VERSION,
+            onEvent: display.onEvent,
+            runInfo: { command: ['pliant', 'demo', ...args] },
+          });
+          io.stdout(`  ${result.status === 'already-complete' ? 'already there' : 'done'}: ${result.ok} recorded, ${result.rejected} rejected\n`);
+          return 0;
         }),
       );
-      io.stdout(`  ${result.status === 'already-complete' ? 'already there' : 'done'}: ${result.ok} recorded, ${result.rejected} rejected\n`);
+      if (code !== 0) return code;
       written.push(outDir);
     }
     const first = written[0];

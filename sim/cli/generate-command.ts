@@ -2,17 +2,19 @@
 // checksummed dataset (or one shard of it), resumable after any interruption.
 import { resolve } from 'node:path';
 import { shownPath } from './shown-path.ts';
-import type { CliCommand } from './command.ts';
+import type { CliCommand, CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
-import { loadScenarioFile } from './scenario-file.ts';
+import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
 import { overrideOptions, progressOption, shardOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
+import type { ProgressMode } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { PLIANT_VERSION } from './version.ts';
 import { generateDataset } from '../dataset/generate-dataset.ts';
 import type { GenerateResult } from '../dataset/generate-dataset.ts';
 import { SHARD_COUNT_VARIABLE } from '../dataset/shard-plan.ts';
+import type { ShardPlan } from '../dataset/shard-plan.ts';
 import { withOverrides } from '../scenario/scenario-overrides.ts';
 import { CARD_FILE } from '../dataset/dataset-files.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
@@ -65,36 +67,40 @@ export const generateCommand: CliCommand = {
     const loaded = load.loaded;
     const display = new ProgressDisplay(progress, io.stdout);
     const stop = stopOnInterrupt(io);
-    let result: GenerateResult;
     try {
-      result = await withCliFailures(loaded.displayName, async () => {
-        const scenario = withOverrides(loaded.scenario, overrides);
-        return generateDataset({
-          scenario,
-          inputs: { kind: 'scenario', scenarioDir: loaded.directory, scenarioName: loaded.displayName },
-          outDir: resolve(io.cwd, outDir),
-          shard: plan,
-          workers,
-          resume: parsed.switches.has('--resume'),
-          force: parsed.switches.has('--force'),
-          pliantVersion: PLIANT_VERSION,
-          onEvent: display.onEvent,
-          shouldStop: stop.requested,
-          runInfo: { command: ['pliant', 'generate', ...args] },
-        });
-      });
+      return await withCliFailures(loaded.displayName, () =>
+        reportingScenarioProblems(io, loaded, async () => {
+          const result = await generateDataset({
+            scenario: withOverrides(loaded.scenario, overrides),
+            inputs: { kind: 'scenario', scenarioDir: loaded.directory },
+            outDir: resolve(io.cwd, outDir),
+            shard: plan,
+            workers,
+            resume: parsed.switches.has('--resume'),
+            force: parsed.switches.has('--force'),
+            pliantVersion: PLIANT_VERSION,
+            onEvent: display.onEvent,
+            shouldStop: stop.requested,
+            runInfo: { command: ['pliant', 'generate', ...args] },
+          });
+          return reportResult(io, result, progress, plan);
+        }),
+      );
     } finally {
       stop.release();
     }
-    const where = shownPath(io.cwd, result.outDir);
-    if (result.status === 'stopped') {
-      io.stderr(`stopped after ${result.ok + result.rejected} episodes; run the same command with --resume to finish ${where}\n`);
-      return 130;
-    }
-    if (progress !== 'json') {
-      const what = result.status === 'already-complete' ? 'already complete' : 'wrote';
-      io.stdout(`${what} ${where}: ${result.ok} episodes recorded, ${result.rejected} rejected${plan && plan.count > 1 ? ` (shard ${plan.index}/${plan.count})` : ''}; see ${where}/${CARD_FILE}\n`);
-    }
-    return 0;
   },
 };
+
+function reportResult(io: CliIo, result: GenerateResult, progress: ProgressMode, plan: ShardPlan | null): number {
+  const where = shownPath(io.cwd, result.outDir);
+  if (result.status === 'stopped') {
+    io.stderr(`stopped after ${result.ok + result.rejected} episodes; run the same command with --resume to finish ${where}\n`);
+    return 130;
+  }
+  if (progress !== 'json') {
+    const what = result.status === 'already-complete' ? 'already complete' : 'wrote';
+    io.stdout(`${what} ${where}: ${result.ok} episodes recorded, ${result.rejected} rejected${plan && plan.count > 1 ? ` (shard ${plan.index}/${plan.count})` : ''}; see ${where}/${CARD_FILE}\n`);
+  }
+  return 0;
+}

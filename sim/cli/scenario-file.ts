@@ -1,10 +1,14 @@
 // Reads and checks a scenario file named on the command line. Problems come back in the one
-// wording the app also shows (file:line:column pointer: message), ready to print.
+// wording the app also shows (file:line:column pointer: message), ready to print; problems found
+// later (a replay file that cannot be read) are placed in the same file the same way.
 import { readFile, stat } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
 import { checkScenarioText } from '../scenario/check-scenario.ts';
+import { parseJsonText, placeProblems } from '../scenario/json-source-map.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
-import { formatProblems } from '../scenario/scenario-problem.ts';
+import { ScenarioProblemError, formatProblems } from '../scenario/scenario-problem.ts';
+import type { ScenarioProblem } from '../scenario/scenario-problem.ts';
+import type { CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
 
 export interface LoadedScenario {
@@ -13,6 +17,8 @@ export interface LoadedScenario {
   displayName: string;
   absolutePath: string;
   directory: string;
+  /** The problems as formatProblems lines, at their line and column in this file. */
+  report(problems: readonly ScenarioProblem[]): string;
 }
 
 export type ScenarioLoad = { ok: true; loaded: LoadedScenario } | { ok: false; report: string };
@@ -25,9 +31,24 @@ export async function loadScenarioFile(path: string, cwd: string): Promise<Scena
     text = await readFile(absolutePath, 'utf8');
   } catch (error) {
     if (error instanceof CliUsageError) throw error;
-    throw new CliUsageError(`cannot read the scenario file ${path}: ${(error as NodeJS.ErrnoException).code === 'ENOENT' ? 'it does not exist' : String((error as Error).message)}; check the path`);
+    const code = (error as NodeJS.ErrnoException).code;
+    throw new CliUsageError(`cannot read the scenario file ${path}: ${code === 'ENOENT' ? 'it does not exist' : (error as Error).message}; check the path`);
   }
   const checked = checkScenarioText(text, path);
   if (!checked.ok) return { ok: false, report: formatProblems(checked.problems, path) };
-  return { ok: true, loaded: { scenario: checked.scenario, displayName: path, absolutePath, directory: dirname(absolutePath) } };
+  const parsed = parseJsonText(text, path);
+  const report = (problems: readonly ScenarioProblem[]): string =>
+    formatProblems(parsed.ok ? placeProblems(problems, parsed.sourceMap) : problems, path);
+  return { ok: true, loaded: { scenario: checked.scenario, displayName: path, absolutePath, directory: dirname(absolutePath), report } };
+}
+
+/** Runs `body`; a ScenarioProblemError it throws is printed at its place in the file, exit 2. */
+export async function reportingScenarioProblems(io: CliIo, loaded: LoadedScenario, body: () => Promise<number>): Promise<number> {
+  try {
+    return await body();
+  } catch (error) {
+    if (!(error instanceof ScenarioProblemError)) throw error;
+    io.stderr(`${loaded.report(error.problems)}\n`);
+    return 2;
+  }
 }

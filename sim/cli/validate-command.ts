@@ -3,7 +3,8 @@
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
-import { loadScenarioFile } from './scenario-file.ts';
+import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
+import { gatherInputs } from '../dataset/dataset-inputs.ts';
 
 export const validateCommand: CliCommand = {
   name: 'validate',
@@ -24,7 +25,14 @@ export const validateCommand: CliCommand = {
       io.stderr(`${result.report}\n`);
       return 2;
     }
-    const s = result.loaded.scenario;
+    const loaded = result.loaded;
+    // Replayed control tables are part of the scenario: check they can be read.
+    const inputsReadable = await reportingScenarioProblems(io, loaded, async () => {
+      await gatherInputs(loaded.scenario, { kind: 'scenario', scenarioDir: loaded.directory });
+      return 0;
+    });
+    if (inputsReadable !== 0) return inputsReadable;
+    const s = loaded.scenario;
     io.stdout(`${path}: valid — ${s.system.kind} sweep "${s.name}", ${s.episodes} episode${s.episodes === 1 ? '' : 's'}, seed ${s.seed}, ${s.time.recordedSteps} records of ${s.time.recordIntervalS} s\n`);
     return 0;
   },

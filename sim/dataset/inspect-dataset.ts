@@ -69,7 +69,8 @@ export async function inspectDataset(dir: string): Promise<DatasetInspection> {
   }
   const episodes = manifest ? manifest.episodes : await completionsOf(dir);
   const seed = state.seedText ? (JSON.parse(state.seedText) as { scenario?: { name?: string }; episodeCount?: number }) : {};
-  const splitNames = [...new Set(episodes.map((e) => e.split))];
+  // A finished manifest also lists the splits that drew no episode.
+  const splitNames = [...new Set([...Object.keys(manifest?.splits ?? {}), ...episodes.map((e) => e.split)])];
   const splits = splitNames.map((split) => {
     const members = episodes.filter((e) => e.split === split);
     const ok = members.filter((e) => e.status === 'ok').length;
