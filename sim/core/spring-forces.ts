@@ -12,27 +12,33 @@ export function accumulateSpringForces(model: Model, forceN: Float64Array): void
   const c = model.dampingNsPerM;
   const count = model.springCount;
   for (let s = 0; s < count; s++) {
-    const ia = 3 * a[s];
-    const ib = 3 * b[s];
+    // `| 0` lets the JIT use plain 32-bit index arithmetic without overflow checks; offsets
+    // stay below 2³¹ for any model under 715 million nodes (a 17 GB position array).
+    const ia = (3 * a[s]) | 0;
+    const ib = (3 * b[s]) | 0;
+    const ia1 = (ia + 1) | 0;
+    const ia2 = (ia + 2) | 0;
+    const ib1 = (ib + 1) | 0;
+    const ib2 = (ib + 2) | 0;
     const dx = x[ib] - x[ia];
-    const dy = x[ib + 1] - x[ia + 1];
-    const dz = x[ib + 2] - x[ia + 2];
+    const dy = x[ib1] - x[ia1];
+    const dz = x[ib2] - x[ia2];
     const length = Math.sqrt(dx * dx + dy * dy + dz * dz);
     if (length === 0) continue; // coincident nodes have no axis; the blow-up check reports them
     const inv = 1 / length;
     const nx = dx * inv;
     const ny = dy * inv;
     const nz = dz * inv;
-    const dvn = (v[ib] - v[ia]) * nx + (v[ib + 1] - v[ia + 1]) * ny + (v[ib + 2] - v[ia + 2]) * nz;
+    const dvn = (v[ib] - v[ia]) * nx + (v[ib1] - v[ia1]) * ny + (v[ib2] - v[ia2]) * nz;
     const f = k[s] * (length - rest[s]) + c[s] * dvn;
     const fx = f * nx;
     const fy = f * ny;
     const fz = f * nz;
     forceN[ia] += fx;
-    forceN[ia + 1] += fy;
-    forceN[ia + 2] += fz;
+    forceN[ia1] += fy;
+    forceN[ia2] += fz;
     forceN[ib] -= fx;
-    forceN[ib + 1] -= fy;
-    forceN[ib + 2] -= fz;
+    forceN[ib1] -= fy;
+    forceN[ib2] -= fz;
   }
 }
