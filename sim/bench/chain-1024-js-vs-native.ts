@@ -5,22 +5,20 @@
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { CHAIN_1024_STEPS, runChain1024 } from './chain-1024.ts';
 import { median } from './median.ts';
-import { buildNativeChainKernel, runNativeChainKernel } from './native-chain-kernel.ts';
+import { runNativeChainKernel, withNativeChainKernel } from './native-chain-kernel.ts';
 
 export const COMPARISON_RUNS = 5;
 
 export const chain1024JsVsNativeCase: BenchmarkCase = {
   name: 'chain-1024-js-vs-native',
-  async run(): Promise<Record<string, number | string>> {
-    const build = buildNativeChainKernel();
-    if (!build.ok) return { skipped: build.reason };
-    try {
+  async run() {
+    return withNativeChainKernel((binaryPath) => {
       const jsRates: number[] = [];
       const nativeRates: number[] = [];
       let sameChecksum = true;
       for (let r = 0; r < COMPARISON_RUNS; r++) {
         const js = runChain1024();
-        const native = runNativeChainKernel(build.binaryPath, CHAIN_1024_STEPS);
+        const native = runNativeChainKernel(binaryPath, CHAIN_1024_STEPS);
         jsRates.push(js.springUpdates / js.seconds);
         nativeRates.push(native.springUpdatesPerS);
         if (js.checksum !== native.checksum) sameChecksum = false;
@@ -35,10 +33,6 @@ export const chain1024JsVsNativeCase: BenchmarkCase = {
         statistic: 'median',
         same_checksum: sameChecksum ? 'yes' : 'no',
       };
-    } catch (error) {
-      return { failed: (error as Error).message };
-    } finally {
-      build.dispose();
-    }
+    });
   },
 };

@@ -3,21 +3,19 @@
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { CHAIN_1024_STEPS } from './chain-1024.ts';
 import { median } from './median.ts';
-import { buildNativeChainKernel, NATIVE_FLAGS, runNativeChainKernel } from './native-chain-kernel.ts';
+import { NATIVE_FLAGS, runNativeChainKernel, withNativeChainKernel } from './native-chain-kernel.ts';
 
 export const NATIVE_RUNS = 5;
 
 export const chain1024NativeCase: BenchmarkCase = {
   name: 'chain-1024-native',
-  async run(): Promise<Record<string, number | string>> {
-    const build = buildNativeChainKernel();
-    if (!build.ok) return { skipped: build.reason };
-    try {
+  async run() {
+    return withNativeChainKernel((binaryPath, compiler) => {
       const rates: number[] = [];
       const seconds: number[] = [];
       let checksum = NaN;
       for (let r = 0; r < NATIVE_RUNS; r++) {
-        const run = runNativeChainKernel(build.binaryPath, CHAIN_1024_STEPS);
+        const run = runNativeChainKernel(binaryPath, CHAIN_1024_STEPS);
         rates.push(run.springUpdatesPerS);
         seconds.push(run.seconds);
         checksum = run.checksum;
@@ -28,13 +26,9 @@ export const chain1024NativeCase: BenchmarkCase = {
         checksum: Number(checksum.toPrecision(10)),
         runs: NATIVE_RUNS,
         statistic: 'median',
-        compiler: build.compiler,
+        compiler,
         flags: NATIVE_FLAGS.join(' '),
       };
-    } catch (error) {
-      return { failed: (error as Error).message };
-    } finally {
-      build.dispose();
-    }
+    });
   },
 };

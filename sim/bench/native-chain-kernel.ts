@@ -55,3 +55,22 @@ export function runNativeChainKernel(binaryPath: string, steps: number): NativeR
   const line = JSON.parse(run.stdout) as { spring_updates_per_s: number; seconds: number; checksum: number };
   return { springUpdatesPerS: line.spring_updates_per_s, seconds: line.seconds, checksum: line.checksum };
 }
+
+export type BenchLine = Record<string, number | string>;
+
+/**
+ * Builds the C kernel, hands its path to `measure`, and removes it again. A missing compiler
+ * becomes a `skipped` line and a failed compile or run a `failed` line, so `pliant bench` goes
+ * on with its other cases.
+ */
+export function withNativeChainKernel(measure: (binaryPath: string, compiler: string) => BenchLine): BenchLine {
+  const build = buildNativeChainKernel();
+  if (!build.ok) return { skipped: build.reason };
+  try {
+    return measure(build.binaryPath, build.compiler);
+  } catch (error) {
+    return { failed: (error as Error).message };
+  } finally {
+    build.dispose();
+  }
+}
