@@ -14,6 +14,7 @@ import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-a
 import type { PliantWebApp } from './support/e2e-web-app.ts';
 import { LARGE_LATTICE_NODES, largeLatticeScenarioText } from './support/e2e-large-lattice.ts';
 import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
+import { waitInPage } from './support/e2e-page-condition.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 
 const chromium = chromiumAvailability();
@@ -122,7 +123,7 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     expect(await frame()).toBe(30);
     await page.keyboard.press('Space');
     expect(await page.textContent(`${player} [data-role="play"]`)).toBe('Pause');
-    await page.waitForFunction((selector) => Number(document.querySelector(selector)?.getAttribute('data-frame')) > 32, player);
+    await waitInPage(page, `Number(document.querySelector(${JSON.stringify(player)})?.getAttribute('data-frame')) > 32`);
     await page.keyboard.press('Space');
   });
 
@@ -151,7 +152,7 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     const player = '[data-screen="preview"] .player';
     const rate = '[data-screen="preview"] [data-role="draw-rate"]';
     // Let two one-second measuring windows pass while it plays.
-    await page.waitForFunction((selector) => document.querySelector(selector)?.hasAttribute('data-update-ms'), rate, { timeout: 10_000 });
+    await waitInPage(page, `document.querySelector(${JSON.stringify(rate)})?.hasAttribute('data-update-ms')`, 10_000);
     await page.waitForTimeout(1200);
     const frameBefore = Number(await page.getAttribute(player, 'data-frame'));
     await page.waitForTimeout(1200);

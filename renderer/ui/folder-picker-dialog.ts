@@ -16,6 +16,7 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
     const pathInput = h('input', { className: 'folder-path', attrs: { type: 'text', spellcheck: 'false', 'aria-label': 'Folder path', 'data-role': 'folder-path' } });
     const list = h('ul', { className: 'folder-list', attrs: { 'data-role': 'folder-list' } });
     const note = h('div', { className: 'folder-note', attrs: { role: 'status' } });
+    const showHidden = h('input', { attrs: { type: 'checkbox', 'data-role': 'folder-show-hidden' } });
     let current: FolderListing | null = null;
 
     const finish = (result: string | null): void => {
@@ -35,12 +36,15 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
       pathInput.value = current.path;
       note.textContent = current.truncated ? 'Only the first folders are listed; type a path to go deeper.' : `${current.folders.length} folder${current.folders.length === 1 ? '' : 's'}`;
       const up = current.parent;
+      // Dot folders hold settings, not datasets; they stay out of the way unless asked for.
+      const shown = showHidden.checked ? current.folders : current.folders.filter((f) => !f.name.startsWith('.'));
       list.replaceChildren(
         ...(up ? [h('li', {}, button('↑ parent folder', () => void show(up), { className: 'folder-up', attrs: { 'data-role': 'folder-up' } }))] : []),
-        ...current.folders.map((f) => h('li', {}, button(`${f.name}/`, () => void show(f.path), { className: 'folder-entry', attrs: { 'data-folder': f.name } }))),
+        ...shown.map((f) => h('li', {}, button(`${f.name}/`, () => void show(f.path), { className: 'folder-entry', attrs: { 'data-folder': f.name } }))),
       );
     };
 
+    showHidden.addEventListener('change', () => current && void show(current.path));
     pathInput.addEventListener('keydown', (event) => {
       if (event.key === 'Enter') {
         event.preventDefault();
@@ -55,7 +59,7 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
       h('h3', { text: PURPOSE_WORDS[purpose] }),
       h('div', { className: 'folder-path-row' }, pathInput, button('Go', () => void show(pathInput.value.trim()), { attrs: { 'data-role': 'folder-go' } })),
       list,
-      note,
+      h('div', { className: 'folder-note-row' }, note, h('label', { className: 'field-inline' }, showHidden, h('span', { text: 'show hidden folders' }))),
       h(
         'div',
         { className: 'dialog-buttons' },

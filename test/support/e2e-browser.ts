@@ -7,6 +7,7 @@ import { chromium } from 'playwright-core';
 import type { Browser, Page } from 'playwright-core';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from './reference-chromium.ts';
 import { REPO_ROOT } from './e2e-web-app.ts';
+import { waitInPage } from './e2e-page-condition.ts';
 
 export const SCREENSHOT_DIR = join(REPO_ROOT, 'test-output', 'screens');
 
@@ -111,7 +112,7 @@ export async function chooseFolderInPage(page: Page, path: string): Promise<void
   await page.waitForSelector('dialog[data-role="folder-picker"][open]');
   await page.fill('[data-role="folder-path"]', path);
   await page.click('[data-role="folder-go"]');
-  await page.waitForFunction((p) => (document.querySelector('[data-role="folder-path"]') as HTMLInputElement | null)?.value === p, path);
+  await waitInPage(page, `document.querySelector('[data-role="folder-path"]')?.value === ${JSON.stringify(path)}`);
   await page.click('[data-role="folder-confirm"]');
   await page.waitForSelector('dialog[data-role="folder-picker"]', { state: 'detached' });
 }

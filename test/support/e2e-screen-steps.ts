@@ -1,37 +1,24 @@
 // Steps the end-to-end suites take on Pliant's screens, written once: open a demo scenario on
 // the Sweep screen and wait for its check, wait for a preview to finish simulating.
 import type { Page } from 'playwright-core';
+import { waitInPage } from './e2e-page-condition.ts';
 
 export async function openDemo(page: Page, fileName: string): Promise<void> {
   await page.click('[data-nav="sweep"]');
   await page.waitForSelector('[data-role="example-list"] option', { state: 'attached' });
-  const options = await page.$$eval('[data-role="example-list"] option', (all) => all.map((o) => [(o as HTMLOptionElement).value, o.textContent ?? '']));
+  const options = await page.$$eval('[data-role="example-list"] option', (all) => all.map((o) => [o.getAttribute('value') ?? '', o.textContent ?? '']));
   const found = options.find(([, text]) => text === fileName);
   if (!found) throw new Error(`the Sweep screen lists no demo named ${fileName}; it lists ${options.map(([, t]) => t).join(', ')}`);
   await page.selectOption('[data-role="example-list"]', found[0]);
   await page.click('[data-role="open-example"]');
-  await page.waitForFunction(
-    (name) => {
-      const label = document.querySelector('[data-role="file-label"]')?.textContent ?? '';
-      const state = document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state');
-      return label.startsWith(name) && (state === 'ok' || state === 'problems');
-    },
-    fileName,
-    { timeout: 30_000 },
-  );
+  await waitInPage(page, `(document.querySelector('[data-role="file-label"]')?.textContent ?? '').startsWith(${JSON.stringify(fileName)}) &&
+     ['ok', 'problems'].includes(document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state'))`, 30_000);
 }
 
 /** Waits until the Preview screen has simulated every frame of its episode (or failed). */
 export async function waitForPreviewFinished(page: Page, timeoutMs = 90_000): Promise<void> {
-  await page.waitForFunction(
-    () => {
-      const state = document.querySelector('[data-role="sim-progress"]')?.getAttribute('data-state');
-      const frames = document.querySelector('[data-screen="preview"] .player')?.getAttribute('data-frame');
-      return (state === 'finished' || state === 'failed') && frames !== null;
-    },
-    undefined,
-    { timeout: timeoutMs },
-  );
+  await waitInPage(page, `['finished', 'failed'].includes(document.querySelector('[data-role="sim-progress"]')?.getAttribute('data-state')) &&
+     document.querySelector('[data-screen="preview"] .player')?.getAttribute('data-frame') !== null`, timeoutMs);
   const state = await page.getAttribute('[data-role="sim-progress"]', 'data-state');
   if (state !== 'finished') throw new Error(`the preview did not finish: ${await page.textContent('[data-role="preview-status"]')}`);
 }
@@ -41,16 +28,9 @@ export async function replaceScenarioText(page: Page, text: string): Promise<voi
   await page.click('[data-nav="sweep"]');
   await page.click('[data-role="tab-text"]');
   await page.fill('[data-role="json-text"]', text);
-  await page.waitForFunction(
-    () => {
-      const state = document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state');
-      return state === 'ok' || state === 'problems';
-    },
-    undefined,
-    { timeout: 30_000 },
-  );
+  await waitInPage(page, `['ok', 'problems'].includes(document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state'))`, 30_000);
   // The settle delay passes before the check starts; wait for the check of this text.
   await page.waitForTimeout(500);
-  await page.waitForFunction(() => document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state') !== 'checking', undefined, { timeout: 30_000 });
+  await waitInPage(page, `document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state') !== 'checking'`, 30_000);
   await page.click('[data-role="tab-form"]');
 }
