@@ -2,7 +2,9 @@
 // 12 face diagonals and 4 body diagonals, neighbours sharing nodes and springs. Counting on a
 // cubic grid of n³ cells (elementary combinatorics): (n+1)³ nodes, 3·n·(n+1)² edges,
 // 3·n²·(n+1) faces with 2 diagonals each, n³ cells with 4 body diagonals each. The bench line
-// must report those counts; a short run keeps every node on or above the ground plane y = 0.
+// must report those counts. A short run keeps every node on the ground plane y = 0 or above it,
+// which is what a projection contact model is for (common practice, no source), up to the
+// rounding of landing exactly on the plane (y + dt·(h − y)/dt need not be h to the last bit).
 import { describe, expect, it } from 'vitest';
 import { buildLattice8x8x8, lattice8x8x8Case, runLattice8x8x8 } from '../sim/bench/lattice-8x8x8.ts';
 
@@ -21,7 +23,7 @@ describe('lattice-8x8x8 benchmark case (counts on a cubic grid, elementary combi
   it('a short actuated run on the ground stays finite with no node below the plane', () => {
     const run = runLattice8x8x8(10);
     expect(Number.isFinite(run.checksum)).toBe(true);
-    expect(run.lowestYM).toBeGreaterThanOrEqual(0);
+    expect(run.lowestYM).toBeGreaterThanOrEqual(-1e-12);
     expect(run.nodes).toBe(NODES);
     expect(run.springs).toBe(SPRINGS);
   });
