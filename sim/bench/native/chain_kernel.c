@@ -147,6 +147,8 @@ static void accumulate_spring_forces(const model_t *m, double *restrict force_n)
   }
 }
 
+/* No ground plane in this case, so velocities and positions are updated in one pass, as
+ * Simulator.step does when ground contact is off. */
 static void step(model_t *m, const world_t *w, double *restrict force_n, double dt_s) {
   write_body_forces(m, w, force_n);
   accumulate_spring_forces(m, force_n);
@@ -155,18 +157,19 @@ static void step(model_t *m, const world_t *w, double *restrict force_n, double 
   const double *restrict inv = m->inverse_mass_per_kg;
   const int n = m->node_count;
   for (int i = 0; i < n; i++) {
-    const double wt = inv[i] * dt_s;
+    const double im = inv[i];
+    const double wt = im * dt_s;
     const int o = 3 * i;
-    v[o] += wt * force_n[o];
-    v[o + 1] += wt * force_n[o + 1];
-    v[o + 2] += wt * force_n[o + 2];
-  }
-  for (int i = 0; i < n; i++) {
-    if (inv[i] == 0.0) continue;
-    const int o = 3 * i;
-    x[o] += dt_s * v[o];
-    x[o + 1] += dt_s * v[o + 1];
-    x[o + 2] += dt_s * v[o + 2];
+    const double vx = v[o] + wt * force_n[o];
+    const double vy = v[o + 1] + wt * force_n[o + 1];
+    const double vz = v[o + 2] + wt * force_n[o + 2];
+    v[o] = vx;
+    v[o + 1] = vy;
+    v[o + 2] = vz;
+    if (im == 0.0) continue;
+    x[o] += dt_s * vx;
+    x[o + 1] += dt_s * vy;
+    x[o + 2] += dt_s * vz;
   }
 }
 
