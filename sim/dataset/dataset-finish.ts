@@ -54,12 +54,9 @@ function describedArrays(layouts: ArrayLayout[], prefix: string): DataFileRecord
 
 /** Split names in a fixed order: the fraction splits as the scenario lists them, then held-out ones, then any others by name. */
 export function orderedSplits(seed: SeedFile, present: Iterable<string>): string[] {
-  const order = [...Object.keys(seed.scenario.splits.fractions), ...seed.scenario.splits.heldOut.map((r) => r.split)];
-  const seen = new Set<string>();
-  const result: string[] = [];
-  for (const name of order) if (!seen.has(name)) { seen.add(name); result.push(name); }
-  for (const name of [...new Set(present)].sort()) if (!seen.has(name)) { seen.add(name); result.push(name); }
-  return result;
+  const declared = [...Object.keys(seed.scenario.splits.fractions), ...seed.scenario.splits.heldOut.map((r) => r.split)];
+  const others = [...new Set(present)].filter((name) => !declared.includes(name)).sort();
+  return [...new Set([...declared, ...others])];
 }
 
 async function assembleSplit(request: FinishRequest, split: string, members: EpisodeCompletion[]): Promise<DataFileRecord> {

@@ -75,7 +75,7 @@ interface WorkPlan {
 const OWN_TOP_LEVEL = new Set([SEED_FILE, MANIFEST_FILE, CARD_FILE, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER]);
 
 function isOwnEntry(name: string): boolean {
-  return OWN_TOP_LEVEL.has(name) || name.endsWith('.h5') || /\.tmp-/.test(name);
+  return OWN_TOP_LEVEL.has(name) || name.endsWith('.h5') || isTemporaryName(name);
 }
 
 async function folderEntries(path: string): Promise<string[] | null> {

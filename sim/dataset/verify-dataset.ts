@@ -32,7 +32,8 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
   const state = await readFolderState(dir);
   const problems = [...state.manifestProblems];
   const verified: string[] = [];
-  if (state.inProgress) problems.push('the folder still holds .pliant-work: the run that writes it has not finished; resume it with `pliant generate … --resume`');
+  // Without a manifest the message above already says the run has not finished.
+  if (state.inProgress && state.manifestText !== null) problems.push('the folder still holds .pliant-work: the run that writes it has not finished; resume it with `pliant generate … --resume`');
   const manifest = state.manifest;
   if (manifest) {
     for (const record of [...manifest.documents, ...manifest.files]) {
