@@ -4,6 +4,7 @@
 // parameters.
 import type { DatasetSplit, EpisodePage, EpisodeQuery, EpisodeRow } from '../../electron/bridge-contract.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
+import { unitFromKey } from '../sweep/unit-from-key.ts';
 
 export const EPISODE_PAGE_SIZE = 50;
 
@@ -94,7 +95,9 @@ export class EpisodeTable {
     for (const column of ['episode', 'split', 'status', ...this.columns]) {
       const key = column === 'episode' ? 'episodeId' : column;
       const arrow = this.sortKey === key ? (this.descending ? ' ▼' : ' ▲') : '';
-      head.append(h('th', { attrs: { scope: 'col' } }, column === 'status' ? column : button(`${column}${arrow}`, () => this.sortBy(key), { className: 'sort-button', attrs: { 'data-sort': key } })));
+      const unit = unitOfColumn(column);
+      const caption = `${column}${unit ? `, ${unit}` : ''}${arrow}`;
+      head.append(h('th', { attrs: { scope: 'col' } }, column === 'status' ? column : button(caption, () => this.sortBy(key), { className: 'sort-button', attrs: { 'data-sort': key } })));
     }
     head.append(h('th', { attrs: { scope: 'col' }, text: '' }));
     const rows = page.rows.map((row) => {
@@ -120,6 +123,12 @@ export class EpisodeTable {
     }
     this.reload();
   }
+}
+
+/** The unit a label column's key names ("/system/lengthM" or "system.lengthM" → "m"). */
+function unitOfColumn(column: string): string | null {
+  const words = column.split(/[/.:]/).filter((w) => w !== '' && !/^[0-9]+$/.test(w));
+  return words.length > 0 ? unitFromKey(words[words.length - 1]) : null;
 }
 
 function formatCell(value: number | string | boolean | undefined): string {

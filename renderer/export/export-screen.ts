@@ -10,7 +10,7 @@ import { button, h, labelled, select } from '../ui/element.ts';
 import { safetyCaution } from '../ui/safety-caution.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
-import { describeRate } from './progress-words.ts';
+import { JobProgressView } from './job-progress-view.ts';
 
 export class ExportScreen implements Screen {
   readonly id = 'export';
@@ -25,13 +25,11 @@ export class ExportScreen implements Screen {
   private readonly resume: HTMLInputElement;
   private readonly startButton: HTMLButtonElement;
   private readonly cancelButton: HTMLButtonElement;
-  private readonly bar: HTMLProgressElement;
-  private readonly progressText: HTMLElement;
+  private readonly job: JobProgressView;
   private readonly result: HTMLElement;
   private parentFolder: string | null = null;
   private jobId: string | null = null;
   private outDir: string | null = null;
-  private stopListening: (() => void) | null = null;
 
   constructor(private readonly bridge: PliantBridge, private readonly sweep: SweepDocument, info: AppInfo, private readonly openDataset: (path: string) => void) {
     this.scenarioLine = h('p', { className: 'export-scenario', attrs: { 'data-role': 'export-scenario' } });
@@ -44,8 +42,7 @@ export class ExportScreen implements Screen {
     this.startButton = button('Start export', () => void this.start(), { className: 'primary', attrs: { 'data-role': 'export-start' } });
     this.cancelButton = button('Cancel', () => void this.cancel(), { attrs: { 'data-role': 'export-cancel' } });
     this.cancelButton.disabled = true;
-    this.bar = h('progress', { className: 'export-bar', attrs: { max: '1', value: '0', 'data-role': 'export-progress' } });
-    this.progressText = h('div', { className: 'progress-text', attrs: { 'data-role': 'export-progress-text', 'aria-live': 'polite' } });
+    this.job = new JobProgressView(bridge, 'export', (p) => this.ended(p));
     this.result = h('div', { className: 'export-result', attrs: { 'data-role': 'export-result' } });
     this.root = h(
       'section',
@@ -64,8 +61,8 @@ export class ExportScreen implements Screen {
       ),
       h('div', { className: 'toolbar' }, this.startButton, this.cancelButton),
       this.status.root,
-      this.bar,
-      this.progressText,
+      this.job.bar,
+      this.job.text,
       this.result,
     );
     sweep.subscribe(() => this.describeScenario());
@@ -121,13 +118,8 @@ export class ExportScreen implements Screen {
     }
     this.outDir = `${this.parentFolder.replace(/[/\\]$/, '')}/${name}`;
     this.result.replaceChildren();
-    this.bar.value = 0;
-    this.progressText.textContent = 'Starting…';
+    this.job.reset('Starting…');
     this.root.setAttribute('data-export-state', 'running');
-    this.stopListening?.();
-    this.stopListening = this.bridge.onEvent((event) => {
-      if (event.name === 'job.progress' && event.payload.jobId === this.jobId) this.progress(event.payload);
-    });
     try {
       const started = await this.bridge.invoke('export.begin', {
         scenarioText: this.sweep.current.text,
@@ -137,12 +129,13 @@ export class ExportScreen implements Screen {
         resume: this.resume.checked,
       });
       this.jobId = started.jobId;
+      this.job.follow(started.jobId);
       this.startButton.disabled = true;
       this.cancelButton.disabled = false;
       this.status.show('busy', `Exporting into ${this.outDir}…`);
     } catch (error) {
       this.root.setAttribute('data-export-state', 'refused');
-      this.progressText.textContent = '';
+      this.job.reset('');
       this.status.error('The export did not start', error);
     }
   }
@@ -158,13 +151,7 @@ export class ExportScreen implements Screen {
     }
   }
 
-  private progress(p: JobProgress): void {
-    this.bar.max = Math.max(1, p.total);
-    this.bar.value = p.done;
-    this.progressText.textContent = describeRate(p);
-    this.progressText.setAttribute('data-done', String(p.done));
-    this.progressText.setAttribute('data-total', String(p.total));
-    if (p.state === 'running') return;
+  private ended(p: JobProgress): void {
     this.jobId = null;
     this.cancelButton.disabled = true;
     this.startButton.disabled = !this.sweep.usable;

@@ -3,7 +3,7 @@
 import { h } from '../ui/element.ts';
 import type { PreviewEpisodeSummary } from './preview-worker-protocol.ts';
 import { unitFromKey } from '../sweep/unit-from-key.ts';
-import { pointerTokens } from '../sweep/json-pointer.ts';
+import { pointerSegments } from '../../sim/scenario/json-source-map.ts';
 
 export function renderEpisodeFacts(host: HTMLElement, e: PreviewEpisodeSummary): void {
   const rows: [string, string][] = [
@@ -20,7 +20,7 @@ export function renderEpisodeFacts(host: HTMLElement, e: PreviewEpisodeSummary):
 
 /** A drawn value with the unit its key names ("/system/lengthM" → "12.5 m"). */
 function withUnit(pointer: string, value: string): string {
-  const tokens = pointerTokens(pointer).filter((t) => !/^[0-9]+$/.test(t));
+  const tokens = pointerSegments(pointer).filter((t) => !/^[0-9]+$/.test(t));
   const unit = tokens.length > 0 ? unitFromKey(tokens[tokens.length - 1]) : null;
   return unit ? `${value} ${unit}` : value;
 }

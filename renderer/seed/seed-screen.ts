@@ -2,7 +2,7 @@
 // preview any of its episodes, and regenerate it into a new folder, comparing file by file.
 import type { JobProgress, SeedSummary } from '../../electron/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
-import { describeRate } from '../export/progress-words.ts';
+import { JobProgressView } from '../export/job-progress-view.ts';
 import { button, h, labelled } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
@@ -22,14 +22,11 @@ export class SeedScreen implements Screen {
   private readonly outFolder: HTMLElement;
   private readonly outName: HTMLInputElement;
   private readonly regenerate: HTMLButtonElement;
-  private readonly bar: HTMLProgressElement;
-  private readonly progressText: HTMLElement;
+  private readonly job: JobProgressView;
   private readonly files: HTMLElement;
   private seed: SeedSummary | null = null;
   private parentFolder: string | null = null;
-  private jobId: string | null = null;
   private outDir: string | null = null;
-  private stopListening: (() => void) | null = null;
 
   constructor(private readonly bridge: PliantBridge, private readonly events: SeedScreenEvents) {
     this.summaryHost = h('dl', { className: 'facts', attrs: { 'data-role': 'seed-summary' } });
@@ -38,8 +35,7 @@ export class SeedScreen implements Screen {
     this.outName = h('input', { attrs: { type: 'text', value: 'regenerated', spellcheck: 'false', 'aria-label': 'Folder name for the regenerated dataset', 'data-role': 'seed-out-name' } });
     this.regenerate = button('Regenerate', () => void this.begin(), { className: 'primary', attrs: { 'data-role': 'seed-regenerate' } });
     this.regenerate.disabled = true;
-    this.bar = h('progress', { attrs: { max: '1', value: '0', 'data-role': 'seed-progress' } });
-    this.progressText = h('div', { className: 'progress-text', attrs: { 'data-role': 'seed-progress-text' } });
+    this.job = new JobProgressView(bridge, 'seed', (p) => this.ended(p));
     this.files = h('div', { className: 'seed-files', attrs: { 'data-role': 'seed-files' } });
     this.root = h(
       'section',
@@ -50,8 +46,8 @@ export class SeedScreen implements Screen {
       this.summaryHost,
       h('div', { className: 'toolbar' }, labelled('Episode', this.indexInput), button('Preview this episode', () => this.previewEpisode(), { attrs: { 'data-role': 'seed-preview' } })),
       h('div', { className: 'toolbar' }, h('span', { className: 'field-caption', text: 'Regenerate into' }), this.outFolder, button('Choose…', () => void this.chooseOut(), { attrs: { 'data-role': 'seed-choose-out' } }), labelled('named', this.outName), this.regenerate),
-      this.bar,
-      this.progressText,
+      this.job.bar,
+      this.job.text,
       this.files,
     );
   }
@@ -117,12 +113,9 @@ export class SeedScreen implements Screen {
       return;
     }
     this.outDir = `${this.parentFolder.replace(/[/\\]$/, '')}/${name}`;
-    this.stopListening?.();
-    this.stopListening = this.bridge.onEvent((event) => {
-      if (event.name === 'job.progress' && event.payload.jobId === this.jobId) this.progress(event.payload);
-    });
+    this.job.reset('Starting…');
     try {
-      this.jobId = (await this.bridge.invoke('reproduce.begin', { seedPath: this.seed.path, outDir: this.outDir })).jobId;
+      this.job.follow((await this.bridge.invoke('reproduce.begin', { seedPath: this.seed.path, outDir: this.outDir })).jobId);
       this.regenerate.disabled = true;
       this.status.show('busy', `Regenerating into ${this.outDir}…`);
     } catch (error) {
@@ -130,12 +123,7 @@ export class SeedScreen implements Screen {
     }
   }
 
-  private progress(p: JobProgress): void {
-    this.bar.max = Math.max(1, p.total);
-    this.bar.value = p.done;
-    this.progressText.textContent = describeRate(p);
-    if (p.state === 'running') return;
-    this.jobId = null;
+  private ended(p: JobProgress): void {
     this.regenerate.disabled = false;
     this.root.setAttribute('data-seed-state', p.state);
     if (p.state === 'done') void this.compare(p);

@@ -1,22 +1,15 @@
 // RFC 6901 JSON pointers: how the form names each field, and how problems from the scenario
-// checker find the field they belong to.
+// checker find the field they belong to. Splitting a pointer is the scenario checker's own.
+import { pointerSegments } from '../../sim/scenario/json-source-map.ts';
 
 export function pointerOf(parent: string, key: string | number): string {
   return `${parent}/${String(key).replace(/~/g, '~0').replace(/\//g, '~1')}`;
 }
 
-export function pointerTokens(pointer: string): string[] {
-  if (pointer === '') return [];
-  return pointer
-    .slice(1)
-    .split('/')
-    .map((t) => t.replace(/~1/g, '/').replace(/~0/g, '~'));
-}
-
 /** The value at pointer, or undefined when any step is missing. */
 export function valueAt(document: unknown, pointer: string): unknown {
   let value = document;
-  for (const token of pointerTokens(pointer)) {
+  for (const token of pointerSegments(pointer)) {
     if (value === null || typeof value !== 'object') return undefined;
     value = (value as Record<string, unknown>)[token];
   }
@@ -25,7 +18,7 @@ export function valueAt(document: unknown, pointer: string): unknown {
 
 /** Sets the value at pointer, creating objects on the way; `undefined` deletes the member. */
 export function setValueAt(document: Record<string, unknown>, pointer: string, value: unknown): void {
-  const tokens = pointerTokens(pointer);
+  const tokens = pointerSegments(pointer);
   if (tokens.length === 0) throw new RangeError('cannot replace the whole document through a field');
   let parent: Record<string, unknown> | unknown[] = document;
   for (let i = 0; i < tokens.length - 1; i++) {
