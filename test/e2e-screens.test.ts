@@ -4,12 +4,12 @@
 // step. Expected values come from outside the screens: `pliant validate` for the problem
 // wording, textbook moments for the parameter histograms, NumPy for exported files.
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { bodyPixels, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
+import { bodyPixels, chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
 import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import type { PliantWebApp } from './support/e2e-web-app.ts';
 import { LARGE_LATTICE_NODES, largeLatticeScenarioText } from './support/e2e-large-lattice.ts';
@@ -102,6 +102,35 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
       rmSync(folder, { recursive: true, force: true });
     }
     expect(await page.getAttribute('[data-role="problem-summary"]', 'data-state')).toBe('problems');
+  });
+
+  it('an edited demo is saved as a new file that pliant validate accepts, and opens again from its folder', async () => {
+    const folder = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-e2e-save-')));
+    try {
+      await openDemo(page, 'korrin-tether.json');
+      await page.fill('input[data-pointer="/name"]', 'tank-tether-copy');
+      await page.press('input[data-pointer="/name"]', 'Tab');
+      await page.click('[data-role="save-as"]');
+      await chooseFolderInPage(page, folder);
+      await page.fill('[data-role="file-name"]', 'tank-tether-copy.json');
+      await page.click('[data-role="file-confirm"]');
+      await page.waitForSelector('[data-role="sweep-status"][data-tone="ok"]:has-text("Saved")');
+      const saved = readFileSync(join(folder, 'tank-tether-copy.json'), 'utf8');
+      expect(JSON.parse(saved).name).toBe('tank-tether-copy');
+      const cli = spawnSync(process.execPath, [join(REPO_ROOT, 'sim/cli/pliant-launcher.mjs'), 'validate', 'tank-tether-copy.json'], { cwd: folder, encoding: 'utf8' });
+      expect(cli.status).toBe(0);
+      expect(cli.stdout).toContain('"tank-tether-copy"');
+
+      await openDemo(page, 'korrin-fin.json');
+      await page.click('[data-role="open-file"]');
+      await chooseFolderInPage(page, folder);
+      await page.fill('[data-role="file-name"]', 'tank-tether-copy.json');
+      await page.click('[data-role="file-confirm"]');
+      await page.waitForSelector('[data-role="file-label"]:has-text("tank-tether-copy.json")');
+      expect(await page.inputValue('input[data-pointer="/name"]')).toBe('tank-tether-copy');
+    } finally {
+      rmSync(folder, { recursive: true, force: true });
+    }
   });
 
   it('Space plays and pauses; → and ← step one frame, Shift ten (common practice, no source)', async () => {

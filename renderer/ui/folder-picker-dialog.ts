@@ -18,6 +18,8 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
     const note = h('div', { className: 'folder-note', attrs: { role: 'status' } });
     const showHidden = h('input', { attrs: { type: 'checkbox', 'data-role': 'folder-show-hidden' } });
     let current: FolderListing | null = null;
+    // A slow listing must not overwrite a newer one the person asked for meanwhile.
+    let generation = 0;
 
     const finish = (result: string | null): void => {
       dialog.close();
@@ -26,13 +28,17 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
     };
 
     const show = async (path: string): Promise<void> => {
+      const asked = ++generation;
       note.textContent = 'Listing…';
+      let listing: FolderListing;
       try {
-        current = await browse(path);
+        listing = await browse(path);
       } catch (error) {
-        note.textContent = `${(error as Error).message}`;
+        if (asked === generation) note.textContent = `${(error as Error).message}`;
         return;
       }
+      if (asked !== generation) return;
+      current = listing;
       pathInput.value = current.path;
       note.textContent = current.truncated ? 'Only the first folders are listed; type a path to go deeper.' : `${current.folders.length} folder${current.folders.length === 1 ? '' : 's'}`;
       const up = current.parent;
