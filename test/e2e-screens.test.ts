@@ -62,6 +62,23 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     });
   }
 
+  it('the Export screen shows the hardware-testing caution prominently', async () => {
+    await openDemo(page, 'korrin-tether.json');
+    await page.click('[data-nav="export"]');
+    const caution = '[data-screen="export"] [data-role="safety-caution"]';
+    expect(await page.isVisible(caution)).toBe(true);
+    const words = await page.textContent(caution);
+    // The caution the project's guide requires on this screen (DEVELOPERS.md, "Safety").
+    expect(words).toContain('does not replace hardware testing');
+    expect(words).toContain('conservative limits');
+    expect(words).toContain("lab's own safety rules");
+    // Prominent: it comes before the controls that start an export.
+    const box = await page.locator(caution).boundingBox();
+    const start = await page.locator('[data-role="export-start"]').boundingBox();
+    expect(box && start && box.y < start.y).toBe(true);
+    await saveScreenshot(page, 'export-ready');
+  });
+
   it('histograms of uniform parameters centre on (min + max)/2 (mean of U(a, b), any probability text)', async () => {
     await openDemo(page, 'korrin-tether.json');
     const scenario = JSON.parse(readFileSync(join(SCENARIOS_DIR, 'korrin-tether.json'), 'utf8'));
@@ -191,8 +208,9 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     await saveScreenshot(page, 'preview-large-lattice');
     console.info(`[e2e] ${LARGE_LATTICE_NODES}-node lattice: ${await page.textContent(rate)}`);
     expect(frameAfter).not.toBe(frameBefore);
-    // Moving every instance, line and face in place: a small part of the frame budget.
+    // Moving every instance, line and face in place (median frame): a quarter of the budget at most.
     expect(updateMs).toBeLessThan(4);
-    expect(updateMs + drawMs).toBeLessThan(16.7);
-  });
+    // Issuing the draw calls (mean over the window, so a descheduled frame counts): within budget.
+    expect(drawMs).toBeLessThan(12);
+  }, 240_000);
 });

@@ -58,7 +58,9 @@ export class TrajectoryPlots {
     const unit = units.length === 1 ? units[0] : units.join(' or ');
     this.controls.dispose();
     this.controls = new TimeSeriesPlot('Controls', unit || '1', channels.map((c, i) => ({ label: c.name, colour: CHANNEL_COLOURS[i % CHANNEL_COLOURS.length] })));
-    this.controlsHost.replaceChildren(this.controls.root);
+    this.controlsHost.replaceChildren(
+      channels.length > 0 ? this.controls.root : h('figure', { className: 'plot' }, h('figcaption', { text: 'Controls' }), h('p', { className: 'field-help', text: 'This system has no control channels: nothing drives it but the world around it.' })),
+    );
     this.framesArrived(true);
   }
 

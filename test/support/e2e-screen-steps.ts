@@ -10,8 +10,12 @@ export async function openDemo(page: Page, fileName: string): Promise<void> {
   const found = options.find(([, text]) => text === fileName);
   if (!found) throw new Error(`the Sweep screen lists no demo named ${fileName}; it lists ${options.map(([, t]) => t).join(', ')}`);
   await page.selectOption('[data-role="example-list"]', found[0]);
+  // Opening the scenario that is already open changes no label: mark the form shown now, and
+  // wait for the form of the fresh load to replace it.
+  await page.evaluate(`document.querySelectorAll('[data-role="scenario-form"] > *').forEach((e) => e.setAttribute('data-e2e-stale', ''))`);
   await page.click('[data-role="open-example"]');
-  await waitInPage(page, `(document.querySelector('[data-role="file-label"]')?.textContent ?? '').startsWith(${JSON.stringify(fileName)}) &&
+  await waitInPage(page, `document.querySelector('[data-e2e-stale]') === null &&
+     (document.querySelector('[data-role="file-label"]')?.textContent ?? '').startsWith(${JSON.stringify(fileName)}) &&
      ['ok', 'problems'].includes(document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state'))`, 30_000);
 }
 
