@@ -34,7 +34,13 @@ export const BRIDGE_LIMITS = {
 
 export type FolderPurpose = 'dataset' | 'export' | 'scenario';
 export type ExportFormat = 'npz' | 'hdf5' | 'both';
-export type DatasetSplit = 'train' | 'validation' | 'test';
+/**
+ * A split's name. Every scenario has 'train', 'validation' and 'test'; held-out rules add splits
+ * of any name (e.g. 'held-out'). Names are letters, digits, '-' and '_' (they name .h5 files).
+ */
+export type DatasetSplit = string;
+/** The splits every dataset has, in the order screens list them before any held-out split. */
+export const STANDARD_SPLITS = ['train', 'validation', 'test'] as const;
 export type JobKind = 'export' | 'reproduce';
 export type JobState = 'running' | 'done' | 'cancelled' | 'failed';
 /** Element types an episode array may have; bytes are little-endian. */
@@ -120,7 +126,9 @@ export interface DatasetSummary {
   path: string;
   title: string;
   scenarioName: string;
+  /** Episodes the folder lists, rejected ones included (a shard folder lists only its own). */
   episodeCount: number;
+  /** Listed episodes per split: the standard splits always, held-out splits when the scenario has them. */
   splitCounts: Record<DatasetSplit, number>;
   formats: ('npz' | 'hdf5')[];
   /** The seed file that regenerates this dataset, or null if it is missing. */
@@ -129,15 +137,23 @@ export interface DatasetSummary {
   toolVersion: string;
   /** The dataset card (Markdown), including its safety caution. */
   cardMarkdown: string;
-  /** Arrays every episode carries, with per-episode shapes. */
+  /** Arrays every episode carries, with one episode's shape; an extent that differs between episodes (nodes, springs) is -1. */
   arrays: ArrayDescription[];
-  /** Label columns the episode table can sort and filter by. */
+  /**
+   * Label columns worth showing: the scalar labels (JSON pointers such as "/system/lengthM") whose
+   * value differs between episodes. `dataset.episodes` also sorts by "episodeId", "split",
+   * "status" and any other scalar label key.
+   */
   labelKeys: string[];
 }
 
 export interface EpisodeRow {
   episodeId: string;
   split: DatasetSplit;
+  /**
+   * The episode's scalar sampled values keyed by JSON pointer, plus "status": "ok" or "rejected"
+   * (a rejected episode has no arrays). List-valued labels are left out; the manifest has them.
+   */
   labels: Record<string, number | string | boolean>;
 }
 
@@ -150,7 +166,9 @@ export interface EpisodeFilter {
 export interface EpisodeQuery {
   offset: number;
   limit: number;
+  /** "episodeId" (the default), "split", "status" or a label key; values sort numbers first, then text, then booleans, missing last. */
   sortKey?: string;
+  /** Reverses the whole order. */
   descending?: boolean;
   filter?: EpisodeFilter;
 }
@@ -174,7 +192,9 @@ export interface EpisodeArrays {
 
 export interface VerifyReport {
   ok: boolean;
+  /** Files the manifest lists, every one of which was checked. */
   checkedFiles: number;
+  /** `file` is relative to the dataset folder, as in `SeedSummary.expectedFiles`; "" for the folder as a whole. */
   problems: { file: string; message: string }[];
 }
 
@@ -198,7 +218,7 @@ export interface JobProgress {
   /** Seconds left at the current rate; null before the rate is known. */
   etaS: number | null;
   state: JobState;
-  /** Why a job failed or was cancelled, in words for the user. */
+  /** Why a job failed or was cancelled, or what a finished job found, in words for the user. */
   message?: string;
 }
 
@@ -269,6 +289,8 @@ export type RequestErrorCode =
   | 'too-large'
   | 'not-available'
   | 'unsupported-in-mode'
+  // The folder or file is there but is not a readable Pliant dataset or seed file (the message says why).
+  | 'invalid-dataset'
   | 'refused-sender'
   // Transport refusals, sent before any handler runs (web mode; 'refused-sender' is Electron's).
   | 'refused-host'
@@ -447,12 +469,13 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
       path: pathSchema('Dataset folder.'),
       offset: { type: 'integer', minimum: 0, maximum: 1_000_000_000 },
       limit: { type: 'integer', minimum: 1, maximum: BRIDGE_LIMITS.maxEpisodePage },
-      sortKey: { type: 'string', minLength: 1, maxLength: 128, pattern: '^[A-Za-z0-9_.:-]+$' },
+      // Label keys are JSON pointers (RFC 6901), so '/' and '~' are allowed; see EpisodeQuery.
+      sortKey: { type: 'string', minLength: 1, maxLength: 512, pattern: '^[A-Za-z0-9_.:/~-]+$' },
       descending: { type: 'boolean' },
       filter: {
         type: 'object',
         properties: {
-          split: { type: 'string', enum: ['train', 'validation', 'test'] },
+          split: splitSchema(),
           text: { type: 'string', maxLength: 200 },
         },
         additionalProperties: false,
@@ -476,6 +499,10 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
     ['seedPath', 'outDir'],
   ),
 };
+
+function splitSchema(): JsonSchema {
+  return { type: 'string', description: 'Split name, e.g. "train" or "held-out".', pattern: '^[A-Za-z0-9][A-Za-z0-9_-]{0,63}$' };
+}
 
 function jobIdSchema(): JsonSchema {
   return { type: 'string', minLength: 1, maxLength: 64, pattern: '^[A-Za-z0-9-]+$' };

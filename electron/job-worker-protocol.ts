@@ -40,10 +40,15 @@ export type ToJobWorker = { type: 'cancel' };
 /**
  * Sent by the worker. `done` and `total` count episodes; the runner derives the rate and the time
  * left, so the worker only counts. Post progress at most a few times a second.
+ *
+ * 'done' means the job did everything it was asked: an export wrote a complete dataset folder; a
+ * reproduce job regenerated the folder and found every file byte-identical to the original's (any
+ * difference is 'failed', naming the files). It may carry a `message` for the person; without one
+ * the runner says what 'done' means for the job's kind.
  */
 export type FromJobWorker =
   | { type: 'progress'; done: number; total: number }
-  | { type: 'done'; done: number; total: number }
+  | { type: 'done'; done: number; total: number; message?: string }
   | { type: 'cancelled'; done: number; total: number }
   | { type: 'failed'; message: string };
 

@@ -13,7 +13,6 @@ import { createDefaultServices } from './default-services.ts';
 import { createNativeFolderChooser } from './folder-dialog.ts';
 import { createIpcRequestListener, forwardEvents } from './ipc-shell.ts';
 import { createRequestHandlers } from './request-handlers.ts';
-import { SIM_SCENARIO_CHECKER } from './sim-scenario-checker.ts';
 import { guardSession } from './session-guard.ts';
 import { guardWebContents } from './web-contents-guard.ts';
 import { mainWindowOptions } from './window-options.ts';
@@ -61,9 +60,6 @@ async function start(): Promise<void> {
     folderChooser: createNativeFolderChooser((options) =>
       mainWindow ? dialog.showOpenDialog(mainWindow, options) : dialog.showOpenDialog(options),
     ),
-    // The dataset reader, seed reader and job workers join `pipeline` as sim/dataset provides
-    // them (see pipeline-seams.ts); until then those requests answer 'not-available'.
-    pipeline: { scenarioChecker: SIM_SCENARIO_CHECKER },
     reportInternalError: (name, error) => console.error(`[pliant] request ${name} failed:`, error),
   });
   const handlers = createRequestHandlers(services);

@@ -1,9 +1,13 @@
 // The points where the dataset pipeline (sim/scenario, sim/dataset) plugs into the shells, and
-// what stands in each while that part is not built: a service that refuses every call with
-// 'not-available' and says so, rather than one that pretends to work.
+// the pipeline's own parts that fill them. Both shells (main.ts, web-cli.ts) get these through
+// createDefaultServices, so the desktop app and web mode answer every request with the same code;
+// tests may replace single parts.
+import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/app-worker-urls.ts';
 import type { JobKind } from './bridge-contract.ts';
-import { RequestError } from './request-error.ts';
 import type { DatasetReader, ScenarioChecker, SeedReader } from './request-services.ts';
+import { createSimDatasetReader } from './sim-dataset-reader.ts';
+import { SIM_SCENARIO_CHECKER } from './sim-scenario-checker.ts';
+import { SIM_SEED_READER } from './sim-seed-reader.ts';
 
 export interface PipelineServices {
   scenarioChecker: ScenarioChecker;
@@ -13,21 +17,12 @@ export interface PipelineServices {
   jobWorkerUrls: Partial<Record<JobKind, URL>>;
 }
 
-function notBuilt(what: string): RequestError {
-  return new RequestError('not-available', `${what} is not part of this build of Pliant yet.`);
+export function simPipelineServices(): PipelineServices {
+  return {
+    scenarioChecker: SIM_SCENARIO_CHECKER,
+    datasetReader: createSimDatasetReader({ verifyWorkerUrl: DATASET_VERIFY_WORKER_URL }),
+    seedReader: SIM_SEED_READER,
+    // One worker entry serves both kinds; it reads the kind from the job it is given.
+    jobWorkerUrls: { export: DATASET_JOB_WORKER_URL, reproduce: DATASET_JOB_WORKER_URL },
+  };
 }
-
-export const SCENARIO_CHECKER_NOT_BUILT: ScenarioChecker = {
-  check: () => Promise.reject(notBuilt('Checking scenarios')),
-};
-
-export const DATASET_READER_NOT_BUILT: DatasetReader = {
-  summary: () => Promise.reject(notBuilt('Reading datasets')),
-  episodes: () => Promise.reject(notBuilt('Reading datasets')),
-  episodeArrays: () => Promise.reject(notBuilt('Reading datasets')),
-  verify: () => Promise.reject(notBuilt('Verifying datasets')),
-};
-
-export const SEED_READER_NOT_BUILT: SeedReader = {
-  read: () => Promise.reject(notBuilt('Reading seed files')),
-};

@@ -10,7 +10,6 @@ import { fileURLToPath } from 'node:url';
 import { SAFETY_NOTICE } from './bridge-contract.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createRequestHandlers } from './request-handlers.ts';
-import { SIM_SCENARIO_CHECKER } from './sim-scenario-checker.ts';
 import { startWebServer } from './web-server.ts';
 
 const repoRoot = fileURLToPath(new URL('..', import.meta.url));
@@ -68,8 +67,6 @@ async function main(): Promise<number> {
     version,
     bundledScenariosDir: join(repoRoot, 'scenarios'),
     folderChooser: { mode: 'in-page' },
-    // Other pipeline parts join as sim/dataset provides them (see pipeline-seams.ts).
-    pipeline: { scenarioChecker: SIM_SCENARIO_CHECKER },
     reportInternalError: (name, error) => console.error(`[pliant] request ${name} failed:`, error),
   });
   let server;

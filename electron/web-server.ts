@@ -51,6 +51,8 @@ const STATUS_BY_CODE: Partial<Record<RequestErrorCode, number>> = {
   'too-large': 413,
   'not-available': 501,
   'unsupported-in-mode': 400,
+  // RFC 9110 section 15.5.21: understood, but the folder's content cannot be processed.
+  'invalid-dataset': 422,
   'refused-sender': 403,
   'io-error': 500,
   internal: 500,

@@ -86,7 +86,7 @@ export function createWorkerJobRunner(options: WorkerJobRunnerOptions): JobRunne
     job.done = message.done;
     job.total = message.total;
     if (message.type === 'progress') emit(job, 'running');
-    else if (message.type === 'done') finish(job, 'done');
+    else if (message.type === 'done') finish(job, 'done', message.message ?? doneMessage(job));
     else finish(job, 'cancelled', `Cancelled after ${job.done} of ${job.total} episodes. Files written so far are complete; start again with "resume" to continue.`);
   };
 
@@ -136,7 +136,15 @@ function asWorkerMessage(raw: unknown): FromJobWorker | null {
   if (m.type !== 'progress' && m.type !== 'done' && m.type !== 'cancelled') return null;
   const { done, total } = m;
   if (!isCount(done) || !isCount(total) || done > total) return null;
+  if (m.type === 'done' && m.message !== undefined) return typeof m.message === 'string' ? { type: 'done', done, total, message: m.message } : null;
   return { type: m.type, done, total };
+}
+
+/** What 'done' means for each kind of job (job-worker-protocol.ts), in words for the person. */
+function doneMessage(job: RunningJob): string {
+  return job.kind === 'export'
+    ? `Finished all ${job.total} episodes; the dataset folder is complete, with every file's SHA-256 in manifest.json.`
+    : `Regenerated all ${job.total} episodes; every file is byte-identical to the original (compared by SHA-256).`;
 }
 
 function isCount(value: unknown): value is number {

@@ -68,7 +68,10 @@ describe('progress arithmetic (worked example)', () => {
 
     nowS = 1020;
     hand.listeners.message({ type: 'done', done: 100, total: 100 });
-    expect(events[2]).toEqual({ jobId: 'job-1', kind: 'export', done: 100, total: 100, episodesPerS: 5, etaS: 0, state: 'done' });
+    expect(events[2]).toEqual({
+      jobId: 'job-1', kind: 'export', done: 100, total: 100, episodesPerS: 5, etaS: 0, state: 'done',
+      message: "Finished all 100 episodes; the dataset folder is complete, with every file's SHA-256 in manifest.json.",
+    });
     // A finished job can no longer be cancelled, and its exit is not reported as a failure.
     hand.listeners.exit(0);
     expect(events).toHaveLength(3);
@@ -100,6 +103,30 @@ describe('progress arithmetic (worked example)', () => {
     hand.listeners.message({ type: 'progress', done: 5, total: 2 });
     expect(events.at(-1)).toMatchObject({ state: 'failed' });
     expect(hand.terminations()).toBe(1);
+  });
+
+  it('says what done means for a reproduce job, and prefers a message the worker sends', () => {
+    const hand = handWorker();
+    const runner = createWorkerJobRunner({ workerUrls: { reproduce: new URL('file:///unused.mjs') }, startWorker: () => hand.worker });
+    const events: JobProgress[] = [];
+    runner.onProgress((p) => events.push(p));
+    runner.begin({ kind: 'reproduce', seedPath: '/tank/seed.json', outDir: '/tank/again' });
+    hand.listeners.message({ type: 'done', done: 40, total: 40 });
+    expect(events.at(-1)).toMatchObject({ state: 'done', message: 'Regenerated all 40 episodes; every file is byte-identical to the original (compared by SHA-256).' });
+
+    const second = handWorker();
+    const own = createWorkerJobRunner({ workerUrls: { export: new URL('file:///unused.mjs') }, startWorker: () => second.worker });
+    own.onProgress((p) => events.push(p));
+    own.begin(exportSpec('hand'));
+    second.listeners.message({ type: 'done', done: 3, total: 3, message: 'Wrote 3 Korrin Bay tether episodes.' });
+    expect(events.at(-1)).toMatchObject({ state: 'done', message: 'Wrote 3 Korrin Bay tether episodes.' });
+    // A message that is not text is not passed on to the page.
+    const third = handWorker();
+    const odd = createWorkerJobRunner({ workerUrls: { export: new URL('file:///unused.mjs') }, startWorker: () => third.worker });
+    odd.onProgress((p) => events.push(p));
+    odd.begin(exportSpec('hand'));
+    third.listeners.message({ type: 'done', done: 3, total: 3, message: { html: '<b>' } });
+    expect(events.at(-1)).toMatchObject({ state: 'failed' });
   });
 
   it('refuses a job kind no worker was provided for, with not-available', () => {

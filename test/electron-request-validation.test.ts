@@ -231,12 +231,7 @@ describe('well-formed requests are served', () => {
     }
   });
 
-  it('says plainly when a pipeline part is not built, instead of pretending', async () => {
-    const check = refusal(await handlers.handle('scenario.check', { text: '{}', fileName: 'a.json' }));
-    expect(check).toEqual({ code: 'not-available', message: 'Checking scenarios is not part of this build of Pliant yet.' });
-    const exportJob = refusal(await handlers.handle('export.begin', { scenarioText: '{}', outDir: join(picked, 'out'), format: 'both', workers: 2, resume: false }));
-    expect(exportJob).toEqual({ code: 'not-available', message: 'Running export jobs is not part of this build of Pliant yet.' });
-  });
+
 
   it('refuses the web-mode folder requests in the desktop app', async () => {
     const error = refusal(await handlers.handle('folder.browse', { path: '' }));

@@ -1,19 +1,30 @@
 // `npm run web`'s entry (electron/web-cli.ts, run through tsx): prints the address with the
-// session key, serves it on 127.0.0.1, stops cleanly on SIGTERM, and explains bad options without
-// a stack trace. BROWSER is removed from the environment so no browser is ever opened here.
+// session key, serves it on 127.0.0.1, answers with the real dataset pipeline (a folder written by
+// `pliant generate` opens and verifies), stops cleanly on SIGTERM, and explains bad options
+// without a stack trace. BROWSER is removed from the environment so no browser is ever opened here.
 import { spawn } from 'node:child_process';
 import { mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
 
 let renderer: string;
+let datasets: string;
 
 beforeAll(() => {
   renderer = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-cli-')));
   writeFileSync(join(renderer, 'index.html'), '<!doctype html><title>Pliant web</title>');
+  datasets = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-cli-data-')));
+  const scenario = join(datasets, 'tether.json');
+  writeFileSync(scenario, cutDownScenario('korrin-tether.json', 2, 10));
+  const generated = runPliant(['generate', scenario, '--out', join(datasets, 'tether'), '--progress', 'none']);
+  expect(generated.stderr).toBe('');
 });
-afterAll(() => rmSync(renderer, { recursive: true, force: true }));
+afterAll(() => {
+  rmSync(renderer, { recursive: true, force: true });
+  rmSync(datasets, { recursive: true, force: true });
+});
 
 function startCli(args: string[]) {
   const env = { ...process.env };
@@ -46,8 +57,14 @@ describe('web-mode command line', () => {
     const page = await fetch(new URL('/', address));
     expect(await page.text()).toBe('<!doctype html><title>Pliant web</title>');
     const token = address.hash.replace('#session=', '');
-    const info = await fetch(new URL('/api/request/app.info', address), { method: 'POST', headers: { 'content-type': 'application/json', 'x-pliant-session': token }, body: '{}' });
-    expect(await info.json()).toMatchObject({ ok: true, result: { mode: 'web', version: expect.stringMatching(/^\d+\.\d+\.\d+/) } });
+    const request = async (name: string, args: unknown) =>
+      (await fetch(new URL(`/api/request/${name}`, address), { method: 'POST', headers: { 'content-type': 'application/json', 'x-pliant-session': token }, body: JSON.stringify(args) })).json();
+    expect(await request('app.info', {})).toMatchObject({ ok: true, result: { mode: 'web', version: expect.stringMatching(/^\d+\.\d+\.\d+/) } });
+    // The same pipeline as the desktop app: a folder the command line wrote opens and verifies.
+    const tether = join(datasets, 'tether');
+    expect(await request('folder.allow', { path: tether, purpose: 'dataset' })).toEqual({ ok: true, result: { path: tether } });
+    expect(await request('dataset.summary', { path: tether })).toMatchObject({ ok: true, result: { scenarioName: 'korrin-tether', episodeCount: 2 } });
+    expect(await request('dataset.verify', { path: tether })).toMatchObject({ ok: true, result: { ok: true, problems: [] } });
     cli.child.kill('SIGTERM');
     expect(await cli.exited).toBe(0);
   });

@@ -1,0 +1,70 @@
+// The DatasetReader seam filled with the dataset pipeline's reader (sim/dataset/dataset-reader.ts):
+// summaries and episode pages from the manifest, one episode's arrays from its NPZ file or HDF5
+// group, and verification by the same code as `pliant verify`, run in a worker thread.
+import { stat } from 'node:fs/promises';
+import { DatasetReader as SimDatasetReader } from '../sim/dataset/dataset-reader.ts';
+import { shown } from './allowed-folders.ts';
+import { translateDatasetError } from './dataset-error-translation.ts';
+import { encodeArray } from './encoded-array.ts';
+import { RequestError } from './request-error.ts';
+import type { DatasetReader } from './request-services.ts';
+import { verifyInWorker } from './verify-in-worker.ts';
+
+export interface SimDatasetReaderOptions {
+  /** Worker entry that runs one verification (sim/dataset/app-worker-urls.ts). */
+  verifyWorkerUrl: URL;
+}
+
+export function createSimDatasetReader(options: SimDatasetReaderOptions): DatasetReader {
+  const reader = new SimDatasetReader();
+  const translated = async <T>(work: () => Promise<T>): Promise<T> => {
+    try {
+      return await work();
+    } catch (error) {
+      throw translateDatasetError(error);
+    }
+  };
+
+  return {
+    summary: (dir) =>
+      translated(async () => {
+        const s = await reader.summary(dir);
+        return {
+          path: s.dir,
+          title: s.title,
+          scenarioName: s.scenarioName,
+          episodeCount: s.episodeCount,
+          splitCounts: s.splitCounts,
+          formats: s.formats,
+          seedFilePath: s.seedFilePath,
+          createdAtIso: s.createdAtIso,
+          toolVersion: s.pliantVersion,
+          cardMarkdown: s.cardMarkdown,
+          arrays: s.arrays.map((a) => ({ name: a.name, dtype: a.dtype, shape: a.shape, unit: a.unit })),
+          labelKeys: s.labelKeys,
+        };
+      }),
+
+    episodes: (dir, query) =>
+      translated(async () => {
+        const page = await reader.episodes(dir, query);
+        return { total: page.total, offset: page.offset, rows: page.rows.map((r) => ({ episodeId: r.id, split: r.split, labels: r.labels })) };
+      }),
+
+    episodeArrays: (dir, episodeId) =>
+      translated(async () => {
+        const read = await reader.episodeArrays(dir, episodeId);
+        return { episodeId: read.episode.id, arrays: read.arrays.map(encodeArray) };
+      }),
+
+    verify: (dir) =>
+      translated(async () => {
+        // Checked here so a wrong path is answered at once, without starting a worker.
+        const info = await stat(dir).catch(() => null);
+        if (!info) throw new RequestError('not-found', `${shown(dir)} does not exist. Open the dataset folder a Pliant export wrote.`);
+        if (!info.isDirectory()) throw new RequestError('invalid-dataset', `${shown(dir)} is a file. Open the dataset folder that holds manifest.json.`);
+        const report = await verifyInWorker(options.verifyWorkerUrl, dir);
+        return { ok: report.ok, checkedFiles: report.checkedFiles, problems: report.problems };
+      }),
+  };
+}
