@@ -1,33 +1,6 @@
-// Bundles the desktop shell for Electron: main.mjs (an ES module; Electron's main process loads
-// those) and preload.cjs (one CommonJS file, because a sandboxed preload script cannot import
-// other modules). Run with `npm run build:electron` after `npm run build:renderer`.
-import { build } from 'esbuild';
+// `npm run build:electron`: bundles the desktop shell and its worker threads into dist/electron
+// (see electron-bundles.ts). Run after `npm run build:renderer`.
 import { fileURLToPath } from 'node:url';
+import { buildElectronBundles } from './electron-bundles.ts';
 
-const root = fileURLToPath(new URL('..', import.meta.url));
-
-await build({
-  absWorkingDir: root,
-  entryPoints: ['electron/main.ts'],
-  outfile: 'dist/electron/main.mjs',
-  bundle: true,
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
-  external: ['electron'],
-  // Bundled CommonJS dependencies (ajv) call require(); give them one inside the ES module.
-  banner: { js: "import { createRequire as pliantCreateRequire } from 'node:module'; const require = pliantCreateRequire(import.meta.url);" },
-  logLevel: 'info',
-});
-
-await build({
-  absWorkingDir: root,
-  entryPoints: ['electron/preload.ts'],
-  outfile: 'dist/electron/preload.cjs',
-  bundle: true,
-  platform: 'node',
-  format: 'cjs',
-  target: 'node20',
-  external: ['electron'],
-  logLevel: 'info',
-});
+await buildElectronBundles(fileURLToPath(new URL('../dist/electron/', import.meta.url)));
