@@ -8,7 +8,7 @@ import { translateDatasetError } from './dataset-error-translation.ts';
 import { encodeArray } from './encoded-array.ts';
 import { RequestError } from './request-error.ts';
 import type { DatasetReader } from './request-services.ts';
-import { verifyInWorker } from './verify-in-worker.ts';
+import { createWorkerVerifier } from './verify-in-worker.ts';
 
 export interface SimDatasetReaderOptions {
   /** Worker entry that runs one verification (sim/dataset/app-worker-urls.ts). */
@@ -17,6 +17,7 @@ export interface SimDatasetReaderOptions {
 
 export function createSimDatasetReader(options: SimDatasetReaderOptions): DatasetReader {
   const reader = new SimDatasetReader();
+  const verifyFolder = createWorkerVerifier(options.verifyWorkerUrl);
   const translated = async <T>(work: () => Promise<T>): Promise<T> => {
     try {
       return await work();
@@ -63,7 +64,7 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
         const info = await stat(dir).catch(() => null);
         if (!info) throw new RequestError('not-found', `${shown(dir)} does not exist. Open the dataset folder a Pliant export wrote.`);
         if (!info.isDirectory()) throw new RequestError('invalid-dataset', `${shown(dir)} is a file. Open the dataset folder that holds manifest.json.`);
-        const report = await verifyInWorker(options.verifyWorkerUrl, dir);
+        const report = await verifyFolder(dir);
         return { ok: report.ok, checkedFiles: report.checkedFiles, problems: report.problems };
       }),
   };

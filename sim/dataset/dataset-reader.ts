@@ -86,10 +86,9 @@ export class DatasetReader {
     if (info && info.size > MAX_MANIFEST_BYTES) {
       throw new DatasetRequestError(`${manifestPath} is ${info.size} bytes, more than the ${MAX_MANIFEST_BYTES} the app reads; summarise the folder with \`pliant inspect ${dir}\` instead`);
     }
-    const state = await readFolderState(dir).catch((error: unknown) => {
-      if (error instanceof DatasetRequestError && /does not exist/.test(error.message)) throw new DatasetNotFoundError(error.message);
-      throw error;
-    });
+    const folder = await stat(dir).catch(() => null);
+    if (!folder) throw new DatasetNotFoundError(`${dir} does not exist; open the folder a Pliant export wrote`);
+    const state = await readFolderState(dir);
     if (!state.manifest) {
       throw new DatasetRequestError(`${dir} is not a readable Pliant dataset: ${state.manifestProblems[0] ?? `${MANIFEST_FILE} is missing`}; run \`pliant verify ${dir}\` for every problem`);
     }
