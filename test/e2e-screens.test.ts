@@ -8,7 +8,7 @@ import { mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFile
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { bodyPixels, chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
 import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import type { PliantWebApp } from './support/e2e-web-app.ts';
@@ -30,6 +30,11 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     app = await startPliantWebApp();
     browser = await launchChromium();
     ({ page, errors: pageErrors } = await openApp(browser, app.server.url));
+  });
+
+  // A failed step leaves the page as it was: keep a picture of it for whoever reads the log.
+  afterEach(async (context) => {
+    if (context.task.result?.state === 'fail' && page) await saveScreenshot(page, `failed-${context.task.name.replace(/[^A-Za-z0-9]+/g, '-').slice(0, 60)}`);
   });
 
   afterAll(async () => {

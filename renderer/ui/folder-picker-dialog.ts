@@ -18,8 +18,11 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
     const note = h('div', { className: 'folder-note', attrs: { role: 'status' } });
     const showHidden = h('input', { attrs: { type: 'checkbox', 'data-role': 'folder-show-hidden' } });
     let current: FolderListing | null = null;
-    // A slow listing must not overwrite a newer one the person asked for meanwhile.
+    // A slow listing must not overwrite a newer one the person asked for meanwhile, nor a path
+    // they have started typing.
     let generation = 0;
+    let typedSinceListing = false;
+    pathInput.addEventListener('input', () => (typedSinceListing = true));
 
     const finish = (result: string | null): void => {
       dialog.close();
@@ -29,17 +32,24 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
 
     const show = async (path: string): Promise<void> => {
       const asked = ++generation;
+      typedSinceListing = false;
+      dialog.setAttribute('data-listing', 'busy');
       note.textContent = 'Listing…';
       let listing: FolderListing;
       try {
         listing = await browse(path);
       } catch (error) {
-        if (asked === generation) note.textContent = `${(error as Error).message}`;
+        if (asked === generation) {
+          note.textContent = `${(error as Error).message}`;
+          dialog.setAttribute('data-listing', 'failed');
+        }
         return;
       }
       if (asked !== generation) return;
       current = listing;
-      pathInput.value = current.path;
+      if (!typedSinceListing) pathInput.value = current.path;
+      dialog.setAttribute('data-listing', 'ready');
+      dialog.setAttribute('data-path', current.path);
       note.textContent = current.truncated ? 'Only the first folders are listed; type a path to go deeper.' : `${current.folders.length} folder${current.folders.length === 1 ? '' : 's'}`;
       const up = current.parent;
       // Dot folders hold settings, not datasets; they stay out of the way unless asked for.

@@ -107,12 +107,13 @@ export async function bodyPixels(page: Page, screen: string): Promise<number> {
   return differing as number;
 }
 
-/** Answers the in-page folder chooser (web mode) by typing a path and confirming it. */
+/** Answers the in-page folder chooser (web mode): goes to `path`, waits for its listing, confirms it. */
 export async function chooseFolderInPage(page: Page, path: string): Promise<void> {
-  await page.waitForSelector('dialog[data-role="folder-picker"][open]');
+  const dialog = 'dialog[data-role="folder-picker"][open]';
+  await page.waitForSelector(dialog);
   await page.fill('[data-role="folder-path"]', path);
   await page.click('[data-role="folder-go"]');
-  await waitInPage(page, `document.querySelector('[data-role="folder-path"]')?.value === ${JSON.stringify(path)}`);
+  await waitInPage(page, `document.querySelector('${dialog}')?.getAttribute('data-listing') === 'ready' && document.querySelector('${dialog}')?.getAttribute('data-path') === ${JSON.stringify(path)}`);
   await page.click('[data-role="folder-confirm"]');
   await page.waitForSelector('dialog[data-role="folder-picker"]', { state: 'detached' });
 }
