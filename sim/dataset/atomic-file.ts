@@ -49,6 +49,21 @@ export function writeFileAtomic(
 }
 
 /**
+ * Writes a file whose content is produced piece by piece (the manifest of a large sweep), so
+ * the whole content never has to be in memory at once: `fill` calls `write` with each piece in
+ * order. Atomic like `writeFileAtomic`.
+ */
+export function writeFileAtomicStreamed(
+  finalPath: string,
+  fill: (write: (chunk: Uint8Array) => void) => void,
+  options: AtomicWriteOptions = {},
+): void {
+  replaceAtomically(finalPath, options, (fs, temporary) => {
+    fill((chunk) => writeFully(fs, temporary.fd!, chunk));
+  });
+}
+
+/**
  * For writers that must be given a path (the HDF5 library opens files itself): reserves a
  * temporary file, lets `fill` write it by path, then flushes and renames it into place.
  * `fill` may throw a DatasetWriteError (kept as is) or any other error (wrapped).

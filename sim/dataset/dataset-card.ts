@@ -2,8 +2,11 @@
 // sampled parameter is spread (with text histograms), the splits, the arrays, how to load them
 // in Python, which episodes were rejected and why, and the hardware-safety caution. It is made
 // from the manifest's content alone (never the run metadata), so every copy of a dataset made
-// from the same seed file has the same card, byte for byte.
-import type { DatasetManifest, EpisodeRecord } from './dataset-manifest.ts';
+// from the same seed file has the same card, byte for byte. The episodes arrive as a CardTally,
+// gathered one record at a time, so a card for a large sweep needs little memory.
+import type { ManifestHead } from './dataset-manifest.ts';
+import { REJECTED_LISTED } from './card-tally.ts';
+import type { CardTally, ScalarLabel } from './card-tally.ts';
 import { EPISODE_ARRAYS } from './episode-array-catalogue.ts';
 import { categoricalHistogram, formatLabelNumber, numericHistogram } from './text-histogram.ts';
 import { valueAtPointer } from './json-pointer-lookup.ts';
@@ -11,20 +14,25 @@ import { unitOfLabel } from './label-units.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
 
-export type CardSource = Omit<DatasetManifest, 'documents' | 'run'>;
-
-/** How many rejected episodes the card lists one by one; the manifest lists them all. */
-const REJECTED_LISTED = 50;
+export interface CardSource extends ManifestHead {
+  /** The folder's episodes, gathered in index order. */
+  tally: CardTally;
+  /** Whether the folder has one NPZ file per recorded episode. */
+  episodeNpz: boolean;
+  /** The split HDF5 files, in manifest order. */
+  splitFiles: { path: string; split: string }[];
+}
 
 function fence(language: string, lines: string[]): string[] {
   return ['```' + language, ...lines, '```'];
 }
 
-function describeSystem(scenario: Record<string, unknown>, episodes: EpisodeRecord[]): string[] {
+function range(count: number, min: number, max: number): string {
+  return count === 0 ? 'none' : min === max ? String(min) : `${min} to ${max}`;
+}
+
+function describeSystem(scenario: Record<string, unknown>, tally: CardTally): string[] {
   const system = (scenario.system ?? {}) as Record<string, unknown>;
-  const nodes = episodes.map((e) => e.simulation.nodeCount);
-  const springs = episodes.map((e) => e.simulation.springCount);
-  const range = (values: number[]) => (values.length === 0 ? 'none' : Math.min(...values) === Math.max(...values) ? String(values[0]) : `${Math.min(...values)} to ${Math.max(...values)}`);
   const lines: string[] = [];
   if (system.kind === 'chain') {
     lines.push('Each episode is a **chain** (rope, cable or tether) of equal parts: point masses joined by structural springs, with bending springs across every second node, simulated by semi-implicit Euler.');
@@ -33,18 +41,12 @@ function describeSystem(scenario: Record<string, unknown>, episodes: EpisodeReco
   } else {
     lines.push(`Each episode is a system of kind ${JSON.stringify(system.kind)}.`);
   }
-  lines.push('', `Nodes per episode: ${range(nodes)}; springs per episode: ${range(springs)}.`);
-  const steps = episodes[0]?.simulation;
+  lines.push('', `Nodes per episode: ${range(tally.episodes, tally.nodeCountMin, tally.nodeCountMax)}; springs per episode: ${range(tally.episodes, tally.springCountMin, tally.springCountMax)}.`);
+  const steps = tally.firstSimulation;
   if (steps) {
-    lines.push(`Recorded: ${steps.recordedSteps} steps of ${formatLabelNumber(steps.recordIntervalS)} s (${formatLabelNumber(steps.recordedSteps * steps.recordIntervalS)} s) per episode; sub-steps per record vary from ${Math.min(...episodes.map((e) => e.simulation.substeps))} to ${Math.max(...episodes.map((e) => e.simulation.substeps))} (chosen from the stability bound when "auto").`);
+    lines.push(`Recorded: ${steps.recordedSteps} steps of ${formatLabelNumber(steps.recordIntervalS)} s (${formatLabelNumber(steps.recordedSteps * steps.recordIntervalS)} s) per episode; sub-steps per record vary from ${tally.substepsMin} to ${tally.substepsMax} (chosen from the stability bound when "auto").`);
   }
   return lines;
-}
-
-function labelPointers(episodes: EpisodeRecord[]): string[] {
-  const seen = new Set<string>();
-  for (const e of episodes) for (const key of Object.keys(e.labels)) seen.add(key);
-  return [...seen];
 }
 
 /** Most distinct non-numeric values a card shows one row each for. */
@@ -62,28 +64,41 @@ function specOfLabel(source: CardSource, pointer: string): unknown {
   const channel = match[1].replace(/~1/g, '/').replace(/~0/g, '~');
   const rest = match[2] ?? '';
   const controls = ((source.scenario as Record<string, unknown>).controls ?? {}) as { default?: unknown; channels?: Record<string, unknown> };
-  const index = source.episodes.flatMap((e) => e.controlChannels).find((c) => c.name === channel)?.index;
+  const index = source.tally.channelIndex.get(channel);
   const spec = controls.channels?.[channel] ?? (index === undefined ? undefined : controls.channels?.[String(index)]) ?? controls.default;
   return valueAtPointer(spec, rest);
+}
+
+// Math.min(...values) would overflow the call stack for sweeps of a few hundred thousand episodes.
+function smallest(values: readonly number[]): number {
+  let min = Infinity;
+  for (const v of values) min = Math.min(min, v);
+  return min;
+}
+
+function largest(values: readonly number[]): number {
+  let max = -Infinity;
+  for (const v of values) max = Math.max(max, v);
+  return max;
 }
 
 function parameterSections(source: CardSource): string[] {
   const lines: string[] = [];
   const fixed: string[] = [];
   const lists: string[] = [];
-  const channelUnits = new Map(source.episodes.flatMap((e) => e.controlChannels).map((c) => [c.name, c.unit]));
-  for (const pointer of labelPointers(source.episodes)) {
-    const values = source.episodes.filter((e) => pointer in e.labels).map((e) => e.labels[pointer]);
-    const unit = unitOfLabel(pointer, channelUnits);
-    const distinct = new Set(values.map((v) => JSON.stringify(v)));
-    if (distinct.size === 1) {
-      fixed.push(`| \`${pointer}\` | ${JSON.stringify(values[0])} | ${unit || '—'} |`);
+  for (const [pointer, label] of source.tally.labels) {
+    const unit = unitOfLabel(pointer, source.tally.channelUnits);
+    // Distinct as JSON text, like the manifest stores them; lists and objects count by digest.
+    const distinctCount = new Set(label.scalars.map((v) => JSON.stringify(v))).size + label.compoundDigests.size;
+    if (distinctCount === 1) {
+      fixed.push(`| \`${pointer}\` | ${JSON.stringify(label.first)} | ${unit || '—'} |`);
       continue;
     }
-    if (values.some((v) => v !== null && typeof v === 'object')) {
-      lists.push(`- \`${pointer}\`${unit ? ` (${unit})` : ''}: a list per episode, ${distinct.size} distinct`);
+    if (label.compoundDigests.size > 0) {
+      lists.push(`- \`${pointer}\`${unit ? ` (${unit})` : ''}: a list per episode, ${distinctCount} distinct`);
       continue;
     }
+    const values: ScalarLabel[] = label.scalars;
     const spec = specOfLabel(source, pointer);
     const origin = spec === undefined || (typeof spec === 'object' && spec !== null && !('kind' in spec))
       ? 'Derived by the sampler from other draws.'
@@ -91,12 +106,12 @@ function parameterSections(source: CardSource): string[] {
     lines.push('', `### \`${pointer}\`${unit ? ` (${unit})` : ''}`, '', origin);
     const numbers = values.filter((v): v is number => typeof v === 'number');
     if (numbers.length === values.length) {
-      lines.push(`Range over ${numbers.length} episodes: ${formatLabelNumber(Math.min(...numbers))} to ${formatLabelNumber(Math.max(...numbers))}.`, '');
+      lines.push(`Range over ${numbers.length} episodes: ${formatLabelNumber(smallest(numbers))} to ${formatLabelNumber(largest(numbers))}.`, '');
       lines.push(...fence('text', numericHistogram(numbers)));
-    } else if (distinct.size <= CATEGORY_ROWS) {
+    } else if (distinctCount <= CATEGORY_ROWS) {
       lines.push('', ...fence('text', categoricalHistogram(values)));
     } else {
-      lines.push(`${distinct.size} distinct values over ${values.length} episodes.`);
+      lines.push(`${distinctCount} distinct values over ${values.length} episodes.`);
     }
   }
   if (fixed.length > 0) {
@@ -124,7 +139,7 @@ function splitSection(source: CardSource): string[] {
 
 function arraySection(source: CardSource): string[] {
   const float = source.export.dtype;
-  const lattice = source.episodes.some((e) => e.systemKind === 'lattice');
+  const lattice = source.tally.hasLattice;
   const lines = ['| array | dtype | shape | unit | meaning |', '| --- | --- | --- | --- | --- |'];
   for (const a of EPISODE_ARRAYS) {
     if (a.latticeOnly && !lattice) continue;
@@ -135,11 +150,11 @@ function arraySection(source: CardSource): string[] {
 }
 
 function loadingSection(source: CardSource): string[] {
-  const first = source.episodes.find((e) => e.status === 'ok');
-  const npz = source.files.some((f) => f.kind === 'episode-npz');
-  const h5 = source.files.filter((f) => f.kind === 'split-hdf5');
+  const firstSplit = source.tally.firstOkSplit;
+  const npz = source.episodeNpz;
+  const h5 = source.splitFiles;
   const lines: string[] = ['Run these from inside the dataset folder.'];
-  if (!first) return [...lines, '', 'No episode of this folder was recorded successfully, so there is nothing to load.'];
+  if (firstSplit === null) return [...lines, '', 'No episode of this folder was recorded successfully, so there is nothing to load.'];
   if (npz) {
     lines.push('', 'With NumPy (one `.npz` file per episode):', '');
     lines.push(...fence('python', [
@@ -159,7 +174,7 @@ function loadingSection(source: CardSource): string[] {
     ]));
   }
   if (h5.length > 0) {
-    const file = h5.find((f) => f.split === first.split) ?? h5[0];
+    const file = h5.find((f) => f.split === firstSplit) ?? h5[0];
     lines.push('', 'With h5py (one `.h5` file per split, one group per episode):', '');
     lines.push(...fence('python', [
       'import h5py',
@@ -175,27 +190,26 @@ function loadingSection(source: CardSource): string[] {
 }
 
 function rejectedSection(source: CardSource): string[] {
-  const rejected = source.episodes.filter((e) => e.status === 'rejected');
+  const rejected = source.tally.rejected;
   const lines = [
     'An episode whose simulation becomes unstable (non-finite values, a spring stretched beyond the limit, an implausible speed) is never written as if it were good: it gets no data files, its manifest record has `"status": "rejected"` and the reason (step, node, cause), and the sweep moves on to the next episode. Which episodes are rejected depends only on the seed file, so every regeneration rejects the same ones.',
     '',
   ];
-  if (rejected.length === 0) return [...lines, 'No episode was rejected.'];
-  lines.push(`${rejected.length} episode${rejected.length === 1 ? ' was' : 's were'} rejected:`, '', '| episode | split | step | node | what happened |', '| --- | --- | --- | --- | --- |');
-  for (const e of rejected.slice(0, REJECTED_LISTED)) {
-    const r = e.rejection!;
+  if (rejected === 0) return [...lines, 'No episode was rejected.'];
+  lines.push(`${rejected} episode${rejected === 1 ? ' was' : 's were'} rejected:`, '', '| episode | split | step | node | what happened |', '| --- | --- | --- | --- | --- |');
+  for (const e of source.tally.rejectedRows) {
+    const r = e.rejection;
     lines.push(`| ${e.id} | ${e.split} | ${r.step} | ${r.node} | ${r.kind}: ${r.likelyCause} |`);
   }
-  if (rejected.length > REJECTED_LISTED) lines.push('', `…and ${rejected.length - REJECTED_LISTED} more; see \`${MANIFEST_FILE}\`.`);
+  if (rejected > REJECTED_LISTED) lines.push('', `…and ${rejected - REJECTED_LISTED} more; see \`${MANIFEST_FILE}\`.`);
   return lines;
 }
 
 export function renderDatasetCard(source: CardSource): string {
-  const ok = source.episodes.filter((e) => e.status === 'ok').length;
-  const rejected = source.episodes.length - ok;
+  const { ok, rejected } = source.tally;
   const scenario = source.scenario as Record<string, unknown>;
   const scope = source.shard
-    ? `This folder is shard ${source.shard.index} of ${source.shard.count} of a sweep of ${source.episodeCount} episodes: it holds ${source.episodes.length} of them. Merge all shards with \`pliant merge\` to get the whole dataset.`
+    ? `This folder is shard ${source.shard.index} of ${source.shard.count} of a sweep of ${source.episodeCount} episodes: it holds ${source.tally.episodes} of them. Merge all shards with \`pliant merge\` to get the whole dataset.`
     : `The sweep has ${source.episodeCount} episodes.`;
   const lines = [
     `# ${source.name || 'Pliant dataset'}`,
@@ -206,7 +220,7 @@ export function renderDatasetCard(source: CardSource): string {
     '',
     '## What is in it',
     '',
-    ...describeSystem(scenario, source.episodes),
+    ...describeSystem(scenario, source.tally),
     '',
     `${scope} ${ok} recorded, ${rejected} rejected. Master seed ${source.masterSeed}; floating-point arrays are ${source.export.dtype}; files: ${source.export.format === 'both' ? 'NPZ per episode and HDF5 per split' : source.export.format === 'npz' ? 'NPZ per episode' : 'HDF5 per split'}. Written by Pliant ${source.pliantVersion}.`,
     '',

@@ -3,25 +3,45 @@
 // so the bytes never depend on which episode finished first), then the card, then the manifest,
 // and only then remove the work folder. Every step writes through a temporary name, and the
 // whole step can be repeated after a crash and gives the same files.
+//
+// Memory stays flat in the number of episodes: episode records are taken from the completion
+// source one at a time (a generate run reads them back from .pliant-work/done/), a split's HDF5
+// file is written one episode group at a time, and manifest.json is written member by member.
+// What is kept for the whole sweep is a few numbers per episode (split positions and the
+// scalar labels the card's histograms need).
+import { statSync } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord } from './dataset-manifest.ts';
+import type { DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead } from './dataset-manifest.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
 import type { ArrayLayout } from './episode-outcome.ts';
 import { describeArray } from './episode-array-catalogue.ts';
 import { renderDatasetCard } from './dataset-card.ts';
-import type { CardSource } from './dataset-card.ts';
+import { CardTally } from './card-tally.ts';
 import { CARD_FILE, MANIFEST_FILE, WORK_FOLDER, splitHdf5Path } from './dataset-files.ts';
-import { writeDatasetFile } from './dataset-file-writer.ts';
+import { writeDatasetFile, writeDatasetTextStreamed } from './dataset-file-writer.ts';
 import { decodeNpz } from './npz.ts';
 import { writeSplitHdf5 } from './split-hdf5.ts';
 import type { SplitEpisode } from './split-hdf5.ts';
-import { sha256Hex } from './sha256.ts';
+import { sha256FileHex } from './sha256.ts';
 import type { SeedFile } from './seed-file.ts';
 import type { ShardPlan } from './shard-plan.ts';
 import type { GenerationListener } from './generation-progress.ts';
 import { readFileBytes } from './read-file-bytes.ts';
 import { toDatasetWriteError } from './dataset-write-error.ts';
+import { StreamedList, writeStreamedJson } from './streamed-json.ts';
+
+/** The episodes of the folder being finished, ascending by index, handed out one at a time. */
+export interface CompletionSource {
+  readonly count: number;
+  /** The completion at `position` (0-based, in index order); it may be read from disk on every call. */
+  at(position: number): EpisodeCompletion;
+}
+
+/** A completion source over records already in memory (a merge, which reads them from the shards' manifests). */
+export function completionsInMemory(completions: readonly EpisodeCompletion[]): CompletionSource {
+  return { count: completions.length, at: (position) => completions[position] };
+}
 
 export interface FinishRequest {
   outDir: string;
@@ -30,10 +50,20 @@ export interface FinishRequest {
   seedRecord: FileRecord;
   shard: ShardPlan | null;
   /** One per episode of the folder, ascending by index. */
-  completions: EpisodeCompletion[];
+  completions: CompletionSource;
   pliantVersion: string;
   run: Record<string, unknown>;
   onEvent?: GenerationListener;
+}
+
+/** What a finished folder holds, without the manifest's per-episode records. */
+export interface FinishedDataset {
+  ok: number;
+  rejected: number;
+  /** Paths of the documents and data files manifest.json lists, in its order. */
+  listedPaths: string[];
+  /** How many data files manifest.json lists. */
+  dataFileCount: number;
 }
 
 export function keepsEpisodeNpz(format: SeedFile['export']['format'], shard: ShardPlan | null): boolean {
@@ -59,63 +89,86 @@ export function orderedSplits(seed: SeedFile, present: Iterable<string>): string
   return [...new Set([...declared, ...others])];
 }
 
-async function assembleSplit(request: FinishRequest, split: string, members: EpisodeCompletion[]): Promise<DataFileRecord> {
+/** A split file's record as it is written: its id and array lists are made again from the completions. */
+type SplitFileRecord = Omit<DataFileRecord, 'episodes' | 'arrays'> & { episodes: StreamedList; arrays: StreamedList };
+
+/** One pass over every episode: the card's tally, and per split its counts and the positions of its recorded episodes. */
+interface SweepSummary {
+  tally: CardTally;
+  splits: string[];
+  counts: DatasetManifest['splits'];
+  okPositions: Map<string, number[]>;
+}
+
+function summarise(request: FinishRequest): SweepSummary {
+  const tally = new CardTally();
+  const okPositions = new Map<string, number[]>();
+  const rejectedCount = new Map<string, number>();
+  for (let p = 0; p < request.completions.count; p++) {
+    const { record } = request.completions.at(p);
+    tally.add(record);
+    if (!okPositions.has(record.split)) okPositions.set(record.split, []);
+    if (record.status === 'ok') okPositions.get(record.split)!.push(p);
+    else rejectedCount.set(record.split, (rejectedCount.get(record.split) ?? 0) + 1);
+  }
+  const splits = orderedSplits(request.seed, okPositions.keys());
+  const counts: DatasetManifest['splits'] = {};
+  for (const split of splits) counts[split] = { ok: okPositions.get(split)?.length ?? 0, rejected: rejectedCount.get(split) ?? 0 };
+  return { tally, splits, counts, okPositions };
+}
+
+function* splitEpisodes(request: FinishRequest, positions: readonly number[]): Generator<SplitEpisode> {
+  for (const p of positions) {
+    const completion = request.completions.at(p);
+    const npzPath = join(request.outDir, completion.npz!.path);
+    yield { id: completion.record.id, index: completion.record.index, arrays: decodeNpz(readFileBytes(npzPath), npzPath) };
+  }
+}
+
+async function assembleSplit(request: FinishRequest, split: string, positions: readonly number[]): Promise<SplitFileRecord> {
   const path = splitHdf5Path(split);
   request.onEvent?.({ type: 'assemble', file: path });
-  const episodes: SplitEpisode[] = members.map((completion) => {
-    const npzPath = join(request.outDir, completion.npz!.path);
-    return { id: completion.record.id, index: completion.record.index, arrays: decodeNpz(readFileBytes(npzPath), npzPath) };
-  });
   const absolute = join(request.outDir, path);
-  await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed }, episodes);
-  const bytes = readFileBytes(absolute);
+  await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed }, splitEpisodes(request, positions));
+  const { completions } = request;
   return {
     path,
-    sha256: sha256Hex(bytes),
-    sizeBytes: bytes.length,
+    sha256: sha256FileHex(absolute),
+    sizeBytes: statSync(absolute).size,
     kind: 'split-hdf5',
     split,
-    episodes: members.map((m) => m.record.id),
-    arrays: members.flatMap((m) => describedArrays(m.arrays, `${m.record.id}/`)),
+    episodes: new StreamedList(function* () {
+      for (const p of positions) yield completions.at(p).record.id;
+    }),
+    arrays: new StreamedList(function* () {
+      for (const p of positions) {
+        const { record, arrays } = completions.at(p);
+        yield* describedArrays(arrays, `${record.id}/`);
+      }
+    }),
   };
 }
 
-export async function finishDataset(request: FinishRequest): Promise<DatasetManifest> {
+export async function finishDataset(request: FinishRequest): Promise<FinishedDataset> {
   const { seed, shard, completions } = request;
   const format = seed.export.format;
   const keepNpz = keepsEpisodeNpz(format, shard);
-  const ok = completions.filter((c) => c.record.status === 'ok');
-  const splits = orderedSplits(seed, completions.map((c) => c.record.split));
+  const summary = summarise(request);
+  const { tally } = summary;
 
-  const files: DataFileRecord[] = [];
-  if (keepNpz) {
-    for (const c of ok) {
-      files.push({ ...c.npz!, kind: 'episode-npz', split: c.record.split, episodes: [c.record.id], arrays: describedArrays(c.arrays, '') });
-    }
-  }
+  const splitFiles: SplitFileRecord[] = [];
   const splitFile = new Map<string, string>();
   if (writesSplitHdf5(format, shard)) {
-    for (const split of splits) {
-      const members = ok.filter((c) => c.record.split === split);
-      if (members.length === 0) continue;
-      const record = await assembleSplit(request, split, members);
-      files.push(record);
+    for (const split of summary.splits) {
+      const positions = summary.okPositions.get(split) ?? [];
+      if (positions.length === 0) continue;
+      const record = await assembleSplit(request, split, positions);
+      splitFiles.push(record);
       splitFile.set(split, record.path);
     }
   }
 
-  const episodes: EpisodeRecord[] = completions.map((c) => {
-    if (c.record.status !== 'ok') return { ...c.record, files: [] };
-    const held = [...(keepNpz ? [c.npz!.path] : []), ...(splitFile.has(c.record.split) ? [splitFile.get(c.record.split)!] : [])];
-    return { ...c.record, files: held };
-  });
-  const splitCounts: DatasetManifest['splits'] = {};
-  for (const split of splits) {
-    const members = completions.filter((c) => c.record.split === split);
-    splitCounts[split] = { ok: members.filter((m) => m.record.status === 'ok').length, rejected: members.filter((m) => m.record.status === 'rejected').length };
-  }
-
-  const source: CardSource = {
+  const head: ManifestHead = {
     manifestFormat: 1,
     pliantVersion: request.pliantVersion,
     name: seed.scenario.name,
@@ -124,20 +177,60 @@ export async function finishDataset(request: FinishRequest): Promise<DatasetMani
     episodeCount: seed.episodeCount,
     shard: shard ? { index: shard.index, count: shard.count } : null,
     export: { format: seed.export.format, dtype: seed.export.dtype },
-    splits: splitCounts,
+    splits: summary.counts,
     scenario: seed.scenario,
-    episodes,
-    files,
   };
-  const card = writeDatasetFile(request.outDir, CARD_FILE, renderDatasetCard(source));
+  const card = writeDatasetFile(request.outDir, CARD_FILE, renderDatasetCard({
+    ...head,
+    tally,
+    episodeNpz: keepNpz && tally.ok > 0,
+    splitFiles: splitFiles.map((f) => ({ path: f.path, split: f.split })),
+  }));
   const inputs: InputFileRecord[] = seed.inputs.map((i) => ({ path: i.path, sha256: i.sha256, sizeBytes: i.sizeBytes, kind: 'input', scenarioPath: i.scenarioPath }));
-  const manifest: DatasetManifest = { ...source, documents: [request.seedRecord, card, ...inputs], run: request.run };
-  writeDatasetFile(request.outDir, MANIFEST_FILE, `${JSON.stringify(manifest, null, 2)}\n`);
+  const documents = [request.seedRecord, card, ...inputs];
+  const listedPaths = documents.map((d) => d.path);
+
+  function* episodeRecords(): Generator<EpisodeRecord> {
+    for (let p = 0; p < completions.count; p++) {
+      const { record, npz } = completions.at(p);
+      if (record.status !== 'ok') {
+        yield { ...record, files: [] };
+        continue;
+      }
+      const held = [...(keepNpz ? [npz!.path] : []), ...(splitFile.has(record.split) ? [splitFile.get(record.split)!] : [])];
+      yield { ...record, files: held };
+    }
+  }
+  function* fileRecords(): Generator<DataFileRecord | SplitFileRecord> {
+    if (keepNpz) {
+      for (let p = 0; p < completions.count; p++) {
+        const c = completions.at(p);
+        if (c.record.status !== 'ok') continue;
+        listedPaths.push(c.npz!.path);
+        yield { ...c.npz!, kind: 'episode-npz', split: c.record.split, episodes: [c.record.id], arrays: describedArrays(c.arrays, '') };
+      }
+    }
+    for (const f of splitFiles) {
+      listedPaths.push(f.path);
+      yield f;
+    }
+  }
+  // The members in the order JSON.stringify gave them when the manifest was one object.
+  const manifest = {
+    ...head,
+    episodes: new StreamedList(episodeRecords),
+    files: new StreamedList(fileRecords),
+    documents,
+    run: request.run,
+  };
+  writeDatasetTextStreamed(request.outDir, MANIFEST_FILE, (emit) => {
+    writeStreamedJson(manifest, emit);
+    emit('\n');
+  });
   try {
     await rm(join(request.outDir, WORK_FOLDER), { recursive: true, force: true });
   } catch (error) {
     throw toDatasetWriteError(error, join(request.outDir, WORK_FOLDER));
   }
-  return manifest;
+  return { ok: tally.ok, rejected: tally.rejected, listedPaths, dataFileCount: listedPaths.length - documents.length };
 }
-

@@ -111,3 +111,6 @@ export interface DatasetManifest {
   /** When, where and how this copy was made. No checksum covers it; it differs between runs. */
   run: Record<string, unknown>;
 }
+
+/** The members of the manifest that come before its per-episode and per-file lists. */
+export type ManifestHead = Omit<DatasetManifest, 'episodes' | 'files' | 'documents' | 'run'>;

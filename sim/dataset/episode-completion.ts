@@ -2,11 +2,16 @@
 // the layout of its arrays and the checksum of its NPZ file. It is written only after the
 // episode's file is complete under its final name, so a run killed at any moment knows exactly
 // which episodes it can keep; `--resume` trusts a record only if the file still matches it.
+// The finishing step reads the records back from here one at a time rather than keeping every
+// episode's record (and its labels) in memory for the whole run.
+import { readFileSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { EpisodeRecord, FileRecord } from './dataset-manifest.ts';
 import type { ArrayLayout } from './episode-outcome.ts';
 import { sha256Hex } from './sha256.ts';
+import { DatasetReadError } from './dataset-read-error.ts';
+import { systemErrorCode } from './read-file-bytes.ts';
 
 export interface EpisodeCompletion {
   record: EpisodeRecord;
@@ -45,5 +50,30 @@ export async function readTrustedCompletion(outDir: string, path: string, expect
   if (!completion.npz) return null;
   const bytes = await readIfPresent(join(outDir, completion.npz.path));
   if (bytes === null || bytes.length !== completion.npz.sizeBytes || sha256Hex(bytes) !== completion.npz.sha256) return null;
+  return completion;
+}
+
+/**
+ * The completion record at `path` (relative to `outDir`) of an episode this run already
+ * trusts, read back for the finishing step. A record that vanished or was damaged since is
+ * reported with the way out: run again with --resume, which recomputes that episode.
+ */
+export function readCompletion(outDir: string, path: string, expectedId: string): EpisodeCompletion {
+  const absolute = join(outDir, path);
+  let text: string;
+  try {
+    text = readFileSync(absolute, 'utf8');
+  } catch (error) {
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} cannot be read (${systemErrorCode(error)})`, 'run the same command again with --resume to recompute that episode');
+  }
+  let completion: EpisodeCompletion;
+  try {
+    completion = JSON.parse(text) as EpisodeCompletion;
+  } catch (error) {
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} is not valid JSON (${error instanceof Error ? error.message : String(error)})`, 'run the same command again with --resume to recompute that episode');
+  }
+  if (completion?.record?.id !== expectedId) {
+    throw new DatasetReadError(absolute, '', `the completion record does not describe episode ${expectedId}`, 'run the same command again with --resume to recompute that episode');
+  }
   return completion;
 }

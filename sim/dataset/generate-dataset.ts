@@ -2,6 +2,8 @@
 // computed, written as an NPZ file under a temporary name and renamed, and only then marked done
 // in .pliant-work/done/. A run killed at any moment leaves a folder that `resume` completes to
 // exactly the bytes an uninterrupted run writes. See LAYOUT.md for the folder and the policies.
+// While it runs it keeps only which episodes are done; their records stay on disk until the
+// finishing step reads them back one at a time, so memory does not grow with the sweep.
 import { readdirSync, rmSync } from 'node:fs';
 import { readdir, rm, stat } from 'node:fs/promises';
 import { isTemporaryName } from './atomic-file.ts';
@@ -28,7 +30,7 @@ import { toDatasetWriteError } from './dataset-write-error.ts';
 import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
 import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
 import type { DatasetManifest } from './dataset-manifest.ts';
-import { readTrustedCompletion, renderCompletion } from './episode-completion.ts';
+import { readCompletion, readTrustedCompletion, renderCompletion } from './episode-completion.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
 import type { EpisodeOutcome } from './episode-outcome.ts';
 import { computeEpisodes } from './episode-pool.ts';
@@ -64,7 +66,8 @@ export interface GenerateResult {
   outDir: string;
   ok: number;
   rejected: number;
-  manifest: DatasetManifest | null;
+  /** Paths of the documents and data files the manifest lists; null when the run stopped early. */
+  listedPaths: string[] | null;
 }
 
 interface WorkPlan {
@@ -157,7 +160,8 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
       if (manifestText !== null && planText === null && !entries.includes(WORK_FOLDER)) {
         const manifest = JSON.parse(manifestText) as DatasetManifest;
         const ok = manifest.episodes.filter((e) => e.status === 'ok').length;
-        return { status: 'already-complete', outDir, ok, rejected: manifest.episodes.length - ok, manifest };
+        const listedPaths = [...manifest.documents.map((d) => d.path), ...manifest.files.map((f) => f.path)];
+        return { status: 'already-complete', outDir, ok, rejected: manifest.episodes.length - ok, listedPaths };
       }
       resuming = true;
     } else if (request.force) {
@@ -188,17 +192,20 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
 
   const indices = shardEpisodes(shard ?? { index: 0, count: 1 }, scenario.episodes);
   const keepNpz = keepsEpisodeNpz(scenario.export.format, shard);
-  const completions = new Map<number, EpisodeCompletion>();
+  // Indices whose completion record is on disk; the records themselves are read back at the end.
+  const done = new Set<number>();
+  let rejected = 0;
   if (resuming) {
     for (const index of indices) {
       const id = episodeId(index, scenario.episodes);
       const trusted = await readTrustedCompletion(outDir, episodeDonePath(id), id);
-      if (trusted) completions.set(index, trusted);
+      if (!trusted) continue;
+      done.add(index);
+      if (trusted.record.status === 'rejected') rejected++;
     }
   }
-  const todo = indices.filter((i) => !completions.has(i));
-  let rejected = [...completions.values()].filter((c) => c.record.status === 'rejected').length;
-  request.onEvent?.({ type: 'start', total: indices.length, alreadyDone: completions.size, workers: request.workers, outDir });
+  const todo = indices.filter((i) => !done.has(i));
+  request.onEvent?.({ type: 'start', total: indices.length, alreadyDone: done.size, workers: request.workers, outDir });
 
   const write = async (outcome: EpisodeOutcome): Promise<void> => {
     const id = outcome.record.id;
@@ -207,30 +214,36 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
     const completion: EpisodeCompletion = { record: outcome.record, arrays: outcome.arrays, npz };
     // The completion record goes last: it claims the file above is whole.
     writeDatasetFile(outDir, episodeDonePath(id), renderCompletion(completion));
-    completions.set(outcome.record.index, completion);
+    done.add(outcome.record.index);
     if (outcome.record.status === 'rejected') rejected++;
     request.onEvent?.({
       type: 'episode',
       id,
       index: outcome.record.index,
       status: outcome.record.status,
-      done: completions.size,
+      done: done.size,
       total: indices.length,
       rejected,
       ...(outcome.record.rejection ? { reason: outcome.record.rejection.message } : {}),
     });
   };
   await computeEpisodes({ scenario, dtype: scenario.export.dtype, replay: inputs.table, workers: request.workers, indices: todo, onOutcome: write, shouldStop: request.shouldStop });
-  if (completions.size < indices.length) {
-    return { status: 'stopped', outDir, ok: completions.size - rejected, rejected, manifest: null };
+  if (done.size < indices.length) {
+    return { status: 'stopped', outDir, ok: done.size - rejected, rejected, listedPaths: null };
   }
 
-  const manifest = await finishDataset({
+  const finished = await finishDataset({
     outDir,
     seed,
     seedRecord,
     shard,
-    completions: indices.map((i) => completions.get(i)!),
+    completions: {
+      count: indices.length,
+      at: (position) => {
+        const id = episodeId(indices[position], scenario.episodes);
+        return readCompletion(outDir, episodeDonePath(id), id);
+      },
+    },
     pliantVersion: request.pliantVersion,
     run: {
       kind: 'generate',
@@ -245,7 +258,7 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
     },
     onEvent: request.onEvent,
   });
-  request.onEvent?.({ type: 'finish', total: indices.length, ok: indices.length - rejected, rejected, outDir });
-  return { status: 'complete', outDir, ok: indices.length - rejected, rejected, manifest };
+  request.onEvent?.({ type: 'finish', total: indices.length, ok: finished.ok, rejected: finished.rejected, outDir });
+  return { status: 'complete', outDir, ok: finished.ok, rejected: finished.rejected, listedPaths: finished.listedPaths };
 }
 

@@ -29,6 +29,17 @@ export interface Hdf5Content {
   readonly groups?: readonly Hdf5Group[];
 }
 
+/**
+ * Content whose groups are made one at a time while the file is written (a split of a large
+ * sweep), so only one group's arrays are in memory at once. Each group is checked as it
+ * arrives; the groups come in the order they are written.
+ */
+export interface Hdf5StreamedContent {
+  readonly attributes?: Hdf5Attributes;
+  readonly arrays?: readonly NamedArray[];
+  readonly groups: Iterable<Hdf5Group>;
+}
+
 export interface Hdf5WriteOptions {
   /** 0 (default) stores arrays contiguously; 1-9 stores them in chunks compressed with deflate at that level. */
   readonly deflateLevel?: number;
@@ -63,6 +74,38 @@ export async function writeHdf5File(path: string, content: Hdf5Content, options:
 }
 
 /**
+ * Writes streamed content to `path` atomically. The file holds exactly the bytes writeHdf5File
+ * writes for the same groups given as a list: the library sees the same calls in the same order.
+ * An error from making or checking a group reaches the caller as it was thrown.
+ */
+export async function writeHdf5FileStreamed(path: string, content: Hdf5StreamedContent, options: Hdf5WriteOptions & AtomicWriteOptions = {}): Promise<void> {
+  checkHdf5Options(options);
+  checkRoot(content);
+  const library = await loadHdf5Library();
+  let failure: GroupFailure | undefined;
+  try {
+    writeFileAtomicVia(path, (temporaryPath) => {
+      try {
+        fillHdf5(library, temporaryPath, content, true, options, path);
+      } catch (error) {
+        if (error instanceof GroupFailure) failure = error;
+        throw error;
+      }
+    }, options);
+  } catch (error) {
+    if (failure !== undefined) throw failure.cause;
+    throw error;
+  }
+}
+
+/** Carries an error thrown while making or checking a streamed group past the HDF5 failure handling. */
+class GroupFailure extends Error {
+  constructor(override readonly cause: unknown) {
+    super(cause instanceof Error ? cause.message : String(cause));
+  }
+}
+
+/**
  * The bytes of the HDF5 file for this content, for callers that store files their own way.
  * HDF5 can only write to a path, so this goes through a scratch file in the system's temporary folder.
  */
@@ -86,14 +129,30 @@ export async function encodeHdf5(content: Hdf5Content, options: Hdf5WriteOptions
  */
 export function fillHdf5File(library: Hdf5Library, diskPath: string, content: Hdf5Content, options: Hdf5WriteOptions, reportPath: string): void {
   checkHdf5Content(content, options);
+  fillHdf5(library, diskPath, { ...content, groups: content.groups ?? [] }, false, options, reportPath);
+}
+
+/** Writes the file; with `checkEachGroup` every group is checked (and may fail as a GroupFailure) just before it is written. */
+function fillHdf5(library: Hdf5Library, diskPath: string, content: Hdf5StreamedContent, checkEachGroup: boolean, options: Hdf5WriteOptions, reportPath: string): void {
   const deflateLevel = options.deflateLevel ?? 0;
+  const rootNames = checkEachGroup ? checkRoot(content) : new Set<string>();
   const run = runHdf5Calls(library, options.fixedTimeS ?? HDF5_FIXED_TIME_S, () => {
     const file = new library.File(resolve(diskPath), 'w', { libver: 'v108' });
     if (file.file_id < 0n) return -1;
     try {
       writeAttributes(file, content.attributes);
       for (const array of content.arrays ?? []) writeArray(file, array, deflateLevel);
-      for (const group of content.groups ?? []) {
+      const groups = content.groups[Symbol.iterator]();
+      for (;;) {
+        let group: Hdf5Group;
+        try {
+          const next = groups.next();
+          if (next.done) break;
+          group = next.value;
+          if (checkEachGroup) checkGroup(group, rootNames);
+        } catch (error) {
+          throw new GroupFailure(error);
+        }
         const handle = file.create_group(group.name);
         writeAttributes(handle, group.attributes);
         for (const array of group.arrays) writeArray(handle, array, deflateLevel);
@@ -105,6 +164,7 @@ export function fillHdf5File(library: Hdf5Library, diskPath: string, content: Hd
     }
     return file.close();
   });
+  if (run.error instanceof GroupFailure) throw run.error;
   // h5wasm reports most failures only through HDF5's error stack and a negative status.
   if (run.error !== undefined || run.value === undefined || run.value < 0 || run.diagnostics.includes('HDF5-DIAG')) {
     throw hdf5Failure(run.diagnostics, run.error, reportPath);
@@ -168,26 +228,38 @@ function hdf5Failure(diagnostics: string, error: unknown, reportPath: string): D
 
 /** Throws a RangeError for content HDF5 would refuse or that would read back ambiguously. */
 export function checkHdf5Content(content: Hdf5Content, options: Hdf5WriteOptions = {}): void {
+  checkHdf5Options(options);
+  const rootNames = checkRoot(content);
+  for (const group of content.groups ?? []) checkGroup(group, rootNames);
+}
+
+function checkHdf5Options(options: Hdf5WriteOptions): void {
   const level = options.deflateLevel ?? 0;
   if (!Number.isInteger(level) || level < 0 || level > 9) throw new RangeError(`deflateLevel ${level} is not an integer from 0 to 9`);
   const time = options.fixedTimeS ?? HDF5_FIXED_TIME_S;
   // Object header time stamps are unsigned 32-bit seconds.
   if (!Number.isInteger(time) || time < 0 || time > 0xffffffff) throw new RangeError(`fixedTimeS ${time} is not a whole number of seconds from 0 to 2^32-1`);
+}
+
+/** Checks the root's attributes and arrays; returns the names they take, which groups must not reuse. */
+function checkRoot(content: Pick<Hdf5Content, 'attributes' | 'arrays'>): Set<string> {
   const rootNames = new Set<string>();
   checkAttributes('/', content.attributes);
   for (const array of content.arrays ?? []) {
     checkNamedArray(array);
     claimName(rootNames, array.name, '/');
   }
-  for (const group of content.groups ?? []) {
-    if (!ARRAY_NAME_PATTERN.test(group.name)) throw new RangeError(`group '${group.name}': the name must match ${ARRAY_NAME_PATTERN}`);
-    claimName(rootNames, group.name, '/');
-    checkAttributes(`/${group.name}`, group.attributes);
-    const names = new Set<string>();
-    for (const array of group.arrays) {
-      checkNamedArray(array);
-      claimName(names, array.name, `/${group.name}`);
-    }
+  return rootNames;
+}
+
+function checkGroup(group: Hdf5Group, rootNames: Set<string>): void {
+  if (!ARRAY_NAME_PATTERN.test(group.name)) throw new RangeError(`group '${group.name}': the name must match ${ARRAY_NAME_PATTERN}`);
+  claimName(rootNames, group.name, '/');
+  checkAttributes(`/${group.name}`, group.attributes);
+  const names = new Set<string>();
+  for (const array of group.arrays) {
+    checkNamedArray(array);
+    claimName(names, array.name, `/${group.name}`);
   }
 }
 

@@ -1,7 +1,8 @@
 // Joins the shard folders of an array job into one dataset whose data files and checksums are
 // those a single machine writes from the same seed file: the shards' NPZ files are copied
 // unchanged (after checking their SHA-256), and the split HDF5 files, card and manifest are
-// made by the same finishing step a single-machine run uses.
+// made by the same finishing step a single-machine run uses. Unlike `generate`, a merge holds
+// every shard's manifest (and so every episode record) in memory while it works.
 import { readdir, rm, stat } from 'node:fs/promises';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -10,10 +11,10 @@ import type { FolderState } from './dataset-folder-state.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
 import { readFileBytes } from './read-file-bytes.ts';
 import { parseSeedFile } from './seed-file.ts';
-import { SEED_FILE, episodeNpzPath, episodePartPath } from './dataset-files.ts';
+import { MANIFEST_FILE, SEED_FILE, episodeNpzPath, episodePartPath } from './dataset-files.ts';
 import type { DatasetManifest } from './dataset-manifest.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
-import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
+import { completionsInMemory, finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
 import { writeDatasetFile } from './dataset-file-writer.ts';
 import { checkFileRecord } from './verify-dataset.ts';
 import { sha256Hex } from './sha256.ts';
@@ -120,14 +121,15 @@ export async function mergeShards(request: MergeRequest): Promise<DatasetManifes
   }
   if (completions.length !== seed.episodeCount) throw new DatasetRequestError(`the shards hold ${completions.length} episodes, but the sweep has ${seed.episodeCount}`);
 
-  return finishDataset({
+  await finishDataset({
     outDir,
     seed,
     seedRecord,
     shard: null,
-    completions,
+    completions: completionsInMemory(completions),
     pliantVersion: first.manifest.pliantVersion,
     run: { kind: 'merge', mergedAt: new Date().toISOString(), host: hostname(), mergedBy: request.pliantVersion, shards: shards.map((s) => ({ dir: s.state.dir, shard: s.manifest.shard, run: s.manifest.run })) },
     onEvent: request.onEvent,
   });
+  return JSON.parse(new TextDecoder().decode(readFileBytes(join(outDir, MANIFEST_FILE)))) as DatasetManifest;
 }

@@ -83,7 +83,7 @@ export async function reproduceDataset(request: ReproduceRequest): Promise<Repro
   });
   const comparisons: ReproduceReport['comparisons'] = [];
   if (generated.status === 'stopped') return { generated, seedVersion: seed.pliantVersion, comparisons, identical: false };
-  const paths = [...new Set([...listedPaths(original.manifest), ...listedPaths(generated.manifest)])].sort();
+  const paths = [...new Set([...listedPaths(original.manifest), ...(generated.listedPaths ?? [])])].sort();
   for (const path of paths) {
     const a = await hashOf(join(originalDir, path));
     const b = await hashOf(join(generated.outDir, path));

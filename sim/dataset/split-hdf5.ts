@@ -2,8 +2,9 @@
 // arrays as the episode's NPZ file, each with 'unit' and 'description' attributes from the
 // catalogue, and the episode's index and split as group attributes. The groups are built from
 // the episodes' NPZ bytes after all of them exist, so the file never depends on the order in
-// which episodes finished, on the worker count or on sharding.
-import { writeHdf5File } from './hdf5-writer.ts';
+// which episodes finished, on the worker count or on sharding. Episodes are read and written
+// one at a time, so a split of any size needs the memory of one episode, not of the split.
+import { writeHdf5FileStreamed } from './hdf5-writer.ts';
 import type { Hdf5Group } from './hdf5-writer.ts';
 import type { NamedArray } from './named-array.ts';
 import { describeArray } from './episode-array-catalogue.ts';
@@ -23,22 +24,30 @@ export interface SplitHdf5Header {
 /** Deflate inside HDF5 chunks, which h5py reads without extra filters. */
 const HDF5_DEFLATE_LEVEL = 4;
 
-export async function writeSplitHdf5(path: string, header: SplitHdf5Header, episodes: readonly SplitEpisode[]): Promise<void> {
-  const groups: Hdf5Group[] = [...episodes]
-    .sort((a, b) => a.index - b.index)
-    .map((episode) => ({
+function* episodeGroups(header: SplitHdf5Header, episodes: Iterable<SplitEpisode>): Generator<Hdf5Group> {
+  let previous = -1;
+  for (const episode of episodes) {
+    // Streamed episodes cannot be sorted here, and the file's bytes depend on the group order.
+    if (episode.index <= previous) throw new RangeError(`episodes of split ${header.split} must come in ascending index order (${episode.index} after ${previous})`);
+    previous = episode.index;
+    yield {
       name: episode.id,
       attributes: { episode_index: BigInt(episode.index), split: header.split },
       arrays: episode.arrays.map((array) => {
         const d = describeArray(array.name);
         return { ...array, unit: d.unit, description: d.meaning };
       }),
-    }));
-  await writeHdf5File(
+    };
+  }
+}
+
+/** `episodes` are made (e.g. read from their NPZ files) as they are written, in ascending index order. */
+export async function writeSplitHdf5(path: string, header: SplitHdf5Header, episodes: Iterable<SplitEpisode>): Promise<void> {
+  await writeHdf5FileStreamed(
     path,
     {
       attributes: { dataset: header.datasetName, split: header.split, master_seed: header.masterSeed, layout: 'one group per episode, named by episode id; see manifest.json' },
-      groups,
+      groups: episodeGroups(header, episodes),
     },
     { deflateLevel: HDF5_DEFLATE_LEVEL },
   );
