@@ -75,7 +75,7 @@ export class DatasetsScreen implements Screen {
     this.seedButton.disabled = this.summary.seedFilePath === null;
     this.verifyButton.disabled = false;
     this.verifyResult.textContent = '';
-    this.table.open(this.summary.labelKeys);
+    this.table.open(this.summary.labelKeys, Object.keys(this.summary.splitCounts));
     this.status.show('ok', `Opened ${this.summary.path}.`);
   }
 
@@ -111,7 +111,7 @@ export class DatasetsScreen implements Screen {
       const world = { ground: { enabled: false, heightM: 0 }, fluid: { enabled: false } };
       this.player.load(episode.topology, episode.frames, episode.frameIntervalS, world);
       this.plots.load(episode.frames, Array.from({ length: episode.channelCount }, (_, c) => ({ name: `channel ${c}`, unit: 'per channel' })));
-      this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${episode.frameIntervalS} s.`;
+      this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${Number(episode.frameIntervalS.toPrecision(6))} s.`;
       this.playing.setAttribute('data-episode', row.episodeId);
       this.status.show('ok', 'Space plays and pauses, ← → step.');
       this.player.play();
@@ -125,7 +125,7 @@ export class DatasetsScreen implements Screen {
       ['dataset', s.title],
       ['folder', s.path],
       ['scenario', s.scenarioName],
-      ['episodes', `${s.episodeCount.toLocaleString('en')} (train ${s.splitCounts.train}, validation ${s.splitCounts.validation}, test ${s.splitCounts.test})`],
+      ['episodes', `${s.episodeCount.toLocaleString('en')} (${Object.entries(s.splitCounts).map(([split, n]) => `${split} ${n}`).join(', ')})`],
       ['files', s.formats.join(' and ').toUpperCase()],
       ['written', `${s.createdAtIso} by Pliant ${s.toolVersion}`],
       ['seed file', s.seedFilePath ?? 'missing: this dataset cannot be regenerated'],

@@ -1,7 +1,7 @@
 // The episode list of a dataset: one page of rows at a time from dataset.episodes, sortable by
 // any column, filterable by split and by text, so a dataset of a million episodes lists as fast
-// as one of ten. Rows show the split, the status where the dataset records one, and the sampled
-// parameters.
+// as one of ten. Rows show the split, the status (written, or rejected as unstable) and the
+// sampled parameters.
 import type { DatasetSplit, EpisodePage, EpisodeQuery, EpisodeRow } from '../../electron/bridge-contract.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
 import { unitFromKey } from '../sweep/unit-from-key.ts';
@@ -35,7 +35,7 @@ export class EpisodeTable {
     this.pageLabel = h('span', { className: 'page-label', attrs: { 'data-role': 'page-label' } });
     this.prev = button('◀ Previous', () => this.turn(-1), { attrs: { 'data-role': 'page-prev' } });
     this.next = button('Next ▶', () => this.turn(1), { attrs: { 'data-role': 'page-next' } });
-    this.split = select([['', 'every split'], ['train', 'train'], ['validation', 'validation'], ['test', 'test']], '', { 'data-role': 'filter-split' });
+    this.split = select([['', 'every split']], '', { 'data-role': 'filter-split' });
     this.split.addEventListener('change', () => this.reload());
     this.filterText = h('input', { attrs: { type: 'search', placeholder: 'episode id or label text', 'data-role': 'filter-text', 'aria-label': 'Filter episodes' } });
     this.filterText.addEventListener('input', () => {
@@ -45,9 +45,10 @@ export class EpisodeTable {
     this.root = h('div', { className: 'episode-list' }, h('div', { className: 'toolbar' }, labelled('Split', this.split), labelled('Filter', this.filterText), this.prev, this.pageLabel, this.next), h('div', { className: 'table-scroll' }, this.table));
   }
 
-  /** Shows a new dataset's episodes with these label columns. */
-  open(labelKeys: string[]): void {
-    this.columns = labelKeys;
+  /** Shows a new dataset's episodes with these label columns; `splits` fill the split filter. */
+  open(labelKeys: string[], splits: string[]): void {
+    this.columns = labelKeys.filter((k) => k !== 'status');
+    this.split.replaceChildren(...[['', 'every split'], ...splits.map((s) => [s, s])].map(([value, label]) => h('option', { text: label, attrs: { value } })));
     this.sortKey = undefined;
     this.descending = false;
     this.split.value = '';
@@ -97,14 +98,17 @@ export class EpisodeTable {
       const arrow = this.sortKey === key ? (this.descending ? ' ▼' : ' ▲') : '';
       const unit = unitOfColumn(column);
       const caption = `${column}${unit ? `, ${unit}` : ''}${arrow}`;
-      head.append(h('th', { attrs: { scope: 'col' } }, column === 'status' ? column : button(caption, () => this.sortBy(key), { className: 'sort-button', attrs: { 'data-sort': key } })));
+      head.append(h('th', { attrs: { scope: 'col' } }, button(caption, () => this.sortBy(key), { className: 'sort-button', attrs: { 'data-sort': key } })));
     }
     head.append(h('th', { attrs: { scope: 'col' }, text: '' }));
     const rows = page.rows.map((row) => {
       const status = row.labels.status;
-      const tr = h('tr', { attrs: { 'data-episode': row.episodeId } }, h('td', { text: row.episodeId }), h('td', {}, h('span', { className: `split-badge split-${row.split}`, text: row.split })), h('td', { text: status === undefined ? 'written' : String(status) }));
+      const tr = h('tr', { attrs: { 'data-episode': row.episodeId } }, h('td', { text: row.episodeId }), h('td', {}, h('span', { className: `split-badge split-${row.split}`, text: row.split })), h('td', { className: `status-${String(status ?? 'unknown')}`, text: status === undefined ? '—' : String(status) }));
       for (const column of this.columns) tr.append(h('td', { className: 'num', text: formatCell(row.labels[column]) }));
-      tr.append(h('td', {}, button('Play', () => this.events.play(row), { className: 'play-row', attrs: { 'data-role': 'play-episode' } })));
+      // A rejected episode (it became unstable) has no arrays to play.
+      const play = button('Play', () => this.events.play(row), { className: 'play-row', attrs: { 'data-role': 'play-episode' } });
+      play.disabled = status === 'rejected';
+      tr.append(h('td', {}, play));
       return tr;
     });
     this.table.replaceChildren(h('thead', {}, head), h('tbody', {}, ...rows));
