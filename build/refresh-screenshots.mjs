@@ -19,10 +19,13 @@ const PICTURES = {
   'preview-fin-strain.png': 'preview-strain.png',
   'preview-eel.png': 'preview-korrin-eel.png',
   'export.png': 'export-ready.png',
+  'export-done.png': 'export-done.png',
+  'datasets.png': 'datasets-playback.png',
+  'seed-file.png': 'seed-file.png',
   'preview-large-lattice.png': 'preview-large-lattice.png',
 };
 
-const run = spawnSync(process.execPath, [join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', 'test/e2e-screens.test.ts'], {
+const run = spawnSync(process.execPath, [join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', 'test/e2e-screens.test.ts', 'test/e2e-datasets.test.ts'], {
   cwd: root,
   stdio: 'inherit',
   env: { ...process.env, CI: process.env.CI ?? 'true' },

@@ -158,7 +158,7 @@ export class ExportScreen implements Screen {
     this.root.setAttribute('data-export-state', p.state);
     if (p.state === 'done') {
       this.resume.checked = false;
-      void this.finished();
+      void this.finished(p.message);
     } else if (p.state === 'cancelled') {
       this.resume.checked = true;
       this.status.show('info', `Cancelled after ${p.done} of ${p.total} episodes. The folder keeps every finished episode; press Start export with "Resume" ticked to finish it.`);
@@ -167,7 +167,8 @@ export class ExportScreen implements Screen {
     }
   }
 
-  private async finished(): Promise<void> {
+  /** `found` is what the job itself reports about the finished dataset, if anything. */
+  private async finished(found: string | undefined): Promise<void> {
     const outDir = this.outDir;
     if (!outDir) return;
     this.status.show('busy', 'Export finished; verifying every checksum…');
@@ -178,6 +179,7 @@ export class ExportScreen implements Screen {
         : h('div', { className: 'verify-bad', attrs: { 'data-role': 'verify-result', 'data-ok': 'false' } }, h('p', { text: `Verification found ${report.problems.length} problem${report.problems.length === 1 ? '' : 's'} in ${report.checkedFiles} files:` }), h('ul', {}, ...report.problems.map((pr) => h('li', { text: `${pr.file}: ${pr.message}` }))));
       this.result.replaceChildren(
         h('p', { attrs: { 'data-role': 'export-out-dir' }, text: `Dataset written to ${outDir}.` }),
+        ...(found ? [h('p', { attrs: { 'data-role': 'export-found' }, text: found })] : []),
         verdict,
         button('Open in Datasets', () => this.openDataset(outDir), { attrs: { 'data-role': 'export-open-dataset' } }),
       );

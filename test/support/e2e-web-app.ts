@@ -1,6 +1,7 @@
 // Starts Pliant's web mode for the end-to-end suites: builds the renderer with Vite into a
-// temporary folder, then runs the electron engineer's web-mode server (electron/web-server.ts)
-// with the same services `npm run web` builds (electron/web-cli.ts), on a free loopback port.
+// temporary folder, then runs the web-mode server (electron/web-server.ts) with the same services
+// `npm run web` builds (electron/web-cli.ts: the real dataset pipeline in every seam), on a free
+// loopback port.
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -9,7 +10,6 @@ import { readFileSync } from 'node:fs';
 import { build } from 'vite';
 import { createDefaultServices } from '../../electron/default-services.ts';
 import { createRequestHandlers } from '../../electron/request-handlers.ts';
-import { SIM_SCENARIO_CHECKER } from '../../electron/sim-scenario-checker.ts';
 import { startWebServer } from '../../electron/web-server.ts';
 import type { RunningWebServer } from '../../electron/web-server.ts';
 
@@ -41,7 +41,6 @@ export async function startPliantWebApp(): Promise<PliantWebApp> {
     version,
     bundledScenariosDir: SCENARIOS_DIR,
     folderChooser: { mode: 'in-page' },
-    pipeline: { scenarioChecker: SIM_SCENARIO_CHECKER },
     reportInternalError: (name, error) => console.error(`[e2e] request ${name} failed:`, error),
   });
   const server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir, port: 0 });
