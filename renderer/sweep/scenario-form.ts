@@ -277,8 +277,10 @@ function describe(s: SchemaObject | undefined): string {
   return s && typeof s.description === 'string' ? s.description : '';
 }
 
+/** Short descriptions whole; long ones up to the end of their first sentence (the title shows all). */
 function firstSentence(text: string): string {
-  const match = /^(.+?[.:])(\s|$)/.exec(text);
+  if (text.length <= 160) return text;
+  const match = /^(.+?\.)(\s|$)/.exec(text);
   return match ? match[1] : text;
 }
 

@@ -75,7 +75,7 @@ export class SchemaReader {
       return { kind: 'value-spec', integer: constant.type === 'integer', distributionKinds: kinds };
     }
     // "if it has member X then this form, else that one" is a choice between two forms.
-    if (isObject(raw.if) && Array.isArray(raw.if.required) && !('type' in raw.if) && !isObject(raw.if.properties) && isObject(raw.then) && isObject(raw.else)) {
+    if (isObject(raw.if) && Array.isArray(raw.if.required) && !('type' in raw.if) && !hasConstMember(raw.if.properties) && isObject(raw.then) && isObject(raw.else)) {
       return { kind: 'variants', variants: [raw.then, raw.else].map((v, i) => ({ label: this.variantLabel(v, i), schema: this.resolve(v) })) };
     }
     const variants = raw.oneOf ?? raw.anyOf;
@@ -202,6 +202,11 @@ function isValueSpec(s: SchemaObject): boolean {
   if (!isObject(s.if) || s.if.type !== 'number' || !isObject(s.else)) return false;
   const properties = s.else.properties;
   return isObject(properties) && isObject(properties.kind) && Array.isArray(properties.kind.enum);
+}
+
+/** True when some member's schema fixes its value (`const`): then the if tells kinds apart, not forms. */
+function hasConstMember(properties: unknown): boolean {
+  return isObject(properties) && Object.values(properties).some((p) => isObject(p) && 'const' in p);
 }
 
 function typeList(s: SchemaObject): string[] {

@@ -47,7 +47,8 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
       }
       if (asked !== generation) return;
       current = listing;
-      if (!typedSinceListing) pathInput.value = current.path;
+      // The person may be in the field about to type: leave it to them.
+      if (!typedSinceListing && document.activeElement !== pathInput) pathInput.value = current.path;
       dialog.setAttribute('data-listing', 'ready');
       dialog.setAttribute('data-path', current.path);
       note.textContent = current.truncated ? 'Only the first folders are listed; type a path to go deeper.' : `${current.folders.length} folder${current.folders.length === 1 ? '' : 's'}`;
@@ -85,6 +86,9 @@ export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) 
     );
     document.body.append(dialog);
     dialog.showModal();
+    // Focus the list, not the path field, so the home folder's path can fill the field.
+    list.tabIndex = -1;
+    list.focus();
     void show('');
   });
 }

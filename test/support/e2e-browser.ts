@@ -111,6 +111,8 @@ export async function bodyPixels(page: Page, screen: string): Promise<number> {
 export async function chooseFolderInPage(page: Page, path: string): Promise<void> {
   const dialog = 'dialog[data-role="folder-picker"][open]';
   await page.waitForSelector(dialog);
+  // The chooser first lists the home folder; typing before that lands would race it.
+  await waitInPage(page, `['ready', 'failed'].includes(document.querySelector('${dialog}')?.getAttribute('data-listing'))`);
   await page.fill('[data-role="folder-path"]', path);
   await page.click('[data-role="folder-go"]');
   await waitInPage(page, `document.querySelector('${dialog}')?.getAttribute('data-listing') === 'ready' && document.querySelector('${dialog}')?.getAttribute('data-path') === ${JSON.stringify(path)}`);
