@@ -9,6 +9,7 @@ import type { EpisodeOutcome } from './episode-outcome.ts';
 import { EpisodeBuildError } from './episode-product.ts';
 import type { ReplayTable } from './replay-inputs.ts';
 import type { FromEpisodeWorker, ToEpisodeWorker } from './episode-worker-messages.ts';
+import { episodeWorkerUrl } from './episode-worker-source.ts';
 
 export interface PoolRequest {
   scenario: Scenario;
@@ -30,7 +31,12 @@ export class EpisodeWorkerError extends Error {
   }
 }
 
-const WORKER_URL = new URL('./episode-worker-entry.mjs', import.meta.url);
+// An episode's arrays, and the deflate tables its NPZ file is compressed with, die young and
+// their memory sits outside the JavaScript heap until a collection frees it. A young generation
+// smaller than V8's default collects them sooner, so the memory is reused rather than held:
+// 400 korrin-tether episodes on two workers peaked near 300 MiB instead of near 335 MiB
+// (three runs each), with no measurable change in run time.
+const WORKER_YOUNG_GENERATION_MB = 4;
 
 export async function computeEpisodes(request: PoolRequest): Promise<void> {
   const workerCount = Math.min(request.workers, request.indices.length);
@@ -71,7 +77,8 @@ function runOnWorkers(request: PoolRequest, workerCount: number): Promise<void> 
     };
 
     for (let w = 0; w < workerCount; w++) {
-      const worker = new Worker(WORKER_URL, {
+      const worker = new Worker(episodeWorkerUrl(), {
+        resourceLimits: { maxYoungGenerationSizeMb: WORKER_YOUNG_GENERATION_MB },
         workerData: { scenario: request.scenario, dtype: request.dtype, replay: request.replay.toTransfer() },
       });
       workers.push(worker);
