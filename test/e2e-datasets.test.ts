@@ -173,6 +173,10 @@ describe.runIf(chromium.available && python.available)('Export, Datasets and See
     await page.keyboard.press('Space');
     expect(await bodyPixels(page, 'datasets')).toBeGreaterThan(200);
     expect(await page.textContent('[data-role="playing-episode"]')).toContain(`${recordedSteps + 1} frames`);
+    // The scene comes from the dataset's seed file: the tether demo hangs in water, with no ground.
+    const demo = JSON.parse(readFileSync(join(SCENARIOS_DIR, 'korrin-tether.json'), 'utf8'));
+    expect(await page.getAttribute('[data-screen="datasets"] [data-role="stage"]', 'data-fluid')).toBe(String(demo.world.fluid !== undefined));
+    expect(await page.getAttribute('[data-screen="datasets"] [data-role="stage"]', 'data-ground')).toBe(demo.world.ground === undefined ? 'none' : String(demo.world.ground.heightM ?? 0));
     await saveScreenshot(page, 'datasets-playback');
   });
 

@@ -10,6 +10,8 @@ import { StatusLine } from '../ui/status-line.ts';
 import { TrajectoryPlayer } from '../view/trajectory-player.ts';
 import { EpisodeTable } from './episode-table.ts';
 import { playableEpisode } from './episode-playback.ts';
+import { datasetScene, episodeWorld } from './dataset-scene.ts';
+import type { DatasetScene } from './dataset-scene.ts';
 
 export class DatasetsScreen implements Screen {
   readonly id = 'datasets';
@@ -26,6 +28,7 @@ export class DatasetsScreen implements Screen {
   private readonly verifyResult: HTMLElement;
   private summary: DatasetSummary | null = null;
   private frameTimes: Float64Array | null = null;
+  private scene: DatasetScene | null = null;
 
   constructor(private readonly bridge: PliantBridge, private readonly openSeed: (seedPath: string) => void) {
     this.summaryHost = h('div', { className: 'dataset-summary', attrs: { 'data-role': 'dataset-summary' } });
@@ -72,6 +75,14 @@ export class DatasetsScreen implements Screen {
       return;
     }
     this.renderSummary(this.summary);
+    this.scene = null;
+    if (this.summary.seedFilePath) {
+      try {
+        this.scene = datasetScene((await this.bridge.invoke('seed.read', { path: this.summary.seedFilePath })).scenarioText);
+      } catch {
+        // The seed file only adds the ground, the fluid and material names; play without them.
+      }
+    }
     this.seedButton.disabled = this.summary.seedFilePath === null;
     this.verifyButton.disabled = false;
     this.verifyResult.textContent = '';
@@ -108,8 +119,8 @@ export class DatasetsScreen implements Screen {
       const arrays = await this.bridge.invoke('dataset.episodeArrays', { path: this.summary.path, episodeId: row.episodeId });
       const episode = playableEpisode(arrays);
       this.frameTimes = episode.frames.timeS;
-      const world = { ground: { enabled: false, heightM: 0 }, fluid: { enabled: false } };
-      this.player.load(episode.topology, episode.frames, episode.frameIntervalS, world);
+      if (this.scene && this.scene.materialNames.length >= episode.topology.materialNames.length) episode.topology.materialNames = this.scene.materialNames;
+      this.player.load(episode.topology, episode.frames, episode.frameIntervalS, episodeWorld(this.scene, row.labels));
       this.plots.load(episode.frames, Array.from({ length: episode.channelCount }, (_, c) => ({ name: `channel ${c}`, unit: 'per channel' })));
       this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${Number(episode.frameIntervalS.toPrecision(6))} s.`;
       this.playing.setAttribute('data-episode', row.episodeId);

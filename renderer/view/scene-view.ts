@@ -88,6 +88,8 @@ export class SceneView {
     this.ground.position.y = world.ground.heightM;
     this.groundGrid.position.y = world.ground.heightM + 1e-4;
     this.fluid.visible = world.fluid.enabled;
+    this.host.setAttribute('data-ground', world.ground.enabled ? String(world.ground.heightM) : 'none');
+    this.host.setAttribute('data-fluid', String(world.fluid.enabled));
     this.requestRender();
   }
 
