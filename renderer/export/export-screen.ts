@@ -8,6 +8,7 @@ import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { SweepDocument } from '../app/sweep-document.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
 import { safetyCaution } from '../ui/safety-caution.ts';
+import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { JobProgressView } from './job-progress-view.ts';
@@ -107,8 +108,9 @@ export class ExportScreen implements Screen {
       return;
     }
     const name = this.nameInput.value.trim();
-    if (!/^[A-Za-z0-9][A-Za-z0-9._-]{0,127}$/.test(name)) {
-      this.status.show('error', `"${name}" is not usable as a folder name: use letters, digits, ".", "_" and "-", starting with a letter or digit.`);
+    const nameProblem = newFolderNameProblem(name);
+    if (nameProblem) {
+      this.status.show('error', nameProblem);
       return;
     }
     const workers = Math.round(Number(this.workers.value));
@@ -116,7 +118,7 @@ export class ExportScreen implements Screen {
       this.status.show('error', `Worker threads must be a whole number from 1 to ${BRIDGE_LIMITS.maxWorkers}, got ${this.workers.value}.`);
       return;
     }
-    this.outDir = `${this.parentFolder.replace(/[/\\]$/, '')}/${name}`;
+    this.outDir = insideFolder(this.parentFolder, name);
     this.result.replaceChildren();
     this.job.reset('Starting…');
     this.root.setAttribute('data-export-state', 'running');

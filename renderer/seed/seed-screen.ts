@@ -6,6 +6,7 @@ import { JobProgressView } from '../export/job-progress-view.ts';
 import { button, h, labelled } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
+import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
 
 export interface SeedScreenEvents {
   /** Show episode `index` of the seed file's scenario on the Preview screen. */
@@ -77,7 +78,7 @@ export class SeedScreen implements Screen {
   private async choose(): Promise<void> {
     try {
       const chosen = await this.bridge.invoke('folder.choose', { purpose: 'dataset' });
-      if (chosen) await this.open(`${chosen.path.replace(/[/\\]$/, '')}/seed.json`);
+      if (chosen) await this.open(insideFolder(chosen.path, 'seed.json'));
     } catch (error) {
       this.status.error('Could not choose a folder', error);
     }
@@ -108,11 +109,12 @@ export class SeedScreen implements Screen {
   private async begin(): Promise<void> {
     if (!this.seed || !this.parentFolder) return;
     const name = this.outName.value.trim();
-    if (!/^[A-Za-z0-9][A-Za-z0-9._-]{0,127}$/.test(name)) {
-      this.status.show('error', `"${name}" is not usable as a folder name: use letters, digits, ".", "_" and "-".`);
+    const nameProblem = newFolderNameProblem(name);
+    if (nameProblem) {
+      this.status.show('error', nameProblem);
       return;
     }
-    this.outDir = `${this.parentFolder.replace(/[/\\]$/, '')}/${name}`;
+    this.outDir = insideFolder(this.parentFolder, name);
     this.job.reset('Starting…');
     try {
       this.job.follow((await this.bridge.invoke('reproduce.begin', { seedPath: this.seed.path, outDir: this.outDir })).jobId);

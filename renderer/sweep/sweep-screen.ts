@@ -9,6 +9,7 @@ import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { SweepDocument, SweepState } from '../app/sweep-document.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
+import { insideFolder } from '../ui/new-folder-name.ts';
 import { button, h, select } from '../ui/element.ts';
 import { ScenarioForm } from './scenario-form.ts';
 import type { SchemaObject } from './schema-shape.ts';
@@ -135,7 +136,7 @@ export class SweepScreen implements Screen {
         return;
       }
       this.fileRow.hidden = true;
-      const path = `${folder.replace(/[/\\]$/, '')}/${fileName}`;
+      const path = insideFolder(folder, fileName);
       void (mode === 'open' ? this.openPath(path, false) : this.writeTo(path));
     }, { attrs: { 'data-role': 'file-confirm' } });
     const cancel = button('Cancel', () => (this.fileRow.hidden = true));
