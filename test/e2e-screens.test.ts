@@ -1,8 +1,10 @@
 // The app's screens end to end: the web-mode server (electron/web-server.ts) serves a fresh
 // Vite build of the renderer to Debian's headless Chromium, and the tests use the page as a
-// person would — open the demo scenarios, read the 3-D view's pixels, break a field, play and
-// step. Expected values come from outside the screens: `pliant validate` for the problem
-// wording, textbook moments for the parameter histograms, NumPy for exported files.
+// person would — open the demo scenarios, read the 3-D view's pixels, break a field, save and
+// reopen, play and step. Expected values come from outside the screens: the demo files
+// themselves, `pliant validate` for the problem wording and for saved files, the textbook mean
+// of a uniform distribution for the parameter histograms. Export, Datasets and Seed file are in
+// e2e-datasets.test.ts.
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
