@@ -95,6 +95,13 @@ export interface ChosenFolder {
   path: string;
 }
 
+export interface JsonFileListing {
+  /** The folder listed (absolute, real). */
+  path: string;
+  /** Its regular files whose names end in ".json" (any case), sorted by name. */
+  files: { name: string; path: string }[];
+}
+
 export interface FolderListing {
   /** The folder listed (absolute). */
   path: string;
@@ -122,6 +129,16 @@ export interface ArrayDescription {
   unit: string;
 }
 
+export interface ControlChannelDescription {
+  index: number;
+  name: string;
+  /** 'handle-force', 'driven-offset' or 'actuator'. */
+  kind: string;
+  /** SI unit of the channel's values ("N", "m", "1" for a dimensionless actuator signal). */
+  unit: string;
+  description: string;
+}
+
 export interface DatasetSummary {
   path: string;
   title: string;
@@ -145,6 +162,12 @@ export interface DatasetSummary {
    * "status" and any other scalar label key.
    */
   labelKeys: string[];
+  /** The control channels of the first episode, as the manifest records them (columns of `controls`). */
+  controlChannels: ControlChannelDescription[];
+  /** True when some episode records other channels; `dataset.episodeArrays` then carries each episode's own. */
+  controlChannelsVary: boolean;
+  /** Data files, seed file, card, copied inputs and manifest.json, in bytes. */
+  sizeBytes: number;
 }
 
 export interface EpisodeRow {
@@ -188,6 +211,18 @@ export interface EncodedArray extends ArrayDescription {
 export interface EpisodeArrays {
   episodeId: string;
   arrays: EncodedArray[];
+  /** This episode's control channels from the manifest, in the order of the `controls` columns. */
+  controlChannels: ControlChannelDescription[];
+}
+
+export type FileComparisonResult = 'identical' | 'different' | 'missing' | 'extra';
+
+export interface DatasetComparison {
+  /**
+   * Every file the original's manifest lists, then manifest.json (compared without its `run`
+   * member, which differs between runs), then files only the regenerated folder has ('extra').
+   */
+  comparisons: { file: string; result: FileComparisonResult }[];
 }
 
 export interface VerifyReport {
@@ -236,6 +271,7 @@ export interface RequestMap {
   'folder.choose': { args: { purpose: FolderPurpose }; result: ChosenFolder | null };
   'folder.browse': { args: { path: string }; result: FolderListing };
   'folder.allow': { args: { path: string; purpose: FolderPurpose }; result: ChosenFolder };
+  'folder.listJson': { args: { path: string }; result: JsonFileListing };
   'export.begin': {
     args: { scenarioText: string; outDir: string; format: ExportFormat; workers: number; resume: boolean };
     result: JobStarted;
@@ -245,6 +281,7 @@ export interface RequestMap {
   'dataset.episodes': { args: { path: string } & EpisodeQuery; result: EpisodePage };
   'dataset.episodeArrays': { args: { path: string; episodeId: string }; result: EpisodeArrays };
   'dataset.verify': { args: { path: string }; result: VerifyReport };
+  'dataset.compare': { args: { originalPath: string; regeneratedPath: string }; result: DatasetComparison };
   'seed.read': { args: { path: string }; result: SeedSummary };
   'reproduce.begin': { args: { seedPath: string; outDir: string }; result: JobStarted };
 }
@@ -262,12 +299,14 @@ export const REQUEST_NAMES = [
   'folder.choose',
   'folder.browse',
   'folder.allow',
+  'folder.listJson',
   'export.begin',
   'export.cancel',
   'dataset.summary',
   'dataset.episodes',
   'dataset.episodeArrays',
   'dataset.verify',
+  'dataset.compare',
   'seed.read',
   'reproduce.begin',
 ] as const satisfies readonly RequestName[];
@@ -450,6 +489,7 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
     { path: pathSchema('Folder the person picked in the in-page chooser.'), purpose: purposeSchema },
     ['path', 'purpose'],
   ),
+  'folder.listJson': closedObject('folder.listJson', { path: pathSchema('Folder whose .json files to list.') }, ['path']),
   'export.begin': closedObject(
     'export.begin',
     {
@@ -492,6 +532,11 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
     ['path', 'episodeId'],
   ),
   'dataset.verify': closedObject('dataset.verify', { path: pathSchema('Dataset folder.') }, ['path']),
+  'dataset.compare': closedObject(
+    'dataset.compare',
+    { originalPath: pathSchema('The original dataset folder.'), regeneratedPath: pathSchema('The folder regenerated from its seed file.') },
+    ['originalPath', 'regeneratedPath'],
+  ),
   'seed.read': closedObject('seed.read', { path: pathSchema('Seed file.') }, ['path']),
   'reproduce.begin': closedObject(
     'reproduce.begin',

@@ -5,7 +5,7 @@ import type { RequestServices } from './request-services.ts';
 
 type DatasetRequests = Pick<
   HandlerTable,
-  'dataset.summary' | 'dataset.episodes' | 'dataset.episodeArrays' | 'dataset.verify' | 'seed.read'
+  'dataset.summary' | 'dataset.episodes' | 'dataset.episodeArrays' | 'dataset.verify' | 'dataset.compare' | 'seed.read'
 >;
 
 export function datasetRequests(services: RequestServices): DatasetRequests {
@@ -19,6 +19,9 @@ export function datasetRequests(services: RequestServices): DatasetRequests {
       datasetReader.episodeArrays(await folders.resolve(path, 'read'), episodeId),
 
     'dataset.verify': async ({ path }) => datasetReader.verify(await folders.resolve(path, 'read')),
+
+    'dataset.compare': async ({ originalPath, regeneratedPath }) =>
+      datasetReader.compare(await folders.resolve(originalPath, 'read'), await folders.resolve(regeneratedPath, 'read')),
 
     'seed.read': async ({ path }) => seedReader.read(await folders.resolve(path, 'read')),
   };

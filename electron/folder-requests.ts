@@ -9,7 +9,7 @@ import type { HandlerTable } from './handler-table.ts';
 import { RequestError } from './request-error.ts';
 import type { RequestServices } from './request-services.ts';
 
-type FolderRequests = Pick<HandlerTable, 'folder.choose' | 'folder.browse' | 'folder.allow'>;
+type FolderRequests = Pick<HandlerTable, 'folder.choose' | 'folder.browse' | 'folder.allow' | 'folder.listJson'>;
 
 /** Enough for any real folder; a listing of a huge one is cut rather than held in full. */
 const MAX_LISTED_FOLDERS = 2000;
@@ -48,6 +48,18 @@ export function folderRequests(services: RequestServices): FolderRequests {
         folders: names.map((name) => ({ name, path: join(real, name) })),
         truncated,
       };
+    },
+
+    // Both modes: a scenario is opened by picking it from this list rather than typing its name.
+    // Unlike folder.browse it reveals file names, so only folders chosen in this session (and the
+    // bundled examples) may be listed.
+    'folder.listJson': async ({ path }) => {
+      const real = await folders.resolve(path, 'read');
+      if (!(await files.isFolder(real))) {
+        throw new RequestError('path-refused', `${shown(path)} is a file, not a folder. List the folder that holds it.`);
+      }
+      const names = (await files.listFiles(real, '')).filter((name) => /\.json$/i.test(name));
+      return { path: real, files: names.map((name) => ({ name, path: join(real, name) })) };
     },
 
     'folder.allow': async ({ path, purpose }) => {

@@ -2,6 +2,7 @@
 // Electron, behind the web-mode server and in tests. The dataset pipeline plugs into the
 // ScenarioChecker, DatasetReader, SeedReader and job-worker seams; the shells provide the rest.
 import type {
+  DatasetComparison,
   DatasetSummary,
   EpisodeArrays,
   EpisodePage,
@@ -28,6 +29,8 @@ export interface DatasetReader {
   episodeArrays(datasetDir: string, episodeId: string): Promise<EpisodeArrays>;
   /** Recomputes checksums against the manifest; may take a while on large datasets. */
   verify(datasetDir: string): Promise<VerifyReport>;
+  /** Compares a regenerated folder with the original, file by file. */
+  compare(originalDir: string, regeneratedDir: string): Promise<DatasetComparison>;
 }
 
 /** Reads a seed file (the recipe that regenerates a dataset bit for bit). */

@@ -2,6 +2,8 @@
 // summaries and episode pages from the manifest, one episode's arrays from its NPZ file or HDF5
 // group, and verification by the same code as `pliant verify`, run in a worker thread.
 import { stat } from 'node:fs/promises';
+import { compareDatasetFolders } from '../sim/dataset/dataset-comparison.ts';
+import { readDatasetOverview } from '../sim/dataset/dataset-overview.ts';
 import { DatasetReader as SimDatasetReader } from '../sim/dataset/dataset-reader.ts';
 import { shown } from './allowed-folders.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
@@ -30,6 +32,7 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
     summary: (dir) =>
       translated(async () => {
         const s = await reader.summary(dir);
+        const overview = await readDatasetOverview(dir, await reader.manifest(dir));
         return {
           path: s.dir,
           title: s.title,
@@ -43,6 +46,9 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
           cardMarkdown: s.cardMarkdown,
           arrays: s.arrays.map((a) => ({ name: a.name, dtype: a.dtype, shape: a.shape, unit: a.unit })),
           labelKeys: s.labelKeys,
+          controlChannels: overview.controlChannels,
+          controlChannelsVary: overview.controlChannelsVary,
+          sizeBytes: overview.sizeBytes,
         };
       }),
 
@@ -55,7 +61,7 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
     episodeArrays: (dir, episodeId) =>
       translated(async () => {
         const read = await reader.episodeArrays(dir, episodeId);
-        return { episodeId: read.episode.id, arrays: read.arrays.map(encodeArray) };
+        return { episodeId: read.episode.id, arrays: read.arrays.map(encodeArray), controlChannels: read.episode.controlChannels.map((c) => ({ ...c })) };
       }),
 
     verify: (dir) =>
@@ -67,5 +73,9 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
         const report = await verifyFolder(dir);
         return { ok: report.ok, checkedFiles: report.checkedFiles, problems: report.problems };
       }),
+
+    // Streamed hashing in the main process: each chunk is short work between reads, so requests
+    // keep being answered while a large folder is compared.
+    compare: (originalDir, regeneratedDir) => translated(async () => ({ comparisons: await compareDatasetFolders(originalDir, regeneratedDir) })),
   };
 }

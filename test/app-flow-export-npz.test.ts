@@ -98,6 +98,45 @@ print(json.dumps({"name": m["name"], "version": m["pliantVersion"], "finished": 
     expect(summary.cardMarkdown).toMatch(/does not replace hardware testing/);
   });
 
+  it('dataset.summary names the control channels with their units as manifest.json records them (Python json)', async () => {
+    const summary = await session.call('dataset.summary', { path: dataset });
+    const want = runReferencePython<{ first: unknown[]; vary: boolean }>(
+      `import json, sys, os
+m = json.load(open(os.path.join(json.load(sys.stdin), "manifest.json")))
+first = m["episodes"][0]["controlChannels"]
+print(json.dumps({"first": first, "vary": any(e["controlChannels"] != first for e in m["episodes"])}))`,
+      dataset,
+    );
+    expect(summary.controlChannels).toEqual(want.first);
+    expect(summary.controlChannelsVary).toBe(want.vary);
+    // The tether's top end is driven in x and z (scenarios/korrin-tether.json, drivenAxes): two
+    // offsets in metres.
+    expect(summary.controlChannels.map((c) => c.unit)).toEqual(['m', 'm']);
+    expect(summary.controlChannels.every((c) => c.kind === 'driven-offset' && c.name.length > 0)).toBe(true);
+    for (const episode of ['ep-000000', 'ep-000003']) {
+      const arrays = await session.call('dataset.episodeArrays', { path: dataset, episodeId: episode });
+      const recorded = runReferencePython<unknown[]>(
+        'import json, sys, os\nd, id = json.load(sys.stdin)\nm = json.load(open(os.path.join(d, "manifest.json")))\nprint(json.dumps([e for e in m["episodes"] if e["id"] == id][0]["controlChannels"]))',
+        [dataset, episode],
+      );
+      expect(arrays.controlChannels, episode).toEqual(recorded);
+      expect(arrays.arrays.find((a) => a.name === 'controls')?.shape[1], episode).toBe(recorded.length);
+    }
+  });
+
+  it('dataset.summary gives the size in bytes: every listed file plus manifest.json, as os.path.getsize measures them', async () => {
+    const summary = await session.call('dataset.summary', { path: dataset });
+    const measured = runReferencePython<number>(
+      `import json, sys, os
+d = json.load(sys.stdin)
+m = json.load(open(os.path.join(d, "manifest.json")))
+print(sum(os.path.getsize(os.path.join(d, f["path"])) for f in m["documents"] + m["files"]) + os.path.getsize(os.path.join(d, "manifest.json")))`,
+      dataset,
+    );
+    expect(summary.sizeBytes).toBe(measured);
+    expect(summary.sizeBytes).toBeGreaterThan(0);
+  });
+
   it('dataset.episodes pages, sorts and filters the manifest records as Python sorted() and filters do', async () => {
     const reference = (query: object) =>
       runReferencePython<{ total: number; ids: string[] }>(
@@ -248,6 +287,48 @@ print(json.dumps([{"path": f["path"], "same": h(os.path.join(a, f["path"])) == h
     expect(compared.length).toBeGreaterThan(EPISODES);
     expect(compared.filter((c) => !c.same)).toEqual([]);
     expect((await session.call('dataset.verify', { path: again })).ok).toBe(true);
+
+    // dataset.compare says the same, file by file, and finds a tampered, a lost and a stray file.
+    const identical = await session.call('dataset.compare', { originalPath: dataset, regeneratedPath: again });
+    expect(identical.comparisons.map((c) => c.file)).toEqual([...compared.map((c) => c.path), 'manifest.json']);
+    expect(identical.comparisons.every((c) => c.result === 'identical')).toBe(true);
+
+    const tampered = join(root, 'tank-tether-tampered');
+    cpSync(again, tampered, { recursive: true });
+    const victim = join(tampered, 'episodes', 'ep-000002.npz');
+    const bytes = readFileSync(victim);
+    bytes[bytes.length >> 1] ^= 0x80;
+    writeFileSync(victim, bytes);
+    const oneDifferent = await session.call('dataset.compare', { originalPath: dataset, regeneratedPath: tampered });
+    expect(oneDifferent.comparisons.filter((c) => c.result !== 'identical')).toEqual([{ file: 'episodes/ep-000002.npz', result: 'different' }]);
+
+    rmSync(join(tampered, 'CARD.md'));
+    writeFileSync(join(tampered, 'episodes', 'notes.txt'), 'left here by hand\n');
+    const got = await session.call('dataset.compare', { originalPath: dataset, regeneratedPath: tampered });
+    // Reference: the same comparison in Python (hashlib SHA-256, FIPS 180-4; os.walk for extras).
+    const want = runReferencePython<{ file: string; result: string }[]>(
+      `import json, sys, os, hashlib
+a, b = json.load(sys.stdin)
+m = json.load(open(os.path.join(a, "manifest.json")))
+h = lambda p: hashlib.sha256(open(p, "rb").read()).hexdigest()
+out = []
+for f in m["documents"] + m["files"]:
+    there = os.path.join(b, f["path"])
+    out.append({"file": f["path"], "result": "missing" if not os.path.isfile(there) else "identical" if h(there) == h(os.path.join(a, f["path"])) else "different"})
+strip = lambda p: {k: v for k, v in json.load(open(p)).items() if k != "run"}
+out.append({"file": "manifest.json", "result": "identical" if strip(os.path.join(a, "manifest.json")) == strip(os.path.join(b, "manifest.json")) else "different"})
+known = {o["file"] for o in out}
+extra = sorted(os.path.relpath(os.path.join(r, n), b) for r, _, names in os.walk(b) for n in names)
+out += [{"file": f, "result": "extra"} for f in extra if f not in known]
+print(json.dumps(out))`,
+      [dataset, tampered],
+    );
+    expect(got.comparisons).toEqual(want);
+    expect(got.comparisons.filter((c) => c.result !== 'identical')).toEqual([
+      { file: 'CARD.md', result: 'missing' },
+      { file: 'episodes/ep-000002.npz', result: 'different' },
+      { file: 'episodes/notes.txt', result: 'extra' },
+    ]);
   });
 
   it('refuses every dataset request for folders the person did not pick', async () => {
@@ -258,6 +339,7 @@ print(json.dumps([{"path": f["path"], "same": h(os.path.join(a, f["path"])) == h
       ['dataset.episodes', { path: elsewhere, offset: 0, limit: 5 }],
       ['dataset.episodeArrays', { path: elsewhere, episodeId: 'ep-000000' }],
       ['dataset.verify', { path: elsewhere }],
+      ['dataset.compare', { originalPath: elsewhere, regeneratedPath: elsewhere }],
       ['seed.read', { path: join(elsewhere, 'seed.json') }],
       ['reproduce.begin', { seedPath: join(elsewhere, 'seed.json'), outDir: join(root, 'never') }],
       ['export.begin', { scenarioText: '{}', outDir: join(root, 'never'), format: 'npz', workers: 1, resume: false }],

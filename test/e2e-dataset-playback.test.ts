@@ -50,7 +50,8 @@ describe.runIf(python.available)('an exported episode as the Datasets screen pla
 
   function episodeFromNumpy(demo: string): { arrays: Map<string, NumpyArray>; episode: ReturnType<typeof playableEpisode> } {
     const encoded = runReferencePython<NumpyArray[]>(ENCODE_WITH_NUMPY, join(folder, demo, 'episodes', 'ep-000000.npz'));
-    const delivered: EpisodeArrays = { episodeId: 'ep-000000', arrays: encoded.map(({ first: _f, last: _l, ...array }) => array) };
+    // Playback builds the episode from its arrays alone; channel names come from the manifest.
+    const delivered: EpisodeArrays = { episodeId: 'ep-000000', arrays: encoded.map(({ first: _f, last: _l, ...array }) => array), controlChannels: [] };
     return { arrays: new Map(encoded.map((a) => [a.name, a])), episode: playableEpisode(delivered) };
   }
 

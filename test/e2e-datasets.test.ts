@@ -86,6 +86,14 @@ describe.runIf(chromium.available && python.available)('Export, Datasets and See
     expect(await page.getAttribute(progress, 'data-total')).toBe(String(episodes));
     await page.waitForSelector('[data-role="verify-result"]');
     expect(await page.getAttribute('[data-role="verify-result"]', 'data-ok')).toBe('true');
+    // The folder's size, as os.path.getsize measures the files the manifest lists and the manifest.
+    const measured = runReferencePython<number>(
+      'import json, sys, os\nd = json.load(sys.stdin)\nm = json.load(open(os.path.join(d, "manifest.json")))\n' +
+        'print(sum(os.path.getsize(os.path.join(d, f["path"])) for f in m["documents"] + m["files"]) + os.path.getsize(os.path.join(d, "manifest.json")))',
+      join(folder, 'tank-tether'),
+    );
+    expect(await page.getAttribute('[data-role="export-size"]', 'data-bytes')).toBe(String(measured));
+    expect(await page.textContent('[data-role="export-size"]')).toContain(`${measured.toLocaleString('en')} bytes`);
     await saveScreenshot(page, 'export-done');
 
     // What NumPy finds in the folder: one NPZ per episode, positions (T + 1) × N × 3.
@@ -173,6 +181,19 @@ describe.runIf(chromium.available && python.available)('Export, Datasets and See
     await page.keyboard.press('Space');
     expect(await bodyPixels(page, 'datasets')).toBeGreaterThan(200);
     expect(await page.textContent('[data-role="playing-episode"]')).toContain(`${recordedSteps + 1} frames`);
+    // The controls chart names each channel with its unit as manifest.json records them.
+    const channels = runReferencePython<{ name: string; unit: string }[]>(
+      'import json, sys, os\nm = json.load(open(os.path.join(json.load(sys.stdin), "manifest.json")))\nprint(json.dumps(m["episodes"][0]["controlChannels"]))',
+      join(folder, 'tank-tether'),
+    );
+    expect(channels.length).toBeGreaterThan(0);
+    const controls = '[data-screen="datasets"] [data-plot="Controls"]';
+    expect(await page.textContent(`${controls} figcaption`)).toBe(`Controls, ${[...new Set(channels.map((c) => c.unit))].join(' or ')}`);
+    const legend = (await page.textContent(controls)) ?? '';
+    for (const c of channels) expect(legend).toContain(`${c.name}, ${c.unit}`);
+    expect(legend).not.toContain('per channel');
+    const summaryText = (await page.textContent('[data-role="dataset-summary"]')) ?? '';
+    for (const c of channels) expect(summaryText).toContain(`${c.name}, ${c.unit}`);
     // The scene comes from the dataset's seed file: the tether demo hangs in water, with no ground.
     const demo = JSON.parse(readFileSync(join(SCENARIOS_DIR, 'korrin-tether.json'), 'utf8'));
     expect(await page.getAttribute('[data-screen="datasets"] [data-role="stage"]', 'data-fluid')).toBe(String(demo.world.fluid !== undefined));
@@ -191,10 +212,14 @@ describe.runIf(chromium.available && python.available)('Export, Datasets and See
     await page.click('[data-role="seed-regenerate"]');
     await waitInPage(page, `['done', 'failed', 'cancelled'].includes(document.querySelector('[data-screen="seed"]')?.getAttribute('data-seed-state'))`, 180_000);
     expect(await page.getAttribute('[data-screen="seed"]', 'data-seed-state')).toBe('done');
-    await waitInPage(page, `document.querySelectorAll('[data-role="seed-files"] tr[data-result="ok"]').length > 0`);
-    const results = await page.$$eval('[data-role="seed-files"] tbody tr', (rows) => rows.map((r) => r.getAttribute('data-result')));
-    expect(results.length).toBeGreaterThan(episodes);
-    expect(results.every((r) => r === 'ok')).toBe(true);
+    await waitInPage(page, `document.querySelectorAll('[data-role="seed-files"] tr[data-result="identical"]').length > 0`);
+    const rows = await page.$$eval('[data-role="seed-files"] tbody tr', (trs) => trs.map((r) => ({ file: r.getAttribute('data-file'), result: r.getAttribute('data-result') })));
+    // Every file the original manifest lists, then manifest.json, compared with the original folder.
+    const listed = runReferencePython<string[]>(
+      'import json, sys, os\nm = json.load(open(os.path.join(json.load(sys.stdin), "manifest.json")))\nprint(json.dumps([f["path"] for f in m["documents"] + m["files"]]))',
+      join(folder, 'tank-tether'),
+    );
+    expect(rows).toEqual([...listed, 'manifest.json'].map((file) => ({ file, result: 'identical' })));
     await saveScreenshot(page, 'seed-file');
     // NumPy finds the regenerated positions identical to the exported ones.
     const same = runReferencePython<boolean>(

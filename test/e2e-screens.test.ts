@@ -146,9 +146,13 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
       expect(cli.stdout).toContain('"tank-tether-copy"');
 
       await openDemo(page, 'korrin-fin.json');
+      // Opening picks from the folder's .json files (folder.listJson) instead of a typed name.
+      writeFileSync(join(folder, 'tank-notes.txt'), 'not a scenario\n');
       await page.click('[data-role="open-file"]');
       await chooseFolderInPage(page, folder);
-      await page.fill('[data-role="file-name"]', 'tank-tether-copy.json');
+      await page.waitForSelector('[data-role="file-list"]');
+      expect(await page.$$eval('[data-role="file-list"] option', (options) => options.map((o) => o.textContent))).toEqual(['tank-tether-copy.json']);
+      await page.selectOption('[data-role="file-list"]', { label: 'tank-tether-copy.json' });
       await page.click('[data-role="file-confirm"]');
       await page.waitForSelector('[data-role="file-label"]:has-text("tank-tether-copy.json")');
       expect(await page.inputValue('input[data-pointer="/name"]')).toBe('tank-tether-copy');

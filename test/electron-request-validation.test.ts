@@ -14,6 +14,7 @@ import { createDefaultServices } from '../electron/default-services.ts';
 import { createNativeFolderChooser } from '../electron/folder-dialog.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import type { RequestHandlers } from '../electron/request-handlers.ts';
+import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 let root: string;
 let picked: string;
@@ -236,5 +237,41 @@ describe('well-formed requests are served', () => {
   it('refuses the web-mode folder requests in the desktop app', async () => {
     const error = refusal(await handlers.handle('folder.browse', { path: '' }));
     expect(error.code).toBe('unsupported-in-mode');
+  });
+});
+
+// Reference for the listing: Python's os.listdir, os.path.isfile and sorted() (code-point order,
+// as the handler sorts), run by Debian's /usr/bin/python3.
+describe.runIf(referencePythonAvailability().available)('folder.listJson lists a chosen folder\'s .json files, and only inside chosen folders', () => {
+  const pythonListing = (folder: string): string[] =>
+    runReferencePython<string[]>('import json, sys, os\nd = json.load(sys.stdin)\nprint(json.dumps(sorted(n for n in os.listdir(d) if os.path.isfile(os.path.join(d, n)) and n.lower().endswith(".json"))))', folder);
+
+  it('lists regular .json files (any case) and nothing else: no other files, no folders named *.json', async () => {
+    const folder = join(picked, 'korrin-sweeps');
+    mkdirSync(folder);
+    for (const name of ['tank-tether.json', 'Fin-Sweep.JSON', 'notes.txt', 'tank-tether.json.bak', '.hidden.json']) writeFileSync(join(folder, name), '{}');
+    mkdirSync(join(folder, 'old.json'));
+    const reply = await handlers.handle('folder.listJson', { path: folder });
+    if (!reply.ok) throw new Error(reply.error.message);
+    const names = (reply.result as { files: { name: string; path: string }[] }).files.map((f) => f.name);
+    expect(names).toEqual(pythonListing(folder));
+    expect(names).toEqual(['.hidden.json', 'Fin-Sweep.JSON', 'tank-tether.json']);
+    expect(reply.result).toMatchObject({ path: folder, files: names.map((name) => ({ name, path: join(folder, name) })) });
+  });
+
+  it('lists the bundled examples, which are readable without a pick', async () => {
+    const reply = await handlers.handle('folder.listJson', { path: bundled });
+    expect(reply).toEqual({ ok: true, result: { path: bundled, files: pythonListing(bundled).map((name) => ({ name, path: join(bundled, name) })) } });
+  });
+
+  it('refuses folders nobody picked, a symlink leading out of a picked one, "..", and a file', async () => {
+    for (const path of [outside, join(picked, 'link-to-outside'), `${picked}/../outside`, root]) {
+      const error = refusal(await handlers.handle('folder.listJson', { path }));
+      expect(error.code, path).toBe('path-refused');
+    }
+    expect(refusal(await handlers.handle('folder.listJson', { path: outside })).message).toMatch(/outside the folders chosen in this session/);
+    writeFileSync(join(picked, 'plain.json'), '{}');
+    const file = refusal(await handlers.handle('folder.listJson', { path: join(picked, 'plain.json') }));
+    expect(file).toMatchObject({ code: 'path-refused', message: expect.stringMatching(/is a file, not a folder/) });
   });
 });

@@ -112,6 +112,16 @@ print(json.dumps([{"name": n, "dtype": str(z[n].dtype), "shape": list(z[n].shape
     const again = await result('reproduce.begin', { seedPath: join(dataset, 'seed.json'), outDir: join(root, 'korrin-bay', 'tank-tether-again') });
     const regenerated = await jobOver(again.jobId);
     expect(regenerated.at(-1)).toMatchObject({ kind: 'reproduce', state: 'done', message: expect.stringMatching(/byte-identical/) });
+    // Over HTTP too, the comparison lists every file the manifest lists (Python json) and manifest.json, all identical.
+    const listed = runReferencePython<string[]>(
+      'import json, sys, os\nm = json.load(open(os.path.join(json.load(sys.stdin), "manifest.json")))\nprint(json.dumps([f["path"] for f in m["documents"] + m["files"]]))',
+      dataset,
+    );
+    const compared = await result('dataset.compare', { originalPath: dataset, regeneratedPath: join(root, 'korrin-bay', 'tank-tether-again') });
+    expect(compared.comparisons).toEqual([...listed, 'manifest.json'].map((file) => ({ file, result: 'identical' })));
+    // The page lists the picked folder's .json files; it holds only dataset folders.
+    expect(await result('folder.listJson', { path: join(root, 'korrin-bay') })).toEqual({ path: join(root, 'korrin-bay'), files: [] });
+    expect((await post('folder.listJson', { path: join(root, 'renderer') })).status).toBe(403);
   });
 
   it('answers refusals with the status that fits their code', async () => {

@@ -1,9 +1,10 @@
 // The Datasets screen: open an exported dataset folder, read its card and summary, page through
 // its episodes, play any episode back in the 3-D view from its own files, verify its checksums,
 // and open its seed file to preview or regenerate episodes.
-import type { DatasetSummary, EpisodeRow } from '../../electron/bridge-contract.ts';
+import type { ControlChannelDescription, DatasetSummary, EpisodeRow } from '../../electron/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { TrajectoryPlots } from '../plots/trajectory-plots.ts';
+import { byteSize } from '../ui/byte-size.ts';
 import { button, h } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
@@ -121,7 +122,7 @@ export class DatasetsScreen implements Screen {
       this.frameTimes = episode.frames.timeS;
       if (this.scene && this.scene.materialNames.length >= episode.topology.materialNames.length) episode.topology.materialNames = this.scene.materialNames;
       this.player.load(episode.topology, episode.frames, episode.frameIntervalS, episodeWorld(this.scene, row.labels));
-      this.plots.load(episode.frames, Array.from({ length: episode.channelCount }, (_, c) => ({ name: `channel ${c}`, unit: 'per channel' })));
+      this.plots.load(episode.frames, plottedChannels(episode.channelCount, arrays.controlChannels, this.summary.controlChannels));
       this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${Number(episode.frameIntervalS.toPrecision(6))} s.`;
       this.playing.setAttribute('data-episode', row.episodeId);
       this.status.show('ok', 'Space plays and pauses, ← → step.');
@@ -141,8 +142,19 @@ export class DatasetsScreen implements Screen {
       ['written', `${s.createdAtIso} by Pliant ${s.toolVersion}`],
       ['seed file', s.seedFilePath ?? 'missing: this dataset cannot be regenerated'],
       ['arrays', s.arrays.map((a) => `${a.name} [${a.shape.join('×')}] ${a.unit}`).join('; ')],
+      ['controls', s.controlChannels.length === 0 ? 'none: nothing drives this system' : `${s.controlChannels.map((c) => `${c.name}, ${c.unit}`).join('; ')}${s.controlChannelsVary ? ' (in the first episode; others differ)' : ''}`],
+      ['size', byteSize(s.sizeBytes)],
     ];
     const card = h('details', { className: 'dataset-card' }, h('summary', { text: 'Dataset card' }), h('pre', { className: 'card-text', text: s.cardMarkdown }));
     this.summaryHost.replaceChildren(h('dl', { className: 'facts' }, ...facts.flatMap(([k, v]) => [h('dt', { text: k }), h('dd', { text: v })])), card);
   }
+}
+
+/**
+ * The `controls` columns named as the manifest records them: the episode's own channels, else the
+ * dataset's when they cover every column. A column neither names is shown by index, and says so.
+ */
+function plottedChannels(columns: number, episode: readonly ControlChannelDescription[], dataset: readonly ControlChannelDescription[]): { name: string; unit: string }[] {
+  const named = episode.length === columns ? episode : dataset.length === columns ? dataset : [];
+  return Array.from({ length: columns }, (_, c) => (named[c] ? { name: named[c].name, unit: named[c].unit } : { name: `column ${c}`, unit: 'unit not recorded' }));
 }

@@ -6,6 +6,7 @@ import type { AppInfo, ExportFormat, JobProgress } from '../../electron/bridge-c
 import { BRIDGE_LIMITS } from '../../electron/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { SweepDocument } from '../app/sweep-document.ts';
+import { byteSize } from '../ui/byte-size.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
 import { safetyCaution } from '../ui/safety-caution.ts';
 import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
@@ -176,11 +177,13 @@ export class ExportScreen implements Screen {
     this.status.show('busy', 'Export finished; verifying every checksum…');
     try {
       const report = await this.bridge.invoke('dataset.verify', { path: outDir });
+      const sizeBytes = (await this.bridge.invoke('dataset.summary', { path: outDir })).sizeBytes;
       const verdict = report.ok
         ? h('p', { className: 'verify-ok', attrs: { 'data-role': 'verify-result', 'data-ok': 'true' }, text: `Verified: all ${report.checkedFiles} files match their recorded SHA-256 checksums.` })
         : h('div', { className: 'verify-bad', attrs: { 'data-role': 'verify-result', 'data-ok': 'false' } }, h('p', { text: `Verification found ${report.problems.length} problem${report.problems.length === 1 ? '' : 's'} in ${report.checkedFiles} files:` }), h('ul', {}, ...report.problems.map((pr) => h('li', { text: `${pr.file}: ${pr.message}` }))));
       this.result.replaceChildren(
         h('p', { attrs: { 'data-role': 'export-out-dir' }, text: `Dataset written to ${outDir}.` }),
+        h('p', { attrs: { 'data-role': 'export-size', 'data-bytes': String(sizeBytes) }, text: `Size: ${byteSize(sizeBytes)}, counting every data file, the seed file, the card and manifest.json.` }),
         ...(found ? [h('p', { attrs: { 'data-role': 'export-found' }, text: found })] : []),
         verdict,
         button('Open in Datasets', () => this.openDataset(outDir), { attrs: { 'data-role': 'export-open-dataset' } }),

@@ -1,6 +1,7 @@
 // The Seed file screen: open a dataset's seed.json (the recipe that regenerates it bit for bit),
-// preview any of its episodes, and regenerate it into a new folder, comparing file by file.
-import type { JobProgress, SeedSummary } from '../../electron/bridge-contract.ts';
+// preview any of its episodes, and regenerate it into a new folder, comparing it file by file with
+// the original folder.
+import type { DatasetComparison, FileComparisonResult, JobProgress, SeedSummary } from '../../electron/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { JobProgressView } from '../export/job-progress-view.ts';
 import { button, h, labelled } from '../ui/element.ts';
@@ -132,26 +133,47 @@ export class SeedScreen implements Screen {
     else this.status.show(p.state === 'failed' ? 'error' : 'info', `Regeneration ${p.state}: ${p.message ?? 'no reason given'}`);
   }
 
-  /** The job's verdict, and each expected file checked in the regenerated folder. */
+  /** Every file of the regenerated folder compared with the original folder beside the seed file. */
   private async compare(p: JobProgress): Promise<void> {
-    if (!this.outDir) return;
+    if (!this.outDir || !this.seed) return;
     try {
-      const report = await this.bridge.invoke('dataset.verify', { path: this.outDir });
-      const problems = new Map(report.problems.map((pr) => [pr.file, pr.message]));
-      this.renderFiles(problems);
-      this.status.show(report.ok ? 'ok' : 'error', `${p.message ?? 'Regenerated.'} The regenerated folder ${report.ok ? 'passes' : 'fails'} its checksum check (${report.checkedFiles} files).`);
+      const { comparisons } = await this.bridge.invoke('dataset.compare', { originalPath: parentFolder(this.seed.path), regeneratedPath: this.outDir });
+      this.renderFiles(comparisons);
+      const same = comparisons.filter((c) => c.result === 'identical').length;
+      const allSame = same === comparisons.length;
+      this.status.show(allSame ? 'ok' : 'error', `${p.message ?? 'Regenerated.'} Compared with the original folder: ${same} of ${comparisons.length} files identical${allSame ? '' : '; the table shows which differ'}.`);
     } catch (error) {
-      this.status.error('Regenerated, but the result could not be checked', error);
+      this.status.error('Regenerated, but the result could not be compared with the original', error);
     }
   }
 
-  private renderFiles(problems: Map<string, string> | null): void {
+  private renderFiles(comparisons: DatasetComparison['comparisons'] | null): void {
     if (!this.seed) return;
-    const rows = this.seed.expectedFiles.map((f) => {
-      const problem = problems?.get(f.file);
-      const result = problems === null ? 'not regenerated yet' : problem ?? 'regenerated, checksum as recorded';
-      return h('tr', { attrs: { 'data-file': f.file, 'data-result': problems === null ? 'pending' : problem ? 'problem' : 'ok' } }, h('td', { text: f.file }), h('td', { className: 'hash', text: f.sha256.slice(0, 16) + '…' }), h('td', { text: result }));
+    const recorded = new Map(this.seed.expectedFiles.map((f) => [f.file, f.sha256]));
+    const listed = comparisons ?? this.seed.expectedFiles.map((f) => ({ file: f.file, result: null }));
+    const rows = listed.map(({ file, result }) => {
+      const sha256 = recorded.get(file);
+      return h(
+        'tr',
+        { attrs: { 'data-file': file, 'data-result': result ?? 'pending' } },
+        h('td', { text: file }),
+        h('td', { className: 'hash', text: sha256 ? `${sha256.slice(0, 16)}…` : '—' }),
+        h('td', { text: result === null ? 'not regenerated yet' : RESULT_WORDS[result] }),
+      );
     });
-    this.files.replaceChildren(h('table', { className: 'file-table' }, h('thead', {}, h('tr', {}, h('th', { text: 'file' }), h('th', { text: 'SHA-256 (recorded)' }), h('th', { text: 'result' }))), h('tbody', {}, ...rows)));
+    this.files.replaceChildren(h('table', { className: 'file-table' }, h('thead', {}, h('tr', {}, h('th', { text: 'file' }), h('th', { text: 'SHA-256 (recorded)' }), h('th', { text: 'compared with the original' }))), h('tbody', {}, ...rows)));
   }
+}
+
+const RESULT_WORDS: Record<FileComparisonResult, string> = {
+  identical: 'identical, byte for byte',
+  different: 'different from the original',
+  missing: 'missing from the regenerated folder',
+  extra: 'only in the regenerated folder',
+};
+
+/** The folder a file path lies in, with either separator (the renderer has no path module). */
+function parentFolder(path: string): string {
+  const cut = Math.max(path.lastIndexOf('/'), path.lastIndexOf('\\'));
+  return cut <= 0 ? path.slice(0, cut + 1) : path.slice(0, cut);
 }

@@ -115,8 +115,8 @@ export class SweepScreen implements Screen {
   }
 
   /**
-   * Folders are chosen with the shell's chooser; the file name is typed, because the bridge lists
-   * folders but not files.
+   * Folders are chosen with the shell's chooser. Opening picks one of the folder's .json files from
+   * a list; saving types the new file's name.
    */
   private async chooseFile(mode: 'open' | 'save'): Promise<void> {
     let folder: string;
@@ -128,21 +128,48 @@ export class SweepScreen implements Screen {
       this.status.error('Could not choose a folder', error);
       return;
     }
-    const name = h('input', { attrs: { type: 'text', value: mode === 'save' ? this.sweep.current.fileName : '', placeholder: 'name.json', 'aria-label': 'File name', 'data-role': 'file-name' } });
-    const confirm = button(mode === 'open' ? 'Open' : 'Save', () => {
+    if (mode === 'open') {
+      await this.pickFileIn(folder);
+      return;
+    }
+    const name = h('input', { attrs: { type: 'text', value: this.sweep.current.fileName, placeholder: 'name.json', 'aria-label': 'File name', 'data-role': 'file-name' } });
+    const confirm = button('Save', () => {
       const fileName = name.value.trim();
       if (!/^[^/\\]+\.json$/i.test(fileName)) {
         this.status.show('error', `"${fileName}" is not a file name ending in .json. Type a name like tank-sweep.json.`);
         return;
       }
       this.fileRow.hidden = true;
-      const path = insideFolder(folder, fileName);
-      void (mode === 'open' ? this.openPath(path, false) : this.writeTo(path));
+      void this.writeTo(insideFolder(folder, fileName));
     }, { attrs: { 'data-role': 'file-confirm' } });
     const cancel = button('Cancel', () => (this.fileRow.hidden = true));
     this.fileRow.replaceChildren(h('span', { className: 'file-row-folder', text: `In ${folder}` }), name, confirm, cancel);
     this.fileRow.hidden = false;
     name.focus();
+  }
+
+  private async pickFileIn(folder: string): Promise<void> {
+    let files: { name: string; path: string }[];
+    try {
+      files = (await this.bridge.invoke('folder.listJson', { path: folder })).files;
+    } catch (error) {
+      this.status.error(`Could not list the files in ${folder}`, error);
+      return;
+    }
+    const cancel = button('Cancel', () => (this.fileRow.hidden = true));
+    if (files.length === 0) {
+      this.fileRow.replaceChildren(h('span', { className: 'file-row-folder', text: `${folder} holds no .json files. Choose the folder your scenario is in.` }), cancel);
+      this.fileRow.hidden = false;
+      return;
+    }
+    const list = select(files.map((f) => [f.path, f.name] as const), files[0].path, { 'aria-label': 'Scenario file', 'data-role': 'file-list' });
+    const confirm = button('Open', () => {
+      this.fileRow.hidden = true;
+      void this.openPath(list.value, false);
+    }, { attrs: { 'data-role': 'file-confirm' } });
+    this.fileRow.replaceChildren(h('span', { className: 'file-row-folder', text: `In ${folder}` }), list, confirm, cancel);
+    this.fileRow.hidden = false;
+    list.focus();
   }
 
   private async save(): Promise<void> {

@@ -68,6 +68,11 @@ export class DatasetReader {
     return (await this.load(dir)).listing.page(query);
   }
 
+  /** The folder's checked manifest, parsed once while the file is unchanged. */
+  async manifest(dir: string): Promise<DatasetManifest> {
+    return (await this.load(dir)).manifest;
+  }
+
   async episodeArrays(dir: string, episodeId: string): Promise<EpisodeArraysRead> {
     return readEpisodeArrays(dir, (await this.load(dir)).manifest, episodeId);
   }

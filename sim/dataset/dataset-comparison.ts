@@ -1,0 +1,78 @@
+// Compares a regenerated dataset folder with the original, file by file: every file the original's
+// manifest lists is hashed in both folders (SHA-256, FIPS 180-4) and called identical, different
+// or missing; files the regenerated folder has beyond those are extra. manifest.json is compared
+// as JSON without its `run` member, the one part that differs between runs by design.
+import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { readdir, stat } from 'node:fs/promises';
+import { join } from 'node:path';
+import { MANIFEST_FILE, WORK_FOLDER } from './dataset-files.ts';
+import { readFolderState } from './dataset-folder-state.ts';
+import { DatasetRequestError } from './dataset-request-error.ts';
+
+export type FileComparisonResult = 'identical' | 'different' | 'missing' | 'extra';
+
+export interface FileComparison {
+  /** Relative to the dataset folder, '/' separators. */
+  file: string;
+  result: FileComparisonResult;
+}
+
+export async function compareDatasetFolders(originalDir: string, regeneratedDir: string): Promise<FileComparison[]> {
+  const original = await readFolderState(originalDir);
+  if (!original.manifest) {
+    throw new DatasetRequestError(`${originalDir} has no usable ${MANIFEST_FILE} (${original.manifestProblems[0] ?? 'missing'}), so there is nothing to compare against; open the folder the seed file came from`);
+  }
+  const regenerated = await readFolderState(regeneratedDir);
+  const listed = [...original.manifest.documents, ...original.manifest.files];
+  const comparisons: FileComparison[] = [];
+  for (const record of listed) {
+    const there = join(regeneratedDir, record.path);
+    if (!(await isFile(there))) {
+      comparisons.push({ file: record.path, result: 'missing' });
+      continue;
+    }
+    const here = join(originalDir, record.path);
+    // A file lost from the original still has its recorded digest to compare with.
+    const originalDigest = (await isFile(here)) ? await fileSha256Hex(here) : record.sha256;
+    comparisons.push({ file: record.path, result: (await fileSha256Hex(there)) === originalDigest ? 'identical' : 'different' });
+  }
+  comparisons.push({
+    file: MANIFEST_FILE,
+    result: regenerated.manifestText === null ? 'missing' : regenerated.manifest && withoutRun(regenerated.manifest) === withoutRun(original.manifest) ? 'identical' : 'different',
+  });
+  const known = new Set([MANIFEST_FILE, ...listed.map((f) => f.path)]);
+  for (const file of await filesBelow(regeneratedDir, '')) if (!known.has(file)) comparisons.push({ file, result: 'extra' });
+  return comparisons;
+}
+
+function withoutRun(manifest: object): string {
+  const { run: _run, ...rest } = manifest as { run?: unknown };
+  return JSON.stringify(rest);
+}
+
+async function isFile(path: string): Promise<boolean> {
+  return stat(path).then((s) => s.isFile(), () => false);
+}
+
+/** Streamed, so a large HDF5 file neither sits in memory nor holds the event loop for long. */
+function fileSha256Hex(path: string): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const hash = createHash('sha256');
+    createReadStream(path)
+      .on('data', (chunk) => hash.update(chunk))
+      .on('error', (error) => reject(new DatasetRequestError(`cannot read ${path} (${(error as { code?: string }).code ?? error.message}); check that it is readable`)))
+      .on('end', () => resolve(hash.digest('hex')));
+  });
+}
+
+async function filesBelow(dir: string, prefix: string): Promise<string[]> {
+  const found: string[] = [];
+  for (const entry of await readdir(join(dir, prefix), { withFileTypes: true })) {
+    const relative = prefix === '' ? entry.name : `${prefix}/${entry.name}`;
+    if (relative === WORK_FOLDER) continue;
+    if (entry.isDirectory()) found.push(...(await filesBelow(dir, relative)));
+    else if (entry.isFile()) found.push(relative);
+  }
+  return found.sort();
+}
