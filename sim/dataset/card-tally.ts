@@ -2,7 +2,8 @@
 // A sweep's records (each with every sampled label, control-signal frequencies and phases
 // included) can take far more memory than the run itself, so the card keeps only what it
 // prints: counts, ranges, the first rows of a few tables, the scalar label values its
-// histograms need, and one SHA-256 digest per distinct list-valued label.
+// histograms need (nothing for a label while it keeps one value, 8 bytes per episode while it
+// is a number), and one SHA-256 digest per distinct list-valued label.
 import { createHash } from 'node:crypto';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
 import type { EpisodeRecord, EpisodeRejection, EpisodeSimulation } from './dataset-manifest.ts';
@@ -12,12 +13,78 @@ export const REJECTED_LISTED = 50;
 
 export type ScalarLabel = number | string | boolean | null;
 
+/** The scalar values of one label, in episode order, stored compactly. */
+export class ScalarColumn {
+  private count = 0;
+  private first: ScalarLabel = null;
+  private firstText = '';
+  /** True while every value has had the first value's JSON text: then nothing else is stored. */
+  private uniform = true;
+  private numbers: Float64Array | null = null;
+  private numberCount = 0;
+  private mixed: ScalarLabel[] | null = null;
+
+  push(value: ScalarLabel): void {
+    if (this.count === 0) {
+      this.first = value;
+      this.firstText = JSON.stringify(value);
+      this.count = 1;
+      return;
+    }
+    if (this.uniform) {
+      if (JSON.stringify(value) === this.firstText) {
+        this.count++;
+        return;
+      }
+      this.uniform = false;
+      if (typeof this.first === 'number') {
+        this.numbers = new Float64Array(Math.max(64, 2 * this.count)).fill(this.first, 0, this.count);
+        this.numberCount = this.count;
+      } else {
+        this.mixed = new Array<ScalarLabel>(this.count).fill(this.first);
+      }
+    }
+    this.append(value);
+  }
+
+  private append(value: ScalarLabel): void {
+    if (this.numbers !== null) {
+      if (typeof value === 'number') {
+        if (this.numberCount === this.numbers.length) {
+          const grown = new Float64Array(2 * this.numbers.length);
+          grown.set(this.numbers);
+          this.numbers = grown;
+        }
+        this.numbers[this.numberCount++] = value;
+        this.count++;
+        return;
+      }
+      this.mixed = Array.from(this.numbers.subarray(0, this.numberCount));
+      this.numbers = null;
+    }
+    this.mixed!.push(value);
+    this.count++;
+  }
+
+  /** Every value, in episode order. */
+  values(): ScalarLabel[] {
+    if (this.uniform) return new Array<ScalarLabel>(this.count).fill(this.first);
+    if (this.numbers !== null) return Array.from(this.numbers.subarray(0, this.numberCount));
+    return [...this.mixed!];
+  }
+
+  /** How many different JSON texts the values have. */
+  distinctCount(): number {
+    if (this.uniform) return this.count === 0 ? 0 : 1;
+    return new Set(this.values().map((v) => JSON.stringify(v))).size;
+  }
+}
+
 /** Everything the card needs about one label pointer, over the episodes that have it. */
 export interface LabelTally {
   /** The value of the first episode (in index order) that has the label. */
   readonly first: LabelValue;
-  /** The scalar values, in episode order. */
-  readonly scalars: ScalarLabel[];
+  readonly scalars: ScalarColumn;
   /**
    * Digests of the JSON text of each distinct list or object value. The card only counts
    * these, and a digest stands in for the text: two different texts with one SHA-256 digest
@@ -88,7 +155,7 @@ export class CardTally {
     for (const [pointer, value] of Object.entries(record.labels)) {
       let tally = this.labels.get(pointer);
       if (tally === undefined) {
-        tally = { first: value, scalars: [], compoundDigests: new Set() };
+        tally = { first: value, scalars: new ScalarColumn(), compoundDigests: new Set() };
         this.labels.set(pointer, tally);
       }
       if (isScalar(value)) tally.scalars.push(value);

@@ -89,7 +89,7 @@ function parameterSections(source: CardSource): string[] {
   for (const [pointer, label] of source.tally.labels) {
     const unit = unitOfLabel(pointer, source.tally.channelUnits);
     // Distinct as JSON text, like the manifest stores them; lists and objects count by digest.
-    const distinctCount = new Set(label.scalars.map((v) => JSON.stringify(v))).size + label.compoundDigests.size;
+    const distinctCount = label.scalars.distinctCount() + label.compoundDigests.size;
     if (distinctCount === 1) {
       fixed.push(`| \`${pointer}\` | ${JSON.stringify(label.first)} | ${unit || '—'} |`);
       continue;
@@ -98,7 +98,7 @@ function parameterSections(source: CardSource): string[] {
       lists.push(`- \`${pointer}\`${unit ? ` (${unit})` : ''}: a list per episode, ${distinctCount} distinct`);
       continue;
     }
-    const values: ScalarLabel[] = label.scalars;
+    const values: ScalarLabel[] = label.scalars.values();
     const spec = specOfLabel(source, pointer);
     const origin = spec === undefined || (typeof spec === 'object' && spec !== null && !('kind' in spec))
       ? 'Derived by the sampler from other draws.'
