@@ -4,5 +4,17 @@ import { chain1024Case } from './chain-1024.ts';
 import { chain1024NativeCase } from './chain-1024-native.ts';
 import { chain1024JsVsNativeCase } from './chain-1024-js-vs-native.ts';
 import { lattice8x8x8Case } from './lattice-8x8x8.ts';
+import { pipelineEpisodeCases } from './pipeline-episodes.ts';
+import { exportHdf5Case, exportNpzCase } from './pipeline-export.ts';
+import { sweepMemoryCase } from './sweep-memory.ts';
 
-export const BENCHMARK_CASES: BenchmarkCase[] = [chain1024Case, chain1024NativeCase, chain1024JsVsNativeCase, lattice8x8x8Case];
+export const BENCHMARK_CASES: BenchmarkCase[] = [
+  chain1024Case,
+  chain1024NativeCase,
+  chain1024JsVsNativeCase,
+  lattice8x8x8Case,
+  ...pipelineEpisodeCases,
+  exportNpzCase,
+  exportHdf5Case,
+  sweepMemoryCase,
+];
