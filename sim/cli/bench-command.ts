@@ -11,7 +11,7 @@ export const benchCommand: CliCommand = {
     'Usage: pliant bench [--case NAME]...',
     '',
     'Runs the benchmark cases and prints one JSON object per line.',
-    `Cases: ${BENCHMARK_CASES.map((c) => c.name).join(', ')}`,
+    `Cases: ${[...new Set(BENCHMARK_CASES.map((c) => c.name))].join(', ')}`,
   ].join('\n'),
   async run(args, io) {
     const chosen: string[] = [];
