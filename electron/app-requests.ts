@@ -1,5 +1,5 @@
 // Handler for app.info: what the renderer needs to know about the shell it runs in.
-import { SAFETY_NOTICE } from './bridge-contract.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import type { HandlerTable } from './handler-table.ts';
 import type { RequestServices } from './request-services.ts';
 
@@ -11,7 +11,7 @@ export function appRequests(services: RequestServices): Pick<HandlerTable, 'app.
       mode: services.app.mode,
       folderChoice: services.folderChooser.mode,
       platform: services.app.platform,
-      safetyNotice: SAFETY_NOTICE,
+      safetyNotice: SAFETY_CAUTION,
     }),
   };
 }

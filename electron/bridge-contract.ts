@@ -395,10 +395,6 @@ export interface PreloadBridgeApi {
   onEvent(listener: (event: BridgeEvent) => void): () => void;
 }
 
-export const SAFETY_NOTICE =
-  'Simulated data does not replace hardware testing. Bring any controller trained on it up on ' +
-  'the real hardware with conservative limits, under your lab\'s own safety rules.';
-
 // ---------------------------------------------------------------------------------------------
 // Argument schemas (JSON Schema draft 2020-12). Every object is closed (additionalProperties
 // false) and every string is bounded, so validation itself stays cheap for hostile input.

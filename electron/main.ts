@@ -8,7 +8,8 @@ import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session } from 'el
 import { appMenuTemplate } from './app-menu.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
 import { APP_ENTRY_URL, APP_SCHEME, APP_SCHEME_REGISTRATION, isAppUrl } from './app-scheme.ts';
-import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL, SAFETY_NOTICE } from './bridge-contract.ts';
+import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL } from './bridge-contract.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createNativeFolderChooser } from './folder-dialog.ts';
 import { createIpcRequestListener, forwardEvents } from './ipc-shell.ts';
@@ -77,7 +78,7 @@ async function start(): Promise<void> {
     });
   };
   const safetyNote = (): void => {
-    void dialog.showMessageBox({ type: 'warning', title: 'Before you use simulated data', message: SAFETY_NOTICE });
+    void dialog.showMessageBox({ type: 'warning', title: 'Before you use simulated data', message: SAFETY_CAUTION });
   };
   Menu.setApplicationMenu(
     Menu.buildFromTemplate(

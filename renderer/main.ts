@@ -2,7 +2,7 @@
 // shared sweep, and shows the Sweep screen. Failing to connect is shown in the page with what to
 // do, never as a blank window.
 import './pliant.css';
-import { SAFETY_NOTICE } from '../electron/bridge-contract.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import type { AppInfo } from '../electron/bridge-contract.ts';
 import { connectBridge } from './bridge/connect-bridge.ts';
 import type { PliantBridge } from './bridge/pliant-bridge.ts';
@@ -43,7 +43,7 @@ async function start(host: HTMLElement): Promise<void> {
     shell.show('seed');
     void seed.open(seedPath);
   });
-  const exportScreen = new ExportScreen(bridge, sweep, { ...info, safetyNotice: info.safetyNotice || SAFETY_NOTICE }, (path) => {
+  const exportScreen = new ExportScreen(bridge, sweep, { ...info, safetyNotice: info.safetyNotice || SAFETY_CAUTION }, (path) => {
     shell.show('datasets');
     void datasets.open(path);
   });

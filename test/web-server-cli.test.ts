@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 
 let renderer: string;
 let datasets: string;
@@ -46,7 +47,7 @@ describe('web-mode command line', () => {
       cli.child.stdout.on('data', () => {
         const match = /http:\/\/127\.0\.0\.1:\d+\/#session=[0-9a-f]{64}/.exec(cli.out());
         // Wait for the whole banner: a pipe may deliver one write in several chunks.
-        if (match && cli.out().includes('safety rules.')) {
+        if (match && cli.out().includes(SAFETY_CAUTION)) {
           clearTimeout(timer);
           resolve(match[0]);
         }

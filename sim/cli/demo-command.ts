@@ -14,7 +14,7 @@ import { withCliFailures } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
 import { PLIANT_VERSION } from './version.ts';
 import { generateDataset } from '../dataset/generate-dataset.ts';
-import { SAFETY_CAUTION } from '../dataset/safety-caution.ts';
+import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 
 const DEMO_SCENARIOS = fileURLToPath(new URL('../../scenarios/', import.meta.url));
 

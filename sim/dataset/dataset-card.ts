@@ -11,7 +11,7 @@ import { EPISODE_ARRAYS } from './episode-array-catalogue.ts';
 import { categoricalHistogram, formatLabelNumber, numericHistogram } from './text-histogram.ts';
 import { valueAtPointer } from './json-pointer-lookup.ts';
 import { unitOfLabel } from './label-units.ts';
-import { SAFETY_CAUTION } from './safety-caution.ts';
+import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
 
 export interface CardSource extends ManifestHead {

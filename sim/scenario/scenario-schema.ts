@@ -7,6 +7,7 @@ import type { JsonSchema } from '../random/value-spec-schema.ts';
 import { valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NUMBER_SEED, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
+import { SAFETY_CAUTION } from './safety-caution.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 
@@ -283,7 +284,7 @@ export const SCENARIO_SCHEMA: JsonSchema = {
   $schema: 'https://json-schema.org/draft/2020-12/schema',
   $id: SCENARIO_SCHEMA_ID,
   title: 'Pliant scenario',
-  description: 'A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "choice", ...} drawn once per episode. Simulated data does not replace hardware testing: bring controllers trained on it up on hardware with conservative limits, under the lab\'s own safety rules.',
+  description: `A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "choice", ...} drawn once per episode. ${SAFETY_CAUTION}`,
   type: 'object',
   properties: {
     $schema: { type: 'string', description: 'Optional: where an editor finds this schema.' },

@@ -1,5 +1,6 @@
-// The caution every dataset card (and the command line's help) carries: simulated data is no
-// substitute for testing on the real hardware.
+// The one wording of the caution that every dataset card, the command line, the scenario schema,
+// the app's Export screen and the web-mode start-up message carry: simulated data is no
+// substitute for testing on the real hardware. Environment-free, so the page can import it.
 
 export const SAFETY_CAUTION =
   'Simulated data does not replace hardware testing. These trajectories come from a lumped ' +
