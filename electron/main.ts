@@ -9,7 +9,7 @@ import { appMenuTemplate } from './app-menu.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
 import { APP_ENTRY_URL, APP_SCHEME, APP_SCHEME_REGISTRATION, isAppUrl } from './app-scheme.ts';
 import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL } from './bridge-contract.ts';
-import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
+import { SAFETY_NOTICE } from './safety-notice.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createNativeFolderChooser } from './folder-dialog.ts';
 import { createIpcRequestListener, forwardEvents } from './ipc-shell.ts';
@@ -78,7 +78,7 @@ async function start(): Promise<void> {
     });
   };
   const safetyNote = (): void => {
-    void dialog.showMessageBox({ type: 'warning', title: 'Before you use simulated data', message: SAFETY_CAUTION });
+    void dialog.showMessageBox({ type: 'warning', title: 'Before you use simulated data', message: SAFETY_NOTICE });
   };
   Menu.setApplicationMenu(
     Menu.buildFromTemplate(

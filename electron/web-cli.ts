@@ -7,7 +7,7 @@ import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
+import { SAFETY_NOTICE } from './safety-notice.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createRequestHandlers } from './request-handlers.ts';
 import { startWebServer } from './web-server.ts';
@@ -86,7 +86,7 @@ async function main(): Promise<number> {
   }
   process.stdout.write(
     `Pliant web mode is running. Open this address in a browser on this machine:\n\n  ${server.url}\n\n` +
-      `The address carries this session's key; anyone with it can use Pliant as you. Stop with Ctrl+C.\n${SAFETY_CAUTION}\n`,
+      `The address carries this session's key; anyone with it can use Pliant as you. Stop with Ctrl+C.\n${SAFETY_NOTICE}\n`,
   );
 
   const browser = process.env.BROWSER;
