@@ -16,6 +16,8 @@ const ALLOWED: Record<string, string[]> = {
   'sim/episode': ['sim/core', 'sim/systems'],
   'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode'],
   'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/cli/version.ts'],
+  // Scoring, baselines and calibration sit after the files: they read datasets, never the CLI.
+  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/dataset', 'sim/cli/version.ts'],
 };
 const ENVIRONMENT_FREE = ['sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/episode', 'sim/scenario'];
 
