@@ -16,6 +16,8 @@ const ALLOWED: Record<string, string[]> = {
   'sim/episode': ['sim/core', 'sim/systems'],
   'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode'],
   'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/cli/version.ts'],
+  // Pictures of recorded episodes, drawn from the files.
+  'sim/render': ['sim/core', 'sim/systems', 'sim/dataset'],
   // Scoring, baselines and calibration sit after the files: they read datasets, never the CLI.
   'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/dataset', 'sim/cli/version.ts'],
 };
