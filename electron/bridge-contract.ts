@@ -32,7 +32,12 @@ export const BRIDGE_LIMITS = {
 // ---------------------------------------------------------------------------------------------
 // Shared value types.
 
-export type FolderPurpose = 'dataset' | 'export' | 'scenario';
+/**
+ * What a chosen folder is for: a dataset to open, a folder to export into, a scenario's folder,
+ * a model's predictions folder (read), or a report folder (a score or calibration report to open,
+ * or the folder a score job writes into).
+ */
+export type FolderPurpose = 'dataset' | 'export' | 'scenario' | 'predictions' | 'report';
 export type ExportFormat = 'npz' | 'hdf5' | 'both';
 /**
  * A split's name. Every scenario has 'train', 'validation' and 'test'; held-out rules add splits
@@ -41,7 +46,7 @@ export type ExportFormat = 'npz' | 'hdf5' | 'both';
 export type DatasetSplit = string;
 /** The splits every dataset has, in the order screens list them before any held-out split. */
 export const STANDARD_SPLITS = ['train', 'validation', 'test'] as const;
-export type JobKind = 'export' | 'reproduce';
+export type JobKind = 'export' | 'reproduce' | 'score';
 export type JobState = 'running' | 'done' | 'cancelled' | 'failed';
 /** Element types an episode array may have; bytes are little-endian. */
 export type ArrayDtype = 'float64' | 'float32' | 'int32' | 'uint32' | 'int16' | 'uint16' | 'int8' | 'uint8';
@@ -242,6 +247,110 @@ export interface SeedSummary {
   expectedFiles: { file: string; sha256: string }[];
 }
 
+/** Mean, median and 90th percentile over a group's episodes. */
+export interface ScoreStatistics {
+  mean: number;
+  median: number;
+  p90: number;
+}
+
+/** One split's (or all scored episodes') metrics, as score.json holds them. */
+export interface ScoreGroupSummary {
+  episodes: number;
+  /** Mean over episodes of the position RMSE at each horizon step h = 0, 1, …, m. */
+  meanRmseByStepM: number[];
+  /** The same, normalised by each episode's length scale. */
+  meanNormalisedErrorByStep: number[];
+  episodesByStep: number[];
+  recordIntervalS: number | null;
+  oneStepRmseM: ScoreStatistics | null;
+  oneStepNormalisedError: ScoreStatistics | null;
+  horizons: { horizon: string; rmseM: ScoreStatistics | null; normalisedError: ScoreStatistics | null }[];
+  meanNormalisedError: ScoreStatistics | null;
+  validPredictionTimeS: ScoreStatistics | null;
+  validPredictionTimeReachedFraction: number | null;
+  energyDriftJ: ScoreStatistics | null;
+  relativeEnergyDrift: ScoreStatistics | null;
+  episodesWithVelocities: number;
+}
+
+/** One scored episode. */
+export interface ScoreEpisodeRow {
+  id: string;
+  split: DatasetSplit;
+  recordedSteps: number;
+  nodes: number;
+  lengthScaleM: number;
+  oneStepRmseM: number;
+  /** In the order of `settings.horizons`. */
+  horizonRmseM: number[];
+  meanNormalisedError: number;
+  validPredictionTimeS: number;
+  validPredictionTimeReached: boolean;
+  energyDriftJ: number | null;
+  relativeEnergyDrift: number | null;
+}
+
+/** The parts of score.json (written by `pliant score` or a score job) the Scores screen shows. */
+export interface ScoreDocumentView {
+  scoreFormat: number;
+  pliantVersion: string;
+  caution: string;
+  dataset: { name: string; masterSeed: string; episodeCount: number; manifestSha256: string; seedSha256: string | null };
+  predictions: { model: string; description: string; episodeFiles: number };
+  settings: {
+    splits: string[];
+    horizons: { horizon: string; steps: number | null; seconds: number | null }[];
+    validPredictionTimeThreshold: number;
+  };
+  episodes: ScoreEpisodeRow[];
+  splits: Record<string, ScoreGroupSummary>;
+  overall: ScoreGroupSummary;
+  generalisationGap: {
+    against: string;
+    entries: { split: string; ruleText: string; metrics: { metric: string; heldOut: number; test: number; difference: number; ratio: number | null }[] }[];
+    note: string;
+  };
+  parameters: {
+    label: string;
+    unit: string;
+    min: number;
+    max: number;
+    edges: number[];
+    splits: Record<string, { count: number[]; meanNormalisedError: (number | null)[]; validPredictionTimeS: (number | null)[] }>;
+  }[];
+}
+
+export interface ScoreReport {
+  /** The report folder. */
+  path: string;
+  score: ScoreDocumentView;
+  /** REPORT.md beside score.json ("" when it is missing). */
+  reportMarkdown: string;
+}
+
+/** One fitted parameter of a calibration report. */
+export interface CalibrationParameterView {
+  pointer: string;
+  unit: string;
+  /** null when the data could not identify it (see `identifiable`). */
+  value: number | null;
+  standardError: number | null;
+  identifiable: boolean;
+  /** Why it was not identifiable, or "". */
+  note: string;
+}
+
+/** What `calibration.read` returns from a calibration report folder. */
+export interface CalibrationReport {
+  path: string;
+  parameters: CalibrationParameterView[];
+  /** Residual RMS over the measurement's time, m, for the residual plot. */
+  residualTimeS: number[];
+  residualRmsM: number[];
+  reportMarkdown: string;
+}
+
 export interface JobProgress {
   jobId: string;
   kind: JobKind;
@@ -284,6 +393,10 @@ export interface RequestMap {
   'dataset.compare': { args: { originalPath: string; regeneratedPath: string }; result: DatasetComparison };
   'seed.read': { args: { path: string }; result: SeedSummary };
   'reproduce.begin': { args: { seedPath: string; outDir: string }; result: JobStarted };
+  'score.begin': { args: { datasetPath: string; predictionsPath: string; outDir: string }; result: JobStarted };
+  'score.read': { args: { path: string }; result: ScoreReport };
+  'predictions.episodeArrays': { args: { path: string; episodeId: string }; result: EpisodeArrays };
+  'calibration.read': { args: { path: string }; result: CalibrationReport };
 }
 
 export type RequestName = keyof RequestMap;
@@ -309,6 +422,10 @@ export const REQUEST_NAMES = [
   'dataset.compare',
   'seed.read',
   'reproduce.begin',
+  'score.begin',
+  'score.read',
+  'predictions.episodeArrays',
+  'calibration.read',
 ] as const satisfies readonly RequestName[];
 
 export function isRequestName(value: unknown): value is RequestName {
@@ -427,7 +544,7 @@ const pathSchema = (description: string): JsonSchema => ({
   pattern: '^[^\\u0000]*$',
 });
 
-const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario'] };
+const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario', 'predictions', 'report'] };
 
 function closedObject(name: string, properties: Record<string, JsonSchema>, required: string[]): JsonSchema {
   return {
@@ -539,6 +656,25 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
     { seedPath: pathSchema('Seed file to regenerate from.'), outDir: pathSchema('Folder the regenerated dataset is written into.') },
     ['seedPath', 'outDir'],
   ),
+  'score.begin': closedObject(
+    'score.begin',
+    {
+      datasetPath: pathSchema('Dataset folder whose episodes the predictions are scored against.'),
+      predictionsPath: pathSchema('Predictions folder: one <episode id>.npz per predicted episode.'),
+      outDir: pathSchema('Folder the score report (score.json, REPORT.md, plots) is written into.'),
+    },
+    ['datasetPath', 'predictionsPath', 'outDir'],
+  ),
+  'score.read': closedObject('score.read', { path: pathSchema('Score report folder holding score.json.') }, ['path']),
+  'predictions.episodeArrays': closedObject(
+    'predictions.episodeArrays',
+    {
+      path: pathSchema('Predictions folder.'),
+      episodeId: { type: 'string', minLength: 1, maxLength: 128, pattern: '^[A-Za-z0-9_.-]+$' },
+    },
+    ['path', 'episodeId'],
+  ),
+  'calibration.read': closedObject('calibration.read', { path: pathSchema('Calibration report folder holding calibration.json.') }, ['path']),
 };
 
 function splitSchema(): JsonSchema {

@@ -34,6 +34,7 @@ export async function createDefaultServices(options: DefaultServicesOptions): Pr
     scenarioChecker: pipeline.scenarioChecker,
     datasetReader: pipeline.datasetReader,
     seedReader: pipeline.seedReader,
+    identificationReader: pipeline.identificationReader,
     jobRunner: createWorkerJobRunner({ workerUrls: pipeline.jobWorkerUrls }),
   };
   if (options.reportInternalError) services.reportInternalError = options.reportInternalError;

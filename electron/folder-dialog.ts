@@ -9,6 +9,8 @@ const WORDING: Readonly<Record<FolderPurpose, { title: string; buttonLabel: stri
   dataset: { title: 'Open a dataset', buttonLabel: 'Open dataset', message: 'Pick the folder of a dataset Pliant wrote.' },
   export: { title: 'Where should the dataset go?', buttonLabel: 'Write here', message: 'Pick or create the folder the new dataset is written into.' },
   scenario: { title: 'Scenario folder', buttonLabel: 'Use this folder', message: 'Pick the folder your scenario files live in.' },
+  predictions: { title: 'Open a predictions folder', buttonLabel: 'Open predictions', message: "Pick the folder of a model's predictions: one <episode id>.npz per episode." },
+  report: { title: 'Report folder', buttonLabel: 'Use this folder', message: 'Pick a score or calibration report folder, or the folder a new score report is written into.' },
 };
 
 export function folderDialogOptions(purpose: FolderPurpose): OpenDialogOptions {

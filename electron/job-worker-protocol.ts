@@ -22,7 +22,15 @@ export interface ReproduceJobSpec {
   outDir: string;
 }
 
-export type JobSpec = ExportJobSpec | ReproduceJobSpec;
+export interface ScoreJobSpec {
+  kind: 'score';
+  /** Real absolute paths, already checked. */
+  datasetDir: string;
+  predictionsDir: string;
+  outDir: string;
+}
+
+export type JobSpec = ExportJobSpec | ReproduceJobSpec | ScoreJobSpec;
 
 /** What the worker finds in `workerData`. */
 export interface JobWorkerData {

@@ -4,7 +4,8 @@
 // tests may replace single parts.
 import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/app-worker-urls.ts';
 import type { JobKind } from './bridge-contract.ts';
-import type { DatasetReader, ScenarioChecker, SeedReader } from './request-services.ts';
+import type { DatasetReader, IdentificationReader, ScenarioChecker, SeedReader } from './request-services.ts';
+import { SIM_IDENTIFICATION_READER } from './sim-identification-reader.ts';
 import { createSimDatasetReader } from './sim-dataset-reader.ts';
 import { SIM_SCENARIO_CHECKER } from './sim-scenario-checker.ts';
 import { SIM_SEED_READER } from './sim-seed-reader.ts';
@@ -13,6 +14,7 @@ export interface PipelineServices {
   scenarioChecker: ScenarioChecker;
   datasetReader: DatasetReader;
   seedReader: SeedReader;
+  identificationReader: IdentificationReader;
   /** Worker-thread entry per job kind; see job-worker-protocol.ts for what the worker receives and sends. */
   jobWorkerUrls: Partial<Record<JobKind, URL>>;
 }
@@ -22,6 +24,7 @@ export function simPipelineServices(): PipelineServices {
     scenarioChecker: SIM_SCENARIO_CHECKER,
     datasetReader: createSimDatasetReader({ verifyWorkerUrl: DATASET_VERIFY_WORKER_URL }),
     seedReader: SIM_SEED_READER,
+    identificationReader: SIM_IDENTIFICATION_READER,
     // One worker entry serves both kinds; it reads the kind from the job it is given.
     jobWorkerUrls: { export: DATASET_JOB_WORKER_URL, reproduce: DATASET_JOB_WORKER_URL },
   };

@@ -8,6 +8,7 @@ import { appRequests } from './app-requests.ts';
 import { datasetRequests } from './dataset-requests.ts';
 import { folderRequests } from './folder-requests.ts';
 import type { HandlerTable } from './handler-table.ts';
+import { identificationRequests } from './identification-requests.ts';
 import { jobRequests } from './job-requests.ts';
 import { createArgumentChecker } from './request-arguments.ts';
 import { RequestError, toRequestErrorInfo } from './request-error.ts';
@@ -29,6 +30,7 @@ export function createRequestHandlers(services: RequestServices): RequestHandler
     ...folderRequests(services),
     ...jobRequests(services),
     ...datasetRequests(services),
+    ...identificationRequests(services),
   };
 
   return {

@@ -2,6 +2,7 @@
 // Electron, behind the web-mode server and in tests. The dataset pipeline plugs into the
 // ScenarioChecker, DatasetReader, SeedReader and job-worker seams; the shells provide the rest.
 import type {
+  CalibrationReport,
   DatasetComparison,
   DatasetSummary,
   EpisodeArrays,
@@ -11,6 +12,7 @@ import type {
   JobProgress,
   JobStarted,
   ScenarioCheck,
+  ScoreReport,
   SeedSummary,
   VerifyReport,
 } from './bridge-contract.ts';
@@ -31,6 +33,16 @@ export interface DatasetReader {
   verify(datasetDir: string): Promise<VerifyReport>;
   /** Compares a regenerated folder with the original, file by file. */
   compare(originalDir: string, regeneratedDir: string): Promise<DatasetComparison>;
+}
+
+/** Reads the identification workbench's files. Every path is real, absolute and already allowed. */
+export interface IdentificationReader {
+  /** score.json (and REPORT.md) of a score report folder. */
+  score(reportDir: string): Promise<ScoreReport>;
+  /** One episode of a predictions folder: its `positions` (and `velocities` when given). */
+  predictionArrays(predictionsDir: string, episodeId: string): Promise<EpisodeArrays>;
+  /** calibration.json (and REPORT.md) of a calibration report folder. */
+  calibration(reportDir: string): Promise<CalibrationReport>;
 }
 
 /** Reads a seed file (the recipe that regenerates a dataset bit for bit). */
@@ -79,6 +91,7 @@ export interface RequestServices {
   scenarioChecker: ScenarioChecker;
   datasetReader: DatasetReader;
   seedReader: SeedReader;
+  identificationReader: IdentificationReader;
   jobRunner: JobRunner;
   /** Receives unexpected errors with their stacks, for the developer's log; the caller only gets the message. */
   reportInternalError?: (requestName: string, error: unknown) => void;

@@ -142,9 +142,9 @@ function asWorkerMessage(raw: unknown): FromJobWorker | null {
 
 /** What 'done' means for each kind of job (job-worker-protocol.ts), in words for the person. */
 function doneMessage(job: RunningJob): string {
-  return job.kind === 'export'
-    ? `Finished all ${job.total} episodes; the dataset folder is complete, with every file's SHA-256 in manifest.json.`
-    : `Regenerated all ${job.total} episodes; every file is byte-identical to the original (compared by SHA-256).`;
+  if (job.kind === 'export') return `Finished all ${job.total} episodes; the dataset folder is complete, with every file's SHA-256 in manifest.json.`;
+  if (job.kind === 'score') return `Scored all ${job.total} predicted episodes; the report folder holds score.json, REPORT.md and the plots.`;
+  return `Regenerated all ${job.total} episodes; every file is byte-identical to the original (compared by SHA-256).`;
 }
 
 function isCount(value: unknown): value is number {

@@ -11,6 +11,7 @@ import { SweepDocument } from './app/sweep-document.ts';
 import { DatasetsScreen } from './datasets/datasets-screen.ts';
 import { ExportScreen } from './export/export-screen.ts';
 import { PreviewScreen } from './preview/preview-screen.ts';
+import { ScoresScreen } from './scores/scores-screen.ts';
 import { SeedScreen } from './seed/seed-screen.ts';
 import { SweepScreen } from './sweep/sweep-screen.ts';
 import { pickFolderInPage } from './ui/folder-picker-dialog.ts';
@@ -47,9 +48,10 @@ async function start(host: HTMLElement): Promise<void> {
     shell.show('datasets');
     void datasets.open(path);
   });
+  const scores = new ScoresScreen(bridge, info.safetyNotice || SAFETY_CAUTION);
   // Going back to the Sweep screen means previewing its scenario again, not the seed file's.
   sweepScreen.root.addEventListener('focusin', () => preview.useSweep());
-  for (const screen of [sweepScreen, preview, exportScreen, datasets, seed]) shell.add(screen);
+  for (const screen of [sweepScreen, preview, exportScreen, datasets, seed, scores]) shell.add(screen);
   host.replaceChildren(shell.root);
   shell.show('sweep');
   document.documentElement.setAttribute('data-pliant-ready', 'true');

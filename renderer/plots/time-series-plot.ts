@@ -22,6 +22,8 @@ export class TimeSeriesPlot {
     /** Unit of every series, shown on the y axis ("m", "J", "N", "1"). */
     readonly unit: string,
     private series: PlotSeries[],
+    /** What x is; episode time by default, a prediction horizon or a parameter elsewhere. */
+    private readonly xLabel = 't, s',
   ) {
     this.chartHost = h('div', { className: 'plot-chart' });
     this.marker = h('div', { className: 'plot-marker', attrs: { 'aria-hidden': 'true' } });
@@ -89,10 +91,10 @@ export class TimeSeriesPlot {
       cursor: { drag: { x: false, y: false } },
       scales: { x: { time: false } },
       axes: [
-        { label: 't, s', size: 36, labelSize: 14 },
+        { label: this.xLabel, size: 36, labelSize: 14 },
         { label: unit, size: 56, labelSize: 14 },
       ],
-      series: [{ label: 't, s' }, ...this.series.map((s) => ({ label: `${s.label}, ${unit}`, stroke: s.colour, width: 1.5, points: { show: false } }))],
+      series: [{ label: this.xLabel }, ...this.series.map((s) => ({ label: `${s.label}, ${unit}`, stroke: s.colour, width: 1.5, points: { show: false } }))],
     };
   }
 }

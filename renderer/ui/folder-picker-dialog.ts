@@ -8,6 +8,8 @@ const PURPOSE_WORDS: Record<FolderPurpose, string> = {
   dataset: 'Choose a dataset folder to open',
   export: 'Choose the folder to export into',
   scenario: 'Choose the folder of the scenario file',
+  predictions: "Choose a model's predictions folder",
+  report: 'Choose a report folder',
 };
 
 export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) => Promise<FolderListing>): Promise<string | null> {

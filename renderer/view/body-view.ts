@@ -5,9 +5,10 @@
 import * as THREE from 'three';
 import type { BodyTopology, NodeSpringIncidence, SurfaceQuads } from './body-topology.ts';
 import { nodeSpringIncidence, surfaceQuads } from './body-topology.ts';
-import { writeDivergingColour, writeMaterialColour } from './colour-scale.ts';
+import { writeDivergingColour, writeMaterialColour, writeSequentialColour } from './colour-scale.ts';
 
-export type ColourMode = 'material' | 'actuator' | 'strain';
+/** 'error' colours a predicted body by each node's distance from the recorded one. */
+export type ColourMode = 'material' | 'actuator' | 'strain' | 'error';
 
 export interface BodyBounds {
   minM: [number, number, number];
@@ -15,6 +16,7 @@ export interface BodyBounds {
 }
 
 const SUPPORT_COLOUR = [0.15, 0.15, 0.18] as const;
+const GHOST_COLOUR = 0x6b7480;
 const LARGE_BODY_NODES = 1000;
 
 export class BodyView {
@@ -36,7 +38,11 @@ export class BodyView {
   private readonly nodeStrain: Float32Array;
   private readonly scratch = new Float32Array(3);
 
-  constructor(topology: BodyTopology) {
+  /**
+   * A ghost body is drawn as a thin, see-through grey outline under another body (the recorded
+   * motion under a model's prediction), so both can be told apart while they overlap.
+   */
+  constructor(topology: BodyTopology, options: { ghost?: boolean } = {}) {
     this.topology = topology;
     this.quads = surfaceQuads(topology);
     this.incidence = nodeSpringIncidence(topology);
@@ -95,6 +101,54 @@ export class BodyView {
     this.springStrain = new Float32Array(e);
     this.nodeStrain = new Float32Array(n);
     this.group.add(this.faces, this.springs, this.nodes);
+    if (options.ghost) this.makeGhost();
+  }
+
+  private makeGhost(): void {
+    (this.springs.material as THREE.LineBasicMaterial).setValues({ vertexColors: false, color: GHOST_COLOUR, transparent: true, opacity: 0.55, depthWrite: false });
+    this.nodes.material = new THREE.MeshBasicMaterial({ color: GHOST_COLOUR, transparent: true, opacity: 0.45, depthWrite: false });
+    for (let i = 0; i < this.topology.nodeCount; i++) {
+      const o = 16 * i;
+      this.nodeMatrix[o] *= 0.6;
+      this.nodeMatrix[o + 5] *= 0.6;
+      this.nodeMatrix[o + 10] *= 0.6;
+      this.nodeColour.fill(1, 3 * i, 3 * i + 3);
+    }
+    this.faces.visible = false;
+    this.nodes.renderOrder = -1;
+    this.springs.renderOrder = -1;
+  }
+
+  /**
+   * Colours nodes by a non-negative value per node (the prediction error, m) on the sequential
+   * scale up to limitM; a spring takes the mean of its ends, a skin face the mean of its corners.
+   */
+  showNodeMagnitudes(valueM: Float32Array, limitM: number): void {
+    const t = this.topology;
+    const nc = this.nodeColour;
+    for (let i = 0; i < t.nodeCount; i++) writeSequentialColour(valueM[i], limitM, nc, 3 * i);
+    this.nodes.instanceColor!.needsUpdate = true;
+    const ends = t.springNodes;
+    const sc = this.springColour;
+    const c = this.scratch;
+    for (let s = 0; s < t.springCount; s++) {
+      writeSequentialColour(0.5 * (valueM[ends[2 * s]] + valueM[ends[2 * s + 1]]), limitM, c, 0);
+      const o = 6 * s;
+      for (let v = 0; v < 2; v++) {
+        sc[o + 3 * v] = 0.8 * c[0];
+        sc[o + 3 * v + 1] = 0.8 * c[1];
+        sc[o + 3 * v + 2] = 0.8 * c[2];
+      }
+    }
+    (this.springs.geometry.getAttribute('color') as THREE.BufferAttribute).needsUpdate = true;
+    const quadNodes = this.quads.quadNodes;
+    const fc = this.faceColour;
+    for (let f = 0; f < this.quads.quadCount; f++) {
+      const mean = 0.25 * (valueM[quadNodes[4 * f]] + valueM[quadNodes[4 * f + 1]] + valueM[quadNodes[4 * f + 2]] + valueM[quadNodes[4 * f + 3]]);
+      writeSequentialColour(mean, limitM, fc, 18 * f);
+      for (let v = 1; v < 6; v++) fc.copyWithin(18 * f + 3 * v, 18 * f, 18 * f + 3);
+    }
+    if (this.quads.quadCount > 0) (this.faces.geometry.getAttribute('color') as THREE.BufferAttribute).needsUpdate = true;
   }
 
   setVisibility(parts: { nodes: boolean; springs: boolean; faces: boolean }): void {
@@ -157,6 +211,7 @@ export class BodyView {
    */
   showColours(mode: ColourMode, positionsM: Float32Array, offset: number, controls: Float64Array | null, controlOffset: number, strainLimit: number): void {
     const t = this.topology;
+    if (mode === 'error') return; // coloured by showNodeMagnitudes, which has the error
     if (mode === 'strain') this.measureStrain(positionsM, offset);
     const nc = this.nodeColour;
     for (let i = 0; i < t.nodeCount; i++) {

@@ -2,12 +2,24 @@
 // quantity's unit. Materials get swatches with their names; strain and actuator level get the
 // diverging bar with its end values.
 import type { ColourMode } from './body-view.ts';
-import { divergingGradientCss, materialCss } from './colour-scale.ts';
+import { divergingGradientCss, materialCss, sequentialGradientCss } from './colour-scale.ts';
 import { h } from '../ui/element.ts';
 
-export function renderColourLegend(host: HTMLElement, mode: ColourMode, materialNames: string[], strainLimit: number): void {
+/** `errorLimitM`: the error at the dark end of the scale in 'error' mode, m. */
+export function renderColourLegend(host: HTMLElement, mode: ColourMode, materialNames: string[], strainLimit: number, errorLimitM = 0): void {
   host.replaceChildren();
   host.setAttribute('data-mode', mode);
+  if (mode === 'error') {
+    const bar = h('div', { className: 'legend-bar' });
+    bar.style.background = sequentialGradientCss();
+    host.append(
+      h('div', { className: 'legend-title', text: 'Prediction error |p̂ − p| per node, m' }),
+      bar,
+      h('div', { className: 'legend-ends' }, h('span', { text: '0' }), h('span', { text: `${Number(errorLimitM.toPrecision(3))} m (largest in the episode)` })),
+      h('ul', { className: 'legend-swatches' }, swatchItem('rgb(107, 116, 128)', 'recorded motion (grey outline)')),
+    );
+    return;
+  }
   if (mode === 'material') {
     host.append(h('div', { className: 'legend-title', text: 'Material' }));
     const names = materialNames.length > 0 ? materialNames : [];

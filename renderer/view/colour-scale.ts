@@ -14,6 +14,20 @@ const DIVERGING_STOPS = new Float32Array([
 ]);
 const DIVERGING_SEGMENTS = DIVERGING_STOPS.length / 3 - 1;
 
+/**
+ * Sequential stops from 0 to the limit for magnitudes that are never negative (prediction
+ * error): pale where the model is right, dark plum where it is furthest off. Our own stops,
+ * monotone in lightness so the order reads without hue (common practice, no source).
+ */
+const SEQUENTIAL_STOPS = new Float32Array([
+  0.93, 0.93, 0.86, // pale: no error
+  0.96, 0.76, 0.42,
+  0.88, 0.47, 0.24,
+  0.67, 0.20, 0.27,
+  0.33, 0.06, 0.30, // plum: at the limit or beyond
+]);
+const SEQUENTIAL_SEGMENTS = SEQUENTIAL_STOPS.length / 3 - 1;
+
 /** Categorical colours for materials, in order of material index. */
 const MATERIAL_PALETTE = new Float32Array([
   0.20, 0.52, 0.60, // teal
@@ -46,6 +60,21 @@ export function writeDivergingColour(value: number, limit: number, out: Float32A
   out[offset + 2] = DIVERGING_STOPS[a + 2] + f * (DIVERGING_STOPS[a + 5] - DIVERGING_STOPS[a + 2]);
 }
 
+/** Writes the sequential colour of value/limit (clamped to 0…1) into out[offset..offset+2]. */
+export function writeSequentialColour(value: number, limit: number, out: Float32Array, offset: number): void {
+  let t = limit > 0 ? value / limit : 0;
+  if (!(t >= 0)) t = 0; // also catches NaN
+  if (t > 1) t = 1;
+  const scaled = t * SEQUENTIAL_SEGMENTS;
+  let segment = Math.floor(scaled);
+  if (segment >= SEQUENTIAL_SEGMENTS) segment = SEQUENTIAL_SEGMENTS - 1;
+  const f = scaled - segment;
+  const a = 3 * segment;
+  out[offset] = SEQUENTIAL_STOPS[a] + f * (SEQUENTIAL_STOPS[a + 3] - SEQUENTIAL_STOPS[a]);
+  out[offset + 1] = SEQUENTIAL_STOPS[a + 1] + f * (SEQUENTIAL_STOPS[a + 4] - SEQUENTIAL_STOPS[a + 1]);
+  out[offset + 2] = SEQUENTIAL_STOPS[a + 2] + f * (SEQUENTIAL_STOPS[a + 5] - SEQUENTIAL_STOPS[a + 2]);
+}
+
 /** Writes the colour of material index m (−1: none) into out[offset..offset+2]. */
 export function writeMaterialColour(material: number, out: Float32Array, offset: number): void {
   if (material < 0) {
@@ -72,6 +101,15 @@ export function divergingGradientCss(): string {
   const stops: string[] = [];
   for (let s = 0; s <= DIVERGING_SEGMENTS; s++) {
     stops.push(`${rgbCss(DIVERGING_STOPS.subarray(3 * s, 3 * s + 3))} ${((100 * s) / DIVERGING_SEGMENTS).toFixed(0)}%`);
+  }
+  return `linear-gradient(to right, ${stops.join(', ')})`;
+}
+
+/** CSS linear-gradient stops of the sequential scale, left (0) to right (the limit). */
+export function sequentialGradientCss(): string {
+  const stops: string[] = [];
+  for (let s = 0; s <= SEQUENTIAL_SEGMENTS; s++) {
+    stops.push(`${rgbCss(SEQUENTIAL_STOPS.subarray(3 * s, 3 * s + 3))} ${((100 * s) / SEQUENTIAL_SEGMENTS).toFixed(0)}%`);
   }
   return `linear-gradient(to right, ${stops.join(', ')})`;
 }

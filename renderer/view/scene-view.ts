@@ -25,6 +25,7 @@ export class SceneView {
   private readonly groundGrid: THREE.GridHelper;
   private readonly fluid: THREE.Mesh;
   private body: BodyView | null = null;
+  private overlay: BodyView | null = null;
   /** Time spent issuing draw calls, ms, and how many renders it covers (for the draw-rate readout). */
   renderMsTotal = 0;
   renderCount = 0;
@@ -78,6 +79,17 @@ export class SceneView {
       this.body.dispose();
     }
     this.body = body;
+    if (body) this.scene.add(body.group);
+    this.requestRender();
+  }
+
+  /** Adds a second body drawn with the first (the recorded motion under a prediction); null removes it. */
+  setOverlay(body: BodyView | null): void {
+    if (this.overlay) {
+      this.scene.remove(this.overlay.group);
+      this.overlay.dispose();
+    }
+    this.overlay = body;
     if (body) this.scene.add(body.group);
     this.requestRender();
   }

@@ -46,6 +46,9 @@ export class TrajectoryPlayer {
   private rateWindowRenderMs = 0;
   private rateWindowRenders = 0;
   private readonly frameListeners: ((frame: number) => void)[] = [];
+  /** A model's prediction of the loaded recording, drawn as the body while the recording is a ghost. */
+  private comparison: { positionsM: Float32Array; ghost: BodyView; errorM: Float32Array; limitM: number } | null = null;
+  private readonly errorOption: HTMLOptionElement;
 
   constructor() {
     const stageHost = h('div', { className: 'stage', attrs: { 'data-role': 'stage' } });
@@ -53,7 +56,9 @@ export class TrajectoryPlayer {
     this.rateReadout = h('div', { className: 'draw-rate', attrs: { 'data-role': 'draw-rate' }, text: 'paused' });
     stageHost.append(this.rateReadout);
     this.legend = h('div', { className: 'legend', attrs: { 'data-role': 'legend' } });
-    this.colourMode = select([['material', 'Material'], ['actuator', 'Actuator level'], ['strain', 'Strain']], 'material', { 'data-role': 'colour-mode' });
+    this.colourMode = select([['material', 'Material'], ['actuator', 'Actuator level'], ['strain', 'Strain'], ['error', 'Prediction error']], 'material', { 'data-role': 'colour-mode' });
+    this.errorOption = this.colourMode.querySelector('option[value="error"]')!;
+    this.errorOption.disabled = true;
     this.strainLimit = select(STRAIN_LIMITS.map((v) => [String(v), `±${v * 100} %`] as const), '0.05', { 'data-role': 'strain-limit' });
     this.showNodes = checkbox(true, 'show-nodes');
     this.showSprings = checkbox(true, 'show-springs');
@@ -76,6 +81,7 @@ export class TrajectoryPlayer {
 
   /** Shows a new trajectory; frames may still be arriving (see framesArrived). */
   load(topology: BodyTopology, frames: TrajectoryFrames, frameIntervalS: number, world: StageWorld): void {
+    this.dropComparison();
     this.body = new BodyView(topology);
     this.frames = frames;
     this.world = world;
@@ -91,7 +97,52 @@ export class TrajectoryPlayer {
     this.framesArrived();
   }
 
+  /**
+   * Plays a model's prediction of the loaded recording: `predictedM` has the recording's layout
+   * (frames × nodes × 3, m). The prediction is drawn as the body, coloured by each node's
+   * distance from the recording (up to the largest in the episode), and the recording as a grey
+   * outline under it.
+   */
+  compareWith(predictedM: Float32Array): void {
+    if (!this.body || !this.frames) return;
+    if (predictedM.length !== this.frames.positionsM.length) {
+      throw new RangeError(`the prediction holds ${predictedM.length / 3} node positions but the recording ${this.frames.positionsM.length / 3}; they must have the same frames and nodes`);
+    }
+    this.dropComparison();
+    const truth = this.frames.positionsM;
+    let limitM = 0;
+    for (let i = 0; i < truth.length; i += 3) {
+      const d = Math.hypot(predictedM[i] - truth[i], predictedM[i + 1] - truth[i + 1], predictedM[i + 2] - truth[i + 2]);
+      if (d > limitM) limitM = d;
+    }
+    const ghost = new BodyView(this.body.topology, { ghost: true });
+    this.comparison = { positionsM: predictedM, ghost, errorM: new Float32Array(this.frames.nodeCount), limitM };
+    this.scene.setOverlay(ghost);
+    this.errorOption.disabled = false;
+    this.colourMode.value = 'error';
+    this.root.setAttribute('data-comparison', 'on');
+    this.recolour();
+    const frame = Math.max(0, this.shownFrame);
+    this.shownFrame = -1;
+    this.showFrame(frame);
+  }
+
+  /** The largest node error of the compared prediction, m; null without one. */
+  get comparisonLimitM(): number | null {
+    return this.comparison?.limitM ?? null;
+  }
+
+  private dropComparison(): void {
+    if (!this.comparison) return;
+    this.comparison = null;
+    this.scene.setOverlay(null);
+    this.errorOption.disabled = true;
+    if (this.colourMode.value === 'error') this.colourMode.value = 'material';
+    this.root.removeAttribute('data-comparison');
+  }
+
   clear(): void {
+    this.dropComparison();
     this.stopLoop();
     this.body = null;
     this.frames = null;
@@ -208,11 +259,17 @@ export class TrajectoryPlayer {
     const frames = this.frames;
     if (!body || !frames || frame >= frames.filled) return;
     const offset = frames.positionOffset(frame);
-    body.showPositions(frames.positionsM, offset);
+    const comparison = this.comparison;
+    const shownPositions = comparison ? comparison.positionsM : frames.positionsM;
+    body.showPositions(shownPositions, offset);
+    comparison?.ghost.showPositions(frames.positionsM, offset);
     const mode = this.colourMode.value as ColourMode;
-    // Material colours do not change over time; recolour only when the frame matters.
-    if (mode !== 'material' || this.shownFrame < 0) {
-      body.showColours(mode, frames.positionsM, offset, frames.controls, frames.controlOffset(frame), Number(this.strainLimit.value));
+    if (mode === 'error' && comparison) {
+      this.measureError(comparison, offset);
+      body.showNodeMagnitudes(comparison.errorM, comparison.limitM);
+    } else if (mode !== 'material' || this.shownFrame < 0) {
+      // Material colours do not change over time; recolour only when the frame matters.
+      body.showColours(mode, shownPositions, offset, frames.controls, frames.controlOffset(frame), Number(this.strainLimit.value));
     }
     this.shownFrame = frame;
     this.root.setAttribute('data-frame', String(frame));
@@ -220,13 +277,32 @@ export class TrajectoryPlayer {
     for (const listener of this.frameListeners) listener(frame);
   }
 
+  private measureError(comparison: NonNullable<TrajectoryPlayer['comparison']>, offset: number): void {
+    const truth = this.frames!.positionsM;
+    const predicted = comparison.positionsM;
+    const error = comparison.errorM;
+    for (let i = 0; i < error.length; i++) {
+      const p = offset + 3 * i;
+      const dx = predicted[p] - truth[p];
+      const dy = predicted[p + 1] - truth[p + 1];
+      const dz = predicted[p + 2] - truth[p + 2];
+      error[i] = Math.sqrt(dx * dx + dy * dy + dz * dz);
+    }
+  }
+
   private recolour(): void {
     const mode = this.colourMode.value as ColourMode;
     this.strainLimit.disabled = mode !== 'strain';
-    renderColourLegend(this.legend, mode, this.body?.topology.materialNames ?? [], Number(this.strainLimit.value));
+    renderColourLegend(this.legend, mode, this.body?.topology.materialNames ?? [], Number(this.strainLimit.value), this.comparison?.limitM ?? 0);
     if (this.body && this.frames && this.shownFrame >= 0) {
       const offset = this.frames.positionOffset(this.shownFrame);
-      this.body.showColours(mode, this.frames.positionsM, offset, this.frames.controls, this.frames.controlOffset(this.shownFrame), Number(this.strainLimit.value));
+      const comparison = this.comparison;
+      if (mode === 'error' && comparison) {
+        this.measureError(comparison, offset);
+        this.body.showNodeMagnitudes(comparison.errorM, comparison.limitM);
+      } else {
+        this.body.showColours(mode, comparison ? comparison.positionsM : this.frames.positionsM, offset, this.frames.controls, this.frames.controlOffset(this.shownFrame), Number(this.strainLimit.value));
+      }
       this.scene.requestRender();
     }
   }
