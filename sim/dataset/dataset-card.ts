@@ -156,13 +156,17 @@ function observationOf(source: CardSource): Record<string, unknown> | undefined 
   return typeof block === 'object' && block !== null ? (block as Record<string, unknown>) : undefined;
 }
 
+function everyNthWords(step: number): string {
+  return step === 1 ? 'every node' : `every ${step} nodes from node 0 (nodes 0, ${step}, ${2 * step}, …)`;
+}
+
 function observationSection(source: CardSource): string[] {
   const block = observationOf(source);
   if (block === undefined) return [];
   const markers = block.markers as { nodes?: number[]; everyNth?: number } | undefined;
   const which = markers?.nodes !== undefined
     ? `nodes ${markers.nodes.join(', ')} (negative indices count from the last node)`
-    : `every ${markers?.everyNth ?? 1}${(markers?.everyNth ?? 1) === 1 ? '' : '-th'} node from node 0`;
+    : everyNthWords(markers?.everyNth ?? 1);
   const rate = block.rateHz !== undefined ? `${String(block.rateHz)} Hz` : `every ${String(block.frameStride ?? 1)} record${block.frameStride === undefined || block.frameStride === 1 ? '' : 's'}`;
   return [
     '',

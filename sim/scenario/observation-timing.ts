@@ -38,7 +38,8 @@ export function observationTiming(spec: ObservationSpec, time: TimeSpec): Observ
       problems.push({ pointer: '/observation/rateHz', message: `${spec.rateHz} Hz is above the record rate of ${shortNumber(recordRateHz)} Hz (1 / recordIntervalS); a sensor cannot see more often than the simulator records, so use at most ${shortNumber(recordRateHz)} Hz` });
     } else if (whole === null) {
       const lower = Math.floor(ratio);
-      const suggestions = [lower, lower + 1].map((k) => `${shortNumber(recordRateHz / k)} Hz (every ${k} records)`).join(' or ');
+      // Twelve digits: close enough to the record rate over k to be accepted when copied.
+      const suggestions = [lower, lower + 1].map((k) => `${Number((recordRateHz / k).toPrecision(12))} Hz (${k === 1 ? 'every record' : `every ${k} records`})`).join(' or ');
       problems.push({
         pointer: '/observation/rateHz',
         message: `${spec.rateHz} Hz does not divide the record rate of ${shortNumber(recordRateHz)} Hz (1 / recordIntervalS): the sensor sees every k-th record, so use the record rate divided by a whole number, e.g. ${suggestions}, or give frameStride instead`,
