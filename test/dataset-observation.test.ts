@@ -26,6 +26,8 @@ import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import { generateDataset } from '../sim/dataset/generate-dataset.ts';
+import { observeTrajectory } from '../sim/episode/observe-trajectory.ts';
+import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
 import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
@@ -460,6 +462,37 @@ print(json.dumps({"compared": compared, "differ": differ}))
 `, { plain: plainDir, noisy: noisyDir });
     expect(result.differ).toEqual([]);
     expect(result.compared).toBe(6 * 11);
+  });
+});
+
+describe('observation block: separate draws (project rule in DEVELOPERS.md "Random streams"; common practice, no source)', () => {
+  const steps = 30;
+  const nodeCount = 5;
+  const source = {
+    nodeCount,
+    steps,
+    timeS: Float64Array.from({ length: steps + 1 }, (_, t) => t * 0.02),
+    positionM: Float64Array.from({ length: (steps + 1) * nodeCount * 3 }, (_, i) => Math.sin(i)),
+  };
+  const settings = (positionNoiseStdM: number, dropoutProbability: number) => ({ markerNodes: Int32Array.from([4, 0, 2]), positionNoiseStdM, frameStride: 2, latencyRecords: 1, dropoutProbability });
+  const observe = (noiseStdM: number, p: number) =>
+    observeTrajectory(source, settings(noiseStdM, p), new RandomStream(5, 3, StreamPurpose.observation, 0), new RandomStream(5, 3, StreamPurpose.observation, 1));
+
+  it('a different dropout rate leaves the noise of every sample still seen unchanged', () => {
+    const all = observe(0.01, 0);
+    const some = observe(0.01, 0.4);
+    let seen = 0;
+    for (let s = 0; s < some.seen.length; s++) {
+      if (!some.seen[s]) continue;
+      seen++;
+      for (let a = 0; a < 3; a++) expect(Object.is(some.positionM[3 * s + a], all.positionM[3 * s + a])).toBe(true);
+    }
+    expect(seen).toBeGreaterThan(0);
+    expect(seen).toBeLessThan(all.seen.reduce((n, v) => n + v, 0));
+  });
+
+  it('a different noise level leaves the dropouts unchanged', () => {
+    expect(observe(0, 0.4).seen).toEqual(observe(0.05, 0.4).seen);
   });
 });
 
