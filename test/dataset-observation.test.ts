@@ -167,6 +167,9 @@ describe('observation block: manifest, card and arrays', () => {
     expect(card).toContain('Latency: 0.04 s');
     expect(card).toContain('{"kind":"uniform","min":0.003,"max":0.006}');
     expect(card).toContain('probability `0.15`');
+    // Labels with their units (from the key names, the project's naming rule).
+    expect(card).toContain('| `/observation/dropoutProbability` | 0.15 | 1 |');
+    expect(card).toContain('### `/observation/positionNoiseM` (m)');
     for (const name of OBSERVED) expect(card).toContain(`\`${name}\``);
   });
 
