@@ -232,6 +232,12 @@ describe('observation block: scenario checks', () => {
     expect(result.problems[1].message).toContain('counts past node 0');
   });
 
+  it('with a fixed part count, -1 and the last index are the same marker and refused as a repeat', () => {
+    const fixed = tetherScenario({ observation: { markers: { nodes: [2, 6, -1] } } });
+    (fixed.system as Record<string, unknown>).partCount = 6;
+    expect(problemsOf(fixed)).toEqual([{ pointer: '/observation/markers/nodes/2', message: expect.stringContaining('the same node as /observation/markers/nodes/1') }]);
+  });
+
   it('a dropout probability of 1 and a negative noise level are refused by the schema', () => {
     expect(problemsOf(base({ dropoutProbability: 1 })).map((p) => p.pointer)).toEqual(['/observation/dropoutProbability']);
     expect(problemsOf(base({ positionNoiseM: -0.01 })).map((p) => p.pointer)).toEqual(['/observation/positionNoiseM']);

@@ -22,8 +22,17 @@ export function findObservationProblems(scenario: Scenario, maxNodes: number): S
   const which = chain
     ? (fewest === maxNodes ? `the chain (${limit} nodes, 0 to ${limit - 1})` : `the shortest chain (${limit} nodes, 0 to ${limit - 1})`)
     : `the largest body this scenario can build (${limit} nodes, 0 to ${limit - 1})`;
+  // With a fixed node count, -1 and the last index are known to be the same node.
+  const fixedCount = chain && fewest === maxNodes ? limit : null;
+  const firstMarkerOf = new Map<number, number>();
   spec.markers.nodes.forEach((node, k) => {
     const pointer = `/observation/markers/nodes/${k}`;
+    if (fixedCount !== null && node < limit && node >= -limit) {
+      const resolved = node < 0 ? fixedCount + node : node;
+      const earlier = firstMarkerOf.get(resolved);
+      if (earlier !== undefined) problems.push({ pointer, message: `is node ${resolved} of the chain, the same node as /observation/markers/nodes/${earlier}; list each node once` });
+      else firstMarkerOf.set(resolved, k);
+    }
     if (node >= limit) {
       problems.push({ pointer, message: `is node ${node}, which ${which} does not have; use a smaller index, or a negative one to count from the last node (-1 is the last)` });
     } else if (node < -limit) {
