@@ -167,7 +167,8 @@ function observationSection(source: CardSource): string[] {
   const which = markers?.nodes !== undefined
     ? `nodes ${markers.nodes.join(', ')} (negative indices count from the last node)`
     : everyNthWords(markers?.everyNth ?? 1);
-  const rate = block.rateHz !== undefined ? `${String(block.rateHz)} Hz` : `every ${String(block.frameStride ?? 1)} record${block.frameStride === undefined || block.frameStride === 1 ? '' : 's'}`;
+  const stride = typeof block.frameStride === 'number' ? block.frameStride : 1;
+  const rate = block.rateHz !== undefined ? `${String(block.rateHz)} Hz` : stride === 1 ? 'every record' : `every ${stride} records`;
   return [
     '',
     '## Observations',
