@@ -140,13 +140,49 @@ function splitSection(source: CardSource): string[] {
 function arraySection(source: CardSource): string[] {
   const float = source.export.dtype;
   const lattice = source.tally.hasLattice;
+  const observed = observationOf(source) !== undefined;
   const lines = ['| array | dtype | shape | unit | meaning |', '| --- | --- | --- | --- | --- |'];
   for (const a of EPISODE_ARRAYS) {
     if (a.latticeOnly && !lattice) continue;
+    if (a.observationOnly && !observed) continue;
     lines.push(`| \`${a.name}\` | ${a.dtype === 'float' ? float : a.dtype} | (${a.shape.join(', ')}) | ${a.unit} | ${a.meaning} |`);
   }
-  lines.push('', 'T is the number of recorded steps, N nodes, C control channels, E springs, K cells. The control channels of each episode (name, kind, unit) are listed under `controlChannels` in its manifest record; its sampled parameters under `labels`.');
+  lines.push('', `T is the number of recorded steps, N nodes, C control channels, E springs, K cells${observed ? ', T_obs observed frames, M markers' : ''}. The control channels of each episode (name, kind, unit) are listed under \`controlChannels\` in its manifest record; its sampled parameters under \`labels\`.`);
   return lines;
+}
+
+function observationOf(source: CardSource): Record<string, unknown> | undefined {
+  const block = (source.scenario as Record<string, unknown>).observation;
+  return typeof block === 'object' && block !== null ? (block as Record<string, unknown>) : undefined;
+}
+
+function everyNthWords(step: number): string {
+  return step === 1 ? 'every node' : `every ${step} nodes from node 0 (nodes 0, ${step}, ${2 * step}, …)`;
+}
+
+function observationSection(source: CardSource): string[] {
+  const block = observationOf(source);
+  if (block === undefined) return [];
+  const markers = block.markers as { nodes?: number[]; everyNth?: number } | undefined;
+  const which = markers?.nodes !== undefined
+    ? `nodes ${markers.nodes.join(', ')} (negative indices count from the last node)`
+    : everyNthWords(markers?.everyNth ?? 1);
+  const stride = typeof block.frameStride === 'number' ? block.frameStride : 1;
+  const rate = block.rateHz !== undefined ? `${String(block.rateHz)} Hz` : stride === 1 ? 'every record' : `every ${stride} records`;
+  return [
+    '',
+    '## Observations',
+    '',
+    'Beside the ground truth (which is stored unchanged), each episode holds what a position sensor would report, in the `observed_*` arrays. They are simulated: a model of a sensor, not a measurement.',
+    '',
+    `- Markers: ${which}; \`observed_nodes\` gives the node of each column.`,
+    `- Frames: ${rate}; \`observed_time\` is a subset of \`time\`.`,
+    `- Latency: ${String(block.latencyS ?? 0)} s: the frame reported at \`observed_time[j]\` shows the state at \`observed_time[j]\` − latency; frames before that state exists are marked unseen.`,
+    `- Position noise: \`${JSON.stringify(block.positionNoiseM ?? 0)}\` m standard deviation on each coordinate, Gaussian, drawn per sample (label \`/observation/positionNoiseM\`).`,
+    `- Dropouts: probability \`${JSON.stringify(block.dropoutProbability ?? 0)}\` per frame and marker (label \`/observation/dropoutProbability\`); a missing sample is NaN in \`observed_positions\` and 0 in \`observed_mask\`.`,
+    '',
+    'Noise and dropouts come from each episode\'s own random streams, so regenerating the dataset gives the same observations bit for bit.',
+  ];
 }
 
 function loadingSection(source: CardSource): string[] {
@@ -238,6 +274,7 @@ export function renderDatasetCard(source: CardSource): string {
     '## Arrays of each episode',
     '',
     ...arraySection(source),
+    ...observationSection(source),
     '',
     '## Loading in Python',
     '',

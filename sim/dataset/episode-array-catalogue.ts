@@ -10,12 +10,14 @@ export type CatalogueDtype = 'float' | 'int32' | 'uint8' | 'int16';
 export interface ArrayDescription {
   name: string;
   dtype: CatalogueDtype;
-  /** Shape in symbols: T recorded steps, N nodes, C control channels, E springs, K cells. */
+  /** Shape in symbols: T recorded steps, N nodes, C control channels, E springs, K cells, T_obs observed frames, M markers. */
   shape: string[];
   unit: string;
   meaning: string;
   /** Only lattices have cells. */
   latticeOnly?: boolean;
+  /** Only scenarios with an `observation` block have observed arrays. */
+  observationOnly?: boolean;
 }
 
 export const ENERGY_COLUMNS = ['kinetic', 'elastic', 'gravitational'] as const;
@@ -35,6 +37,10 @@ export const EPISODE_ARRAYS: readonly ArrayDescription[] = [
   { name: 'cells', dtype: 'int32', shape: ['K', 'corners'], unit: '1', meaning: 'corner node indices of each cell (8 for voxels, 4 for squares; corner bit 0 = +x, bit 1 = +y, bit 2 = +z)', latticeOnly: true },
   { name: 'cell_material', dtype: 'int16', shape: ['K'], unit: '1', meaning: 'material index of each cell (into the scenario\'s materials)', latticeOnly: true },
   { name: 'cell_channel', dtype: 'int16', shape: ['K'], unit: '1', meaning: 'actuator channel of each cell, -1 for passive cells', latticeOnly: true },
+  { name: 'observed_time', dtype: 'float', shape: ['T_obs'], unit: 's', meaning: 'time at which each observed frame is reported: time[j·frameStride]', observationOnly: true },
+  { name: 'observed_positions', dtype: 'float', shape: ['T_obs', 'M', '3'], unit: 'm', meaning: 'marker positions as the sensor reports them: the state at observed_time[j] − latencyS plus Gaussian noise; NaN where observed_mask is 0', observationOnly: true },
+  { name: 'observed_mask', dtype: 'uint8', shape: ['T_obs', 'M'], unit: '1', meaning: '1 where the marker was seen, 0 where it dropped out or the delayed state is before the start', observationOnly: true },
+  { name: 'observed_nodes', dtype: 'int32', shape: ['M'], unit: '1', meaning: 'node index of each marker (column m of the observed arrays)', observationOnly: true },
 ];
 
 export function describeArray(name: string): ArrayDescription {

@@ -3,6 +3,7 @@
 // arrays are narrowed to float32 unless float64 was asked for; narrowing rounds to nearest, so
 // it is the same on every machine.
 import type { RecordedTrajectory } from '../episode/record-episode.ts';
+import type { ObservedTrajectory } from '../episode/observe-trajectory.ts';
 import type { GraphLabels } from '../systems/graph-labels.ts';
 import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
 import type { ExportDtype } from './dataset-manifest.ts';
@@ -19,7 +20,8 @@ function floats(values: Float64Array, dtype: ExportDtype): Float32Array | Float6
   return dtype === 'float64' ? values.slice() : Float32Array.from(values);
 }
 
-export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels, cellCornerCount: number, dtype: ExportDtype): EpisodeArray[] {
+/** `observed` is null for a scenario without an observation block: then no observed arrays are stored. */
+export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels, cellCornerCount: number, dtype: ExportDtype, observed: ObservedTrajectory | null = null): EpisodeArray[] {
   const t = trajectory.steps;
   const n = trajectory.nodeCount;
   const c = trajectory.channelCount;
@@ -41,9 +43,18 @@ export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels
     cell_material: { shape: [k], data: graph.cellMaterial.slice() },
     cell_channel: { shape: [k], data: graph.cellChannel.slice() },
   };
+  if (observed !== null) {
+    const frames = observed.frameCount;
+    const markers = observed.markerCount;
+    data.observed_time = { shape: [frames], data: floats(observed.timeS, dtype) };
+    data.observed_positions = { shape: [frames, markers, 3], data: floats(observed.positionM, dtype) };
+    data.observed_mask = { shape: [frames, markers], data: observed.seen.slice() };
+    data.observed_nodes = { shape: [markers], data: observed.markerNodes.slice() };
+  }
   const arrays: EpisodeArray[] = [];
   for (const description of EPISODE_ARRAYS) {
     if (description.latticeOnly && k === 0) continue;
+    if (description.observationOnly && observed === null) continue;
     const entry = data[description.name];
     // namedArray takes the dtype from the typed array, so it cannot disagree with the data.
     arrays.push(namedArray(description.name, entry.shape, entry.data, { unit: description.unit, description: description.meaning }) as NamedArray);

@@ -3,6 +3,7 @@
 // same function runs in the main thread and in worker threads, so where an episode is computed
 // can never change what is written.
 import { sampleEpisode } from '../scenario/sample-episode.ts';
+import { observeEpisode } from '../scenario/observe-episode.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
 import { recordTrajectory, resolveSubsteps } from '../episode/record-episode.ts';
 import { SimulationBlowUpError, likelyCause } from '../core/simulation-error.ts';
@@ -81,7 +82,7 @@ export function produceEpisode(scenario: Scenario, index: number, dtype: ExportD
   };
   try {
     const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording);
-    return { record, arrays: episodeArrays(trajectory, graph, model.cellCornerCount, dtype) };
+    return { record, arrays: episodeArrays(trajectory, graph, model.cellCornerCount, dtype, observeEpisode(sampled, trajectory)) };
   } catch (error) {
     if (!(error instanceof SimulationBlowUpError)) throw EpisodeBuildError.of(index, error);
     return { record: { ...record, status: 'rejected', rejection: rejectionOf(error.inEpisode(index)) }, arrays: null };

@@ -22,7 +22,7 @@ const SUFFIX_UNITS: ReadonlyArray<readonly [RegExp, string]> = [
   [/J$/, 'J'],
 ];
 
-const DIMENSIONLESS = /(Count|Ratio|Friction|Fraction|Index|Cells|Strain|StrainMax|Weights?|Unit|kind|name|shape|anchor|base|buoyancy|Channel|Axes|Handles)$/i;
+const DIMENSIONLESS = /(Count|Ratio|Probability|Friction|Fraction|Index|Cells|Strain|StrainMax|Weights?|Unit|kind|name|shape|anchor|base|buoyancy|Channel|Axes|Handles)$/i;
 
 /**
  * Unit of the label at `pointer`: from the last non-numeric key of the pointer. Levels of a

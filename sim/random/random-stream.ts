@@ -16,6 +16,8 @@ export const StreamPurpose = {
   controls: 3,
   split: 4,
   preview: 5,
+  /** Sensor noise and dropouts of the observed arrays (sub-streams in sim/scenario/parameter-streams.ts). */
+  observation: 6,
 } as const;
 
 export type StreamPurposeName = keyof typeof StreamPurpose;

@@ -34,3 +34,12 @@ export function initialStateStream(seed: number | string, episodeIndex: number, 
 export function splitStream(seed: number | string, episodeIndex: number): RandomStream {
   return new RandomStream(seed, episodeIndex, StreamPurpose.split, 0);
 }
+
+/** Noise of the observed positions: three normals per (frame, marker), in frame then marker order. */
+export const OBSERVATION_NOISE_SUB_STREAM = 0;
+/** Dropouts of the observed markers: one uniform per (frame, marker), in frame then marker order. */
+export const OBSERVATION_DROPOUT_SUB_STREAM = 1;
+
+export function observationStream(seed: number | string, episodeIndex: number, subStream: number): RandomStream {
+  return new RandomStream(seed, episodeIndex, StreamPurpose.observation, subStream);
+}

@@ -1,7 +1,8 @@
 // Checks beyond the schema, on a value that already fits it: every distribution well formed
 // (min ≤ max and the like), physical consistency (kinetic ≤ static friction, split fractions
 // summing to 1), sizes within the limits, held-out rules that can work, control specs and
-// channel names that fit the system, and sub-steps that keep the integration stable.
+// channel names that fit the system, an observation that fits the records and the nodes, and
+// sub-steps that keep the integration stable.
 import { isConstant, specBounds } from '../random/distribution.ts';
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { findChannelKeyProblems, findControlSpecProblemsOf } from './control-checks.ts';
@@ -10,6 +11,7 @@ import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
 import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
+import { findObservationProblems } from './observation-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveWorld } from './resolve-world.ts';
@@ -27,6 +29,10 @@ export function parameterSites(scenario: Scenario): ParameterSite[] {
   resolveWorld(scenario.world, corner);
   corner.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
   corner.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');
+  if (scenario.observation !== undefined) {
+    corner.value(scenario.observation.positionNoiseM, '/observation/positionNoiseM', 'none');
+    corner.value(scenario.observation.dropoutProbability, '/observation/dropoutProbability', 'none');
+  }
   return corner.sites;
 }
 
@@ -53,6 +59,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
     problems.push(...shape.problems);
     maxNodes = shape.maxNodes;
   }
+  problems.push(...findObservationProblems(scenario, maxNodes));
   const states = (scenario.time.recordedSteps + 1) * maxNodes;
   if (states > MAX_RECORDED_NODE_STATES) {
     problems.push({

@@ -1,6 +1,7 @@
 // One episode of a sweep from (scenario, master seed, episode index) alone: every parameter
 // drawn from the stream of its JSON pointer, the system built by the real builders, the start
-// state randomised, the controls generated per channel and the split assigned.
+// state randomised, the observation settings resolved, the controls generated per channel and
+// the split assigned.
 import { SpecError } from '../random/spec-problem.ts';
 import type { SpecProblem } from '../random/spec-problem.ts';
 import { buildChain } from '../systems/chain.ts';
@@ -14,6 +15,7 @@ import { latticeBody } from './lattice-shape.ts';
 import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, shapeStream, splitStream } from './parameter-streams.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
+import { resolveObservation } from './resolve-observation.ts';
 import { resolveWorld } from './resolve-world.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
@@ -67,6 +69,9 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
     initialStateStream(seed, episodeIndex, INITIAL_POSITION_SUB_STREAM),
     initialStateStream(seed, episodeIndex, INITIAL_VELOCITY_SUB_STREAM),
   );
+  // Only a scenario with an observation block draws (and labels) these, so scenarios without
+  // one keep exactly the labels they had.
+  const observation = scenario.observation === undefined ? null : resolveObservation(scenario.observation, scenario.time, system.model.nodeCount, draws);
   const parameterLabels = { ...draws.labels };
   const { recordIntervalS, recordedSteps, substeps, autoSafety } = scenario.time;
   const controls = sampleControls(scenario.controls, system.controlChannels, seed, episodeIndex, recordIntervalS, recordedSteps, draws.labels, options.replay);
@@ -86,6 +91,7 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
     world,
     recording: { recordIntervalS, recordedSteps, substeps, autoSafety },
     controls,
+    observation,
     labels: draws.labels,
   };
 }

@@ -4,6 +4,7 @@
 import type { World } from '../core/world.ts';
 import type { BuiltSystem } from '../systems/built-system.ts';
 import type { RecordingSettings } from '../episode/record-episode.ts';
+import type { ObservationSettings } from '../episode/observe-trajectory.ts';
 
 /** A ground-truth label value: what the sampler drew for one parameter. */
 export type LabelValue = number | string | boolean | null | LabelValue[] | { [key: string]: LabelValue };
@@ -21,6 +22,8 @@ export interface SampledEpisode {
   recording: RecordingSettings;
   /** Control sequence, recordedSteps × channelCount, in each channel's unit. */
   controls: Float64Array;
+  /** What the scenario's sensor sees of this episode; null when the scenario has no observation block. */
+  observation: ObservationSettings | null;
   /**
    * Every sampled value, keyed by the JSON pointer of its place in the scenario
    * (e.g. "/system/partCount", "/world/gravityMPerS2/1", "/controls/0/frequencyHz").

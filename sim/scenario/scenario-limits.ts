@@ -24,3 +24,10 @@ export const MAX_NUMBER_SEED = Number.MAX_SAFE_INTEGER;
 export const MAX_STRING_SEED = 18446744073709551615n;
 /** Sum of split fractions may differ from 1 by this much (rounding in hand-written decimals). */
 export const FRACTION_SUM_TOLERANCE = 1e-9;
+/** Markers listed by node index in an observation block. */
+export const MAX_OBSERVATION_MARKERS = MAX_NODES;
+/**
+ * How far an observation rate or latency may be from a whole number of record intervals and
+ * still count as one, relative: decimal fractions like 0.02 s are not exact in binary.
+ */
+export const OBSERVATION_TIMING_TOLERANCE = 1e-9;

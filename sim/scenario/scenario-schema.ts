@@ -6,7 +6,7 @@ import { controlSpecSchema } from '../controls/control-spec-schema.ts';
 import type { JsonSchema } from '../random/value-spec-schema.ts';
 import { valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
-import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NUMBER_SEED, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
+import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
@@ -280,6 +280,39 @@ const exportSchema = closed(
   [],
 );
 
+const markersSchema: JsonSchema = {
+  type: 'object',
+  description: 'Which nodes the sensor sees: {"nodes": [...]} lists them, {"everyNth": k} takes nodes 0, k, 2k, ...',
+  if: { properties: { everyNth: {} }, required: ['everyNth'] },
+  then: closed('Every k-th node, starting at node 0.', {
+    everyNth: { type: 'integer', minimum: 1, maximum: MAX_NODES, description: 'Step k between observed node indices, counted in nodes.' },
+  }, ['everyNth']),
+  else: closed('Listed nodes.', {
+    nodes: {
+      type: 'array',
+      minItems: 1,
+      maxItems: MAX_OBSERVATION_MARKERS,
+      uniqueItems: true,
+      items: { type: 'integer', description: 'Node index of one marker; negative counts from the last node, -1 is the last.' },
+      description: 'Node index of each marker, in the order of the observed arrays; or give "everyNth" instead.',
+    },
+  }, ['nodes']),
+  default: { everyNth: 1 },
+};
+
+const observationSchema = closed(
+  'What a position sensor records, stored beside the ground truth (which stays as it is): a subset of nodes, a lower frame rate, a fixed latency, Gaussian noise and dropouts, drawn from each episode\'s own random streams. Leave out for none. Give at most one of frameStride and rateHz; neither observes every record.',
+  {
+    markers: markersSchema,
+    positionNoiseM: valueSpecSchema('Standard deviation of the Gaussian noise on each coordinate of each observed position, m.', { minimum: 0, default: 0 }),
+    frameStride: { type: 'integer', minimum: 1, maximum: MAX_RECORDED_STEPS, description: 'Records per observed frame, counted in records: the sensor sees records 0, k, 2k, ...' },
+    rateHz: { type: 'number', exclusiveMinimum: 0, description: 'Observed frames per second, Hz; must be the record rate (1 / recordIntervalS) divided by a whole number.' },
+    latencyS: { type: 'number', minimum: 0, default: 0, description: 'Delay of every observation, s: the frame reported at time t shows the state at t - latencyS. A whole number of record intervals.' },
+    dropoutProbability: valueSpecSchema('Chance that a marker is missing from one frame, dimensionless, independently per frame and marker.', { minimum: 0, exclusiveMaximum: 1, default: 0 }),
+  },
+  [],
+);
+
 export const SCENARIO_SCHEMA: JsonSchema = {
   $schema: 'https://json-schema.org/draft/2020-12/schema',
   $id: SCENARIO_SCHEMA_ID,
@@ -310,6 +343,7 @@ export const SCENARIO_SCHEMA: JsonSchema = {
     },
     splits: { ...splitsSchema, default: {} },
     export: { ...exportSchema, default: {} },
+    observation: observationSchema,
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,

@@ -123,6 +123,27 @@ export interface InitialStateSpec {
   velocityNoiseMPerS: NumericValueSpec;
 }
 
+/** Which nodes a sensor sees: listed ones (negative indices count from the last node) or every k-th from node 0. */
+export type MarkerSpec = { nodes: number[] } | { everyNth: number };
+
+/**
+ * What a sensor records beside the ground truth. Absent: no observed arrays. At most one of
+ * frameStride and rateHz is given; neither means every record is observed.
+ */
+export interface ObservationSpec {
+  markers: MarkerSpec;
+  /** Standard deviation of the Gaussian noise on each observed coordinate, m. */
+  positionNoiseM: NumericValueSpec;
+  /** Records per observed frame. */
+  frameStride?: number;
+  /** Observed frames per second; the record rate divided by a whole number. */
+  rateHz?: number;
+  /** Delay of every observation, s; a whole number of record intervals. */
+  latencyS: number;
+  /** Chance that a marker is missing from a frame. */
+  dropoutProbability: NumericValueSpec;
+}
+
 export type SplitName = 'train' | 'validation' | 'test';
 
 export interface HeldOutRule {
@@ -164,4 +185,6 @@ export interface Scenario {
   seed: number | string;
   splits: SplitsSpec;
   export: ExportSpec;
+  /** Absent: the dataset holds the ground truth only. */
+  observation?: ObservationSpec;
 }
