@@ -248,4 +248,22 @@ describe.skipIf(!python.available)('pliant score against NumPy', () => {
     expect(readdirSync(join(b, 'plots')).map((f) => `plots/${f}`)).toEqual(files.slice(2));
     for (const f of files) expect(readFileSync(join(b, f)).equals(readFileSync(join(a, f))), f).toBe(true);
   });
+
+  it("writes SVGs that Python's XML parser reads, one line per scored split, and links each from REPORT.md", async () => {
+    const out = join(work, 'charts');
+    expect((await runPliant(['score', dataset, noisy, '--out', out, '--split', 'test,held-out'], work)).code).toBe(0);
+    const svgs = readdirSync(join(out, 'plots')).map((f) => join(out, 'plots', f));
+    const parsed = runReferencePython<{ root: string; paths: number }[]>(`
+import json, sys, xml.etree.ElementTree as ET
+out = []
+for path in json.load(sys.stdin):
+    root = ET.parse(path).getroot()
+    out.append({'root': root.tag, 'paths': len(root.findall('{http://www.w3.org/2000/svg}path'))})
+print(json.dumps(out))`, svgs);
+    for (const p of parsed) expect(p.root).toBe('{http://www.w3.org/2000/svg}svg');
+    const horizon = svgs.findIndex((f) => f.endsWith('error-vs-horizon.svg'));
+    expect(parsed[horizon].paths).toBe(2);
+    const report = readFileSync(join(out, 'REPORT.md'), 'utf8');
+    for (const f of svgs) expect(report).toContain(`](plots/${f.split('/').at(-1)})`);
+  });
 });

@@ -1,7 +1,7 @@
 // Writes a score to its report folder: score.json (checked against SCORE_SCHEMA first), REPORT.md
 // and the SVG charts under plots/, each file atomically. The bytes depend only on the score, so
 // the same inputs give the same files.
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, readdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeFileAtomic } from '../../dataset/atomic-file.ts';
 import { datasetWriteErrorFromErrno, errnoCodeOf } from '../../dataset/dataset-write-error.ts';
@@ -34,5 +34,10 @@ export function writeScore(outDir: string, score: ScoreDocument): string[] {
     throw datasetWriteErrorFromErrno(errnoCodeOf(error), join(outDir, 'plots'), 'cannot create the report folder');
   }
   for (const file of files) writeFileAtomic(join(outDir, file.path), new TextEncoder().encode(file.text));
+  // A chart of an earlier score (another parameter) would sit beside this report as if it were its own.
+  const written = new Set(files.map((f) => f.path));
+  for (const name of readdirSync(join(outDir, 'plots'))) {
+    if (/^error-vs-.*\.svg$/.test(name) && !written.has(`plots/${name}`)) rmSync(join(outDir, 'plots', name), { force: true });
+  }
   return files.map((f) => f.path);
 }
