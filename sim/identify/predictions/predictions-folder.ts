@@ -62,7 +62,12 @@ export function readPredictionsFolder(dir: string): PredictionsFolder {
     throw new PredictionsError(`${dir} does not exist; give the folder holding one <episode id>.npz per predicted episode`);
   }
   if (!isFolder) throw new PredictionsError(`${dir} is a file, not a predictions folder; give the folder holding one <episode id>.npz per predicted episode (ep-000042.npz)`);
-  const names = readdirSync(dir).sort();
+  let names: string[];
+  try {
+    names = readdirSync(dir).sort();
+  } catch (error) {
+    throw new PredictionsError(`${dir} cannot be listed (${(error as { code?: string }).code ?? String(error)}); make the folder readable`);
+  }
   const episodeIds: string[] = [];
   for (const name of names) {
     const match = EPISODE_FILE.exec(name);

@@ -38,9 +38,17 @@ export async function openScoredDataset(dir: string): Promise<ScoredDataset> {
   };
 }
 
+/**
+ * Every episode record of the dataset, rejected ones too, in index order: the one place the
+ * scorer touches the manifest's episode list, to be swapped for a streaming manifest reader.
+ */
+export async function* allEpisodeRecords(dataset: ScoredDataset): AsyncGenerator<EpisodeRecord> {
+  yield* dataset.manifest.episodes;
+}
+
 /** Records of the recorded (status "ok") episodes of `splits`, in index order. */
 export async function* episodeRecordsOfSplits(dataset: ScoredDataset, splits: ReadonlySet<string>): AsyncGenerator<EpisodeRecord> {
-  for (const episode of dataset.manifest.episodes) {
+  for await (const episode of allEpisodeRecords(dataset)) {
     if (episode.status === 'ok' && splits.has(episode.split)) yield episode;
   }
 }
@@ -49,7 +57,7 @@ export async function* episodeRecordsOfSplits(dataset: ScoredDataset, splits: Re
 export async function episodeIdsByStatus(dataset: ScoredDataset): Promise<{ ok: Map<string, string>; rejected: Set<string> }> {
   const ok = new Map<string, string>();
   const rejected = new Set<string>();
-  for (const episode of dataset.manifest.episodes) {
+  for await (const episode of allEpisodeRecords(dataset)) {
     if (episode.status === 'ok') ok.set(episode.id, episode.split);
     else rejected.add(episode.id);
   }
