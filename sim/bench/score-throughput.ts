@@ -13,7 +13,6 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { defaultIo, runCli } from '../cli/main.ts';
 import type { DatasetManifest } from '../dataset/dataset-manifest.ts';
 import { namedArray } from '../dataset/named-array.ts';
 import { readNpzFile, writeNpzFile } from '../dataset/npz.ts';
@@ -71,6 +70,8 @@ export const scoreThroughputCase: BenchmarkCase = {
     const work = mkdtempSync(join(tmpdir(), 'pliant-bench-score-'));
     try {
       const dataset = join(work, 'tether');
+      // Loaded here, not at the top: the command line's table of commands imports this case.
+      const { defaultIo, runCli } = await import('../cli/main.ts');
       const io = { ...defaultIo(), stdout: () => {} };
       const code = await runCli(['generate', demoScenarioPath('korrin-tether'), '--out', dataset, '--episodes', String(episodes), '--workers', '2', '--progress', 'none'], io);
       if (code !== 0) throw new Error(`generating the benchmark dataset failed (exit ${code})`);
