@@ -124,14 +124,18 @@ for key in keys:
     idx = np.minimum(np.floor((vals - vals.min()) / (vals.max() - vals.min()) * 8), 7).astype(int)
     err = np.array([r['meanNormalisedError'] for r in rows])
     means = [float(err[idx == b].mean()) if np.any(idx == b) else None for b in range(8)]
-    params.append({'label': key, 'count': counts.tolist(), 'edges': edges.tolist(), 'meanNormalisedError': means})
+    sp = np.array([r['split'] for r in rows])
+    per = {s: {'count': [int(np.sum((idx == b) & (sp == s))) for b in range(8)],
+               'meanNormalisedError': [float(err[(idx == b) & (sp == s)].mean()) if np.any((idx == b) & (sp == s)) else None for b in range(8)]}
+           for s in splits}
+    params.append({'label': key, 'count': counts.tolist(), 'edges': edges.tolist(), 'meanNormalisedError': means, 'splits': per})
 print(json.dumps({'rows': rows, 'splits': summ, 'params': params}))
 `;
 
 interface Reference {
   rows: ScoreDocument['episodes'];
   splits: Record<string, Partial<ScoreDocument['overall']>>;
-  params: { label: string; count: number[]; edges: number[]; meanNormalisedError: (number | null)[] }[];
+  params: { label: string; count: number[]; edges: number[]; meanNormalisedError: (number | null)[]; splits: Record<string, { count: number[]; meanNormalisedError: (number | null)[] }> }[];
 }
 
 /** Relative 1e-9 (different summation order), absolute 1e-12 for values near 0. */
@@ -176,6 +180,7 @@ function compareWithNumPy(score: ScoreDocument, predictions: string): void {
     expect(score.parameters[k].splits.all.count, p.label).toEqual(p.count);
     expectClose(score.parameters[k].edges, p.edges, `${p.label} edges`);
     expectClose(score.parameters[k].splits.all.meanNormalisedError, p.meanNormalisedError, `${p.label} bins`);
+    for (const [split, bins] of Object.entries(p.splits)) expectClose(score.parameters[k].splits[split], bins, `${p.label} bins of ${split}`);
   });
 }
 

@@ -85,13 +85,14 @@ export function scoreReport(score: ScoreDocument, plots: readonly ScorePlot[]): 
   if (score.parameters.length === 0) {
     lines.push('No sampled parameter varies over the scored episodes.', '');
   } else {
-    lines.push(`Mean rollout RMSE / ℓ per equal-width bin of each parameter over its observed range (${s.parameterBins} bins; all scored episodes, episode count in brackets).`, '');
+    lines.push(`Mean rollout RMSE / ℓ per equal-width bin of each parameter over its observed range (${s.parameterBins} bins), per split and for all scored episodes; episode count in brackets.`, '');
+    const groups = s.splits.length > 1 ? [...s.splits, 'all'] : s.splits;
     for (const p of score.parameters) {
-      const all = p.splits.all;
-      const unit = p.unit && p.unit !== '1' ? ` ${p.unit}` : '';
-      lines.push(`### ${p.label}${unit ? ` (${p.unit})` : ''}`, '', '| bin | mean rollout RMSE / ℓ |', '| --- | --- |');
-      for (let b = 0; b < all.count.length; b++) {
-        lines.push(`| ${num(p.edges[b])} – ${num(p.edges[b + 1])} | ${num(all.meanNormalisedError[b])} (${all.count[b]}) |`);
+      const unit = p.unit && p.unit !== '1' ? ` (${p.unit})` : '';
+      lines.push(`### ${p.label}${unit}`, '', `| bin | ${groups.join(' | ')} |`, `| --- |${groups.map(() => ' --- |').join('')}`);
+      for (let b = 0; b < s.parameterBins; b++) {
+        const cells = groups.map((g) => `${num(p.splits[g].meanNormalisedError[b])} (${p.splits[g].count[b]})`);
+        lines.push(`| ${num(p.edges[b])} – ${num(p.edges[b + 1])} | ${cells.join(' | ')} |`);
       }
       const plot = plots.find((pl) => pl.title === `Error against ${p.label}`);
       if (plot) lines.push('', `![error against ${p.label}](${plot.path})`);
