@@ -80,11 +80,16 @@ export function measureSweepMemory(request: SweepMemoryRequest): SweepMemory {
 
 /** The episode count from PLIANT_BENCH_MEMORY_EPISODES, or the default. */
 export function memoryEpisodes(env: Record<string, string | undefined>): number {
-  const text = env[MEMORY_EPISODES_VARIABLE];
-  if (text === undefined || text === '') return DEFAULT_MEMORY_EPISODES;
+  return episodeCountFromEnvironment(env, MEMORY_EPISODES_VARIABLE, DEFAULT_MEMORY_EPISODES);
+}
+
+/** A benchmark's episode count from an environment variable, or its default. */
+export function episodeCountFromEnvironment(env: Record<string, string | undefined>, variable: string, fallback: number): number {
+  const text = env[variable];
+  if (text === undefined || text === '') return fallback;
   const count = Number(text);
   if (!/^[1-9][0-9]*$/.test(text) || count > MAX_EPISODES) {
-    throw new CliUsageError(`${MEMORY_EPISODES_VARIABLE}="${text}" is not a whole number of episodes from 1 to ${MAX_EPISODES}; unset it for ${DEFAULT_MEMORY_EPISODES} or give e.g. 10000`);
+    throw new CliUsageError(`${variable}="${text}" is not a whole number of episodes from 1 to ${MAX_EPISODES}; unset it for ${fallback} or give e.g. 10000`);
   }
   return count;
 }

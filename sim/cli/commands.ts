@@ -9,5 +9,6 @@ import { reproduceCommand } from './reproduce-command.ts';
 import { inspectCommand } from './inspect-command.ts';
 import { demoCommand } from './demo-command.ts';
 import { renderCommand } from './render-command.ts';
+import { scoreCommand } from './score-command.ts';
 
-export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, renderCommand, demoCommand, benchCommand];
+export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, scoreCommand, renderCommand, demoCommand, benchCommand];
