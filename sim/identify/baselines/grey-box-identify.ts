@@ -28,9 +28,10 @@ export interface EpisodeIdentification {
   freeNodes: number;
   excludedNodes: number;
   contactExclusions: number;
-  condition: number;
+  /** Null when the design has too few rows or no identifiable column. */
+  condition: number | null;
   /** RMS of m·Δv/Δt − A·θ over the rows, N. */
-  residualRmsN: number;
+  residualRmsN: number | null;
   parameters: IdentifiedParameter[];
 }
 
@@ -67,8 +68,8 @@ export function identifyEpisode(trajectory: EpisodeTrajectory, record: EpisodeRe
     freeNodes: design.freeNodeCount,
     excludedNodes: design.excludedNodeCount,
     contactExclusions: design.contactExclusions,
-    condition: solved.condition,
-    residualRmsN: solved.residualRms,
+    condition: Number.isFinite(solved.condition) ? solved.condition : null,
+    residualRmsN: Number.isFinite(solved.residualRms) ? solved.residualRms : null,
     parameters,
   };
 }
