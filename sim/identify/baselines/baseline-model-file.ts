@@ -13,7 +13,7 @@ import { snapshotSize, stateSize } from './linear-state.ts';
 let compiled: ValidateFunction | undefined;
 
 function validator(): ValidateFunction {
-  compiled ??= new Ajv2020({ strict: true, strictTypes: false, allErrors: true }).compile(BASELINE_MODEL_SCHEMA);
+  compiled ??= new Ajv2020({ strict: true, strictTypes: false, strictRequired: false, allErrors: true }).compile(BASELINE_MODEL_SCHEMA);
   return compiled;
 }
 
