@@ -19,7 +19,8 @@ export async function fitBaseline(dataset: OpenDataset, request: FitRequest): Pr
   const records = episodesOfSplits(dataset, request.splits);
   const needsData = request.model === 'linear' || request.model === 'grey-box';
   if (needsData && records.length === 0) {
-    throw new BaselineInputError(`${dataset.dir} has no ok episodes in ${request.splits.join(', ')} to fit the ${request.model} baseline on; choose a split that has some with --split`);
+    const counts = Object.entries(dataset.manifest.splits).map(([split, c]) => `${split} ${c.ok}`).join(', ');
+    throw new BaselineInputError(`${dataset.dir} has no ok episodes in ${request.splits.join(', ')} to fit the ${request.model} baseline on (ok episodes per split: ${counts}); choose a split that has some with --split`);
   }
   const manifest = dataset.manifest;
   const model: BaselineModel = {
