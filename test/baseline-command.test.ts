@@ -161,7 +161,7 @@ describe('pliant baseline: bad inputs exit with 2 and a message, never a stack t
     ['no --out', async () => ['fit', 'tether', '--model', 'linear'], /--out MODEL.json is required/],
     ['a dataset without a train split', async () => ['fit', 'no-train', '--model', 'linear', '--out', 'x.json'], /no-train has no ok episodes in train to fit the linear baseline on \(ok episodes per split: validation \d, test \d, train 0\)/],
     ['a folder that is no dataset', async () => ['fit', '.', '--model', 'linear', '--out', 'x.json'], /is not a finished dataset folder: manifest.json is missing/],
-    ['a bad --rank', async () => ['fit', 'tether', '--model', 'linear', '--rank', 'most', '--out', 'x.json'], /--rank "most" is not auto/],
+    ['a bad --rank', async () => ['fit', 'tether', '--model', 'linear', '--rank', 'most', '--out', 'x.json'], /--rank "most" is not stable, auto, a whole number/],
     ['--delays for the grey-box model', async () => ['fit', 'tether', '--model', 'grey-box', '--delays', '2', '--out', 'x.json'], /--delays only apply to --model linear/],
     ['an unknown action', async () => ['train', 'tether'], /unknown action "train"; use fit or predict/],
     ['predicting a split the dataset lacks', async () => ['predict', '--model', 'persistence', 'tether', '--split', 'held-out', '--out', 'p'], /has no split "held-out"/],

@@ -113,6 +113,31 @@ describe.skipIf(!python.available)('linear baseline (DMDc) against numpy.linalg'
     expect(worst / scale).toBeLessThan(1e-9);
   });
 
+  it('keeps the numerical rank under the "stable" rule on this damped system, with the spectral radius numpy.linalg.eigvals gives', () => {
+    // A damped linear oscillator chain dissipates energy, so its exact one-step map has every
+    // eigenvalue inside the unit circle (common practice, no source); the driven node's
+    // prescribed motion adds eigenvalues at 0.
+    const l = { ...layout, delays: 1 };
+    const snapshots = buildSnapshots(l, train);
+    const auto = fitLinearOperator(snapshots, { kind: 'auto' }, 1);
+    const stable = fitLinearOperator(snapshots, { kind: 'stable' }, 1);
+    expect(stable.rank).toBe(auto.rank);
+    const n = stable.stateSize;
+    const p = stable.snapshotSize;
+    const reference = runReferencePython<{ radius: number }>(
+      [
+        'import json, sys, numpy as np',
+        'd = json.load(sys.stdin); n = d["n"]; g = np.array(d["g"]).reshape(n, d["p"])',
+        'c = np.zeros((2 * n, 2 * n)); c[:n, :] = g[:, :2 * n]; c[n:, :n] = np.eye(n)',
+        'print(json.dumps({"radius": float(np.abs(np.linalg.eigvals(c)).max())}))',
+      ].join('\n'),
+      { g: Array.from(stable.operator), n, p },
+    );
+    expect(Math.abs(stable.spectralRadius - reference.radius)).toBeLessThan(1e-8);
+    expect(reference.radius).toBeLessThan(1);
+    expect(reference.radius).toBeGreaterThan(0.5);
+  });
+
   it('rolls out open-loop from the initial state to the recorded trajectory of a held-back episode', () => {
     const fit = fitLinearOperator(buildSnapshots(layout, train), { kind: 'auto' });
     const episode = held[0];

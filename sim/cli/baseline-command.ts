@@ -32,8 +32,10 @@ const USAGE = [
   '  --model persistence | constant-velocity   nothing to fit (the floors)',
   '  --model linear      least-squares linear model with inputs (DMDc), one per node count',
   '      --delays K                 past states in the model, default 0',
-  '      --rank auto|R|energy:F     singular values kept: auto (numerical rank, default), at',
-  '                                 most R, or the fewest holding the fraction F of Σσ²',
+  '      --rank stable|auto|R|energy:F  singular values kept: stable (default: the largest',
+  '                                 rank whose rollout cannot grow without bound), auto (the',
+  '                                 numerical rank), at most R, or the fewest holding the',
+  '                                 fraction F of Σσ²',
   '      --state relative|absolute  positions from each episode\'s initial ones (default) or as is',
   '      --no-affine                leave out the constant column (gravity, rest lengths)',
   '  --model grey-box    per-episode stiffness, damping, gravity and drag by least squares on the',
@@ -82,9 +84,9 @@ async function runFit(parsed: ParsedArguments, io: CliIo): Promise<number> {
   const linearOnly = ['--delays', '--rank', '--state'].filter((o) => parsed.values.has(o));
   if (parsed.switches.has('--no-affine')) linearOnly.push('--no-affine');
   if (model !== 'linear' && linearOnly.length > 0) throw new CliUsageError(`${linearOnly.join(', ')} only apply to --model linear`);
-  const rankText = parsed.values.get('--rank') ?? 'auto';
+  const rankText = parsed.values.get('--rank') ?? 'stable';
   const rank = parseRankChoice(rankText);
-  if (rank === null) throw new CliUsageError(`--rank "${rankText}" is not auto, a whole number ≥ 1 or energy:F with 0 < F ≤ 1 (e.g. energy:0.9999)`);
+  if (rank === null) throw new CliUsageError(`--rank "${rankText}" is not stable, auto, a whole number ≥ 1 or energy:F with 0 < F ≤ 1 (e.g. energy:0.9999)`);
   const delays = parsed.values.has('--delays') ? wholeNumberOption('--delays', parsed.values.get('--delays')!, 0, 50) : 0;
   const stateForm = choiceOption('--state', parsed.values.get('--state') ?? 'relative', ['relative', 'absolute'] as const);
   const splits = splitList(parsed.values.get('--split'), ['train']);
@@ -108,7 +110,7 @@ async function runFit(parsed: ParsedArguments, io: CliIo): Promise<number> {
 
 function summary(model: BaselineModel): string {
   if (model.linear) {
-    const groups = model.linear.groups.map((g) => `${g.nodeCount} nodes: ${g.episodes.length} episodes, rank ${g.rank} of ${g.operator.columns}, one-step RMS ${g.oneStepRms.toExponential(2)}`);
+    const groups = model.linear.groups.map((g) => `${g.nodeCount} nodes: ${g.episodes.length} episode${g.episodes.length === 1 ? '' : 's'}, rank ${g.rank} of ${g.operator.columns}, spectral radius ${g.spectralRadius.toFixed(6)}, one-step RMS ${g.oneStepRms.toExponential(2)}`);
     return `linear model fitted on ${model.fittedOn.episodes.length} episodes of ${model.fittedOn.splits.join(', ')}\n  ${groups.join('\n  ')}`;
   }
   if (model.greyBox) return `grey-box estimates for ${model.greyBox.episodes.length} episodes of ${model.fittedOn.splits.join(', ')}`;

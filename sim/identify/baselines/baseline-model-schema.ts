@@ -39,7 +39,7 @@ const identification = {
 
 const linearGroup = {
   type: 'object',
-  required: ['nodeCount', 'channelCount', 'episodes', 'snapshotCount', 'singularValues', 'rank', 'rankTolerance', 'oneStepRms', 'operator'],
+  required: ['nodeCount', 'channelCount', 'episodes', 'snapshotCount', 'singularValues', 'rank', 'rankTolerance', 'spectralRadius', 'oneStepRms', 'operator'],
   additionalProperties: false,
   properties: {
     nodeCount: { type: 'integer', minimum: 1 },
@@ -49,6 +49,7 @@ const linearGroup = {
     singularValues: { type: 'array', items: { type: 'number' } },
     rank: { type: 'integer', minimum: 0 },
     rankTolerance: { type: 'number' },
+    spectralRadius: { type: 'number' },
     oneStepRms: { type: 'number' },
     operator: {
       type: 'object',

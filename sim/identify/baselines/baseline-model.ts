@@ -18,6 +18,8 @@ export interface LinearGroup {
   singularValues: number[];
   rank: number;
   rankTolerance: number;
+  /** Spectral radius of the state-transition matrix; above 1 a rollout can grow without bound. */
+  spectralRadius: number;
   oneStepRms: number;
   /** G = [A_0 … A_K  B  b], n rows × p columns, row-major. */
   operator: { rows: number; columns: number; data: number[] };

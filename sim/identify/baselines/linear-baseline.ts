@@ -40,7 +40,7 @@ export function fitLinearBaseline(trajectories: readonly EpisodeTrajectory[], op
     if (snapshotCount(layout, members) === 0) {
       throw new BaselineInputError(`episodes ${members.map((m) => m.id).join(', ')} have no more recorded steps than --delays ${options.delays}; give fewer delays`);
     }
-    const fit = fitLinearOperator(buildSnapshots(layout, members), options.rank);
+    const fit = fitLinearOperator(buildSnapshots(layout, members), options.rank, options.delays);
     fitted.push({
       nodeCount: layout.nodeCount,
       channelCount: layout.channelCount,
@@ -49,6 +49,7 @@ export function fitLinearBaseline(trajectories: readonly EpisodeTrajectory[], op
       singularValues: fit.singularValues,
       rank: fit.rank,
       rankTolerance: fit.rankTolerance,
+      spectralRadius: fit.spectralRadius,
       oneStepRms: fit.oneStepRms,
       operator: { rows: fit.stateSize, columns: fit.snapshotSize, data: Array.from(fit.operator) },
     });

@@ -3,8 +3,8 @@
 // with control: Proctor, Brunton & Kutz, "Dynamic mode decomposition with control", SIAM J.
 // Appl. Dyn. Syst. 15(1), 2016, eqs. 3.5–3.9): with Ωᵀ = U Σ Vᵀ truncated to rank r,
 // Gᵀ = V_r Σ_r⁻¹ U_rᵀ Z'ᵀ, the minimum-norm least-squares solution on the kept subspace.
-// The decomposition is ml-matrix's.
-import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+// The decompositions (SVD, eigenvalues for the "stable" rule) are ml-matrix's.
+import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { chooseRank, numericalRankTolerance, type RankChoice } from './rank-rule.ts';
 import type { SnapshotMatrices } from './linear-snapshots.ts';
 
@@ -18,32 +18,62 @@ export interface LinearOperatorFit {
   singularValues: number[];
   rank: number;
   rankTolerance: number;
+  /** Spectral radius of the fitted state-transition matrix (delay companion form). */
+  spectralRadius: number;
   /** Root mean square of the one-step residual Z' − GΩ over the fitted snapshots. */
   oneStepRms: number;
 }
 
-export function fitLinearOperator(snapshots: SnapshotMatrices, choice: RankChoice): LinearOperatorFit {
+/** Spectral radius above which the "stable" rule calls an operator unstable: 1 plus rounding. */
+const STABLE_RADIUS = 1 + 1e-9;
+
+export function fitLinearOperator(snapshots: SnapshotMatrices, choice: RankChoice, delays = 0): LinearOperatorFit {
   const m = snapshots.rows;
   const p = snapshots.snapshotSize;
   const n = snapshots.stateSize;
   const omegaT = Matrix.from1DArray(m, p, snapshots.inputsT);
   const nextT = Matrix.from1DArray(m, n, snapshots.nextStatesT);
-  const svd = new SingularValueDecomposition(omegaT, { autoTranspose: true, computeLeftSingularVectors: true, computeRightSingularVectors: true });
+  const svd = new SingularValueDecomposition(omegaT, { autoTranspose: true });
   const sigma = svd.diagonal;
-  const rank = chooseRank(sigma, m, p, choice);
   const u = svd.leftSingularVectors; // m × min(m, p)
   const v = svd.rightSingularVectors; // p × min(m, p)
-  // Gᵀ = V_r Σ_r⁻¹ (U_rᵀ Z'ᵀ), formed without the unkept columns.
-  const ur = u.subMatrix(0, m - 1, 0, Math.max(rank, 1) - 1);
-  const vr = v.subMatrix(0, p - 1, 0, Math.max(rank, 1) - 1);
-  const projected = ur.transpose().mmul(nextT); // r × n
-  for (let i = 0; i < rank; i++) for (let c = 0; c < n; c++) projected.set(i, c, projected.get(i, c) / sigma[i]);
-  const gT = rank > 0 ? vr.mmul(projected) : Matrix.zeros(p, n); // p × n
-  const operator = new Float64Array(n * p);
-  for (let r = 0; r < n; r++) for (let c = 0; c < p; c++) operator[r * p + c] = gT.get(c, r);
-  const residual = nextT.sub(omegaT.mmul(gT));
+  const projected = u.transpose().mmul(nextT); // min(m, p) × n: U ᵀ Z'ᵀ, shared by every rank
+  const operatorOfRank = (rank: number): Float64Array => {
+    const operator = new Float64Array(n * p);
+    for (let i = 0; i < rank; i++) {
+      for (let r = 0; r < n; r++) {
+        const w = projected.get(i, r) / sigma[i];
+        if (w === 0) continue;
+        for (let c = 0; c < p; c++) operator[r * p + c] += v.get(c, i) * w;
+      }
+    }
+    return operator;
+  };
+  let rank: number;
+  if (choice.kind === 'stable') {
+    // The largest rank up to the numerical one whose rollout cannot grow without bound; found
+    // by bisection, taking stability to be lost once and for all as the rank grows.
+    let high = chooseRank(sigma, m, p, { kind: 'auto' });
+    if (spectralRadius(operatorOfRank(high), n, p, delays) <= STABLE_RADIUS) rank = high;
+    else {
+      let low = 0;
+      while (high - low > 1) {
+        const mid = (low + high) >> 1;
+        if (spectralRadius(operatorOfRank(mid), n, p, delays) <= STABLE_RADIUS) low = mid;
+        else high = mid;
+      }
+      rank = low;
+    }
+  } else rank = chooseRank(sigma, m, p, choice);
+  const operator = operatorOfRank(rank);
   let sumSquares = 0;
-  for (let i = 0; i < m; i++) for (let c = 0; c < n; c++) sumSquares += residual.get(i, c) ** 2;
+  for (let j = 0; j < m; j++) {
+    for (let r = 0; r < n; r++) {
+      let fitted = 0;
+      for (let c = 0; c < p; c++) fitted += operator[r * p + c] * snapshots.inputsT[j * p + c];
+      sumSquares += (snapshots.nextStatesT[j * n + r] - fitted) ** 2;
+    }
+  }
   return {
     operator,
     stateSize: n,
@@ -52,6 +82,24 @@ export function fitLinearOperator(snapshots: SnapshotMatrices, choice: RankChoic
     singularValues: sigma.slice(),
     rank,
     rankTolerance: numericalRankTolerance(sigma, m, p),
+    spectralRadius: spectralRadius(operator, n, p, delays),
     oneStepRms: Math.sqrt(sumSquares / Math.max(1, m * n)),
   };
+}
+
+/**
+ * Largest |λ| of the state-transition matrix of z_{t+1} = Σ_d A_d z_{t−d} + …, written in
+ * companion form [A_0 … A_K; I 0 …; …; 0 … I 0] so delays are part of the state.
+ */
+export function spectralRadius(operator: Float64Array, n: number, p: number, delays: number): number {
+  const size = n * (delays + 1);
+  const companion = new Matrix(size, size);
+  for (let r = 0; r < n; r++) for (let c = 0; c < size; c++) companion.set(r, c, operator[r * p + c]);
+  for (let r = n; r < size; r++) companion.set(r, r - n, 1);
+  const eigen = new EigenvalueDecomposition(companion);
+  let radius = 0;
+  const re = eigen.realEigenvalues;
+  const im = eigen.imaginaryEigenvalues;
+  for (let i = 0; i < re.length; i++) radius = Math.max(radius, Math.hypot(re[i], im[i]));
+  return radius;
 }
