@@ -114,9 +114,9 @@ export const BASELINE_MODEL_SCHEMA = {
           type: 'array',
           items: {
             type: 'object',
-            required: ['name', 'unit', 'episodes', 'medianRelativeError', 'maxRelativeError'],
+            required: ['name', 'unit', 'episodes', 'medianRelativeError', 'maxRelativeError', 'maxAbsoluteError'],
             additionalProperties: false,
-            properties: { name: { type: 'string' }, unit: { type: 'string' }, episodes: { type: 'integer' }, medianRelativeError: nullableNumber, maxRelativeError: nullableNumber },
+            properties: { name: { type: 'string' }, unit: { type: 'string' }, episodes: { type: 'integer' }, medianRelativeError: nullableNumber, maxRelativeError: nullableNumber, maxAbsoluteError: nullableNumber },
           },
         },
         warnings: { type: 'array', items: { type: 'string' } },

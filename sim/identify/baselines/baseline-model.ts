@@ -39,6 +39,8 @@ export interface ParameterSummary {
   episodes: number;
   medianRelativeError: number | null;
   maxRelativeError: number | null;
+  /** Largest |estimate − truth| over the episodes, in the parameter's unit (the measure for true zeros). */
+  maxAbsoluteError: number | null;
 }
 
 export interface GreyBoxModelPart {

@@ -28,12 +28,13 @@ export function greyBoxWarnings(record: EpisodeRecord, scenario: unknown, export
 }
 
 export function summariseParameters(identifications: readonly EpisodeIdentification[]): ParameterSummary[] {
-  const names = new Map<string, { unit: string; errors: number[]; episodes: number }>();
+  const names = new Map<string, { unit: string; errors: number[]; absolute: number[]; episodes: number }>();
   for (const id of identifications) {
     for (const p of id.parameters) {
-      const entry = names.get(p.name) ?? { unit: p.unit, errors: [], episodes: 0 };
+      const entry = names.get(p.name) ?? { unit: p.unit, errors: [], absolute: [], episodes: 0 };
       entry.episodes++;
       if (p.relativeError !== null) entry.errors.push(p.relativeError);
+      if (p.absoluteError !== null) entry.absolute.push(p.absoluteError);
       names.set(p.name, entry);
     }
   }
@@ -45,6 +46,7 @@ export function summariseParameters(identifications: readonly EpisodeIdentificat
       episodes: e.episodes,
       medianRelativeError: sorted.length ? sorted[sorted.length >> 1] : null,
       maxRelativeError: sorted.length ? sorted[sorted.length - 1] : null,
+      maxAbsoluteError: e.absolute.length ? Math.max(...e.absolute) : null,
     };
   });
 }

@@ -26,9 +26,9 @@ export function greyBoxReport(model: BaselineModel): string {
     for (const w of part.warnings) lines.push(`- ${w}`);
     lines.push('');
   }
-  lines.push('## Summary', '', '| parameter | unit | episodes | median relative error | largest relative error |', '| --- | --- | --- | --- | --- |');
-  for (const s of part.summary) lines.push(`| ${s.name} | ${s.unit} | ${s.episodes} | ${percent(s.medianRelativeError)} | ${percent(s.maxRelativeError)} |`);
-  lines.push('', 'Relative errors are |estimate − truth| / |truth|; a true value of zero has none (its absolute error is in the JSON file).', '');
+  lines.push('## Summary', '', '| parameter | unit | episodes | median relative error | largest relative error | largest absolute error |', '| --- | --- | --- | --- | --- | --- |');
+  for (const s of part.summary) lines.push(`| ${s.name} | ${s.unit} | ${s.episodes} | ${percent(s.medianRelativeError)} | ${percent(s.maxRelativeError)} | ${number(s.maxAbsoluteError, 2)} |`);
+  lines.push('', 'Relative errors are |estimate − truth| / |truth|; a true value of zero has none, only an absolute error.', '');
   lines.push('## Episodes', '');
   for (const e of part.episodes) {
     lines.push(`### ${e.episode} (${e.split})`, '');
