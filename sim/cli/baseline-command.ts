@@ -2,6 +2,7 @@
 // persistence and constant-velocity floors, a linear model with inputs (DMDc) and grey-box
 // parameter identification — fitted on a dataset's train split and written as predictions
 // folders that `pliant score` reads. See sim/identify/baselines/BASELINES.md.
+import { mkdirSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import type { CliCommand, CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
@@ -93,7 +94,10 @@ async function runFit(parsed: ParsedArguments, io: CliIo): Promise<number> {
   const outPath = resolve(io.cwd, out);
   const dataset = await guarded(() => openDataset(resolve(io.cwd, parsed.positionals[0])));
   const fitted = await guarded(() => fitBaseline(dataset, { model, splits, linear: { delays, affine: !parsed.switches.has('--no-affine'), stateForm, rank } }));
-  await guarded(async () => writeBaselineModel(outPath, fitted));
+  await guarded(async () => {
+    mkdirSync(dirname(outPath), { recursive: true });
+    writeBaselineModel(outPath, fitted);
+  });
   io.stdout(`${shownPath(io.cwd, outPath)}: ${summary(fitted)}\n`);
   if (fitted.greyBox) {
     const report = reportPath(outPath);
