@@ -168,6 +168,7 @@ describe('pliant baseline: bad inputs exit with 2 and a message, never a stack t
     ['predicting with a grey-box file', async () => ['predict', 'grey.json', 'tether', '--out', 'p'], /holds estimated parameters, not a predictor/],
     ['--model linear without a fit', async () => ['predict', '--model', 'linear', 'tether', '--out', 'p'], /needs fitting first/],
     ['a linear model without an operator for the episodes\' node count', async () => ['predict', 'linear.json', 'no-train', '--out', 'p'], /no operator for 8 nodes, 2 channels .* cannot predict ep-/],
+    ['--skip-unfitted with no episode of a fitted size', async () => ['predict', 'linear.json', 'no-train', '--out', 'p', '--skip-unfitted'], /has an operator for none of the episodes of validation, test/],
     ['a model file that is not JSON', async () => { writeFileSync(join(work, 'broken.json'), '{"baselineModelFormat": 1,'); return ['predict', 'broken.json', 'tether', '--out', 'p']; }, /broken.json: not valid JSON/],
     ['a model file naming an unknown model', async () => {
       const m = JSON.parse(readFileSync(join(work, 'linear.json'), 'utf8'));

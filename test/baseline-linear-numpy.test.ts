@@ -94,6 +94,23 @@ describe.skipIf(!python.available)('linear baseline (DMDc) against numpy.linalg'
     });
   }
 
+  it('keeps under "energy:F" the rank NumPy\'s cumulative sum of σ² gives', () => {
+    const snapshots = buildSnapshots(layout, train);
+    for (const fraction of [0.9, 0.999999]) {
+      const fit = fitLinearOperator(snapshots, { kind: 'energy', fraction });
+      const reference = runReferencePython<{ rank: number }>(
+        [
+          'import json, sys, numpy as np',
+          'd = json.load(sys.stdin); s = np.linalg.svd(np.array(d["omega"]).reshape(d["m"], d["p"]), compute_uv=False)',
+          'e = np.cumsum(s ** 2) / np.sum(s ** 2)',
+          'print(json.dumps({"rank": int(np.searchsorted(e, d["f"]) + 1)}))',
+        ].join('\n'),
+        { omega: Array.from(snapshots.inputsT), m: snapshots.rows, p: snapshots.snapshotSize, f: fraction },
+      );
+      expect(fit.rank).toBe(reference.rank);
+    }
+  });
+
   it('predicts the next state of held-back episodes of the linear system to rounding level', () => {
     const fit = fitLinearOperator(buildSnapshots(layout, train), { kind: 'auto' });
     const snapshots = buildSnapshots(layout, held);

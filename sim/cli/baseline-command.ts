@@ -104,8 +104,13 @@ async function runFit(parsed: ParsedArguments, io: CliIo): Promise<number> {
     await guarded(async () => writeFileAtomic(report, new TextEncoder().encode(greyBoxReport(fitted))));
     io.stdout(`${shownPath(io.cwd, report)}: identification report\n`);
     for (const s of fitted.greyBox.summary) {
-      const relative = s.medianRelativeError === null ? 'true value 0' : `relative error median ${s.medianRelativeError.toExponential(2)}, largest ${s.maxRelativeError!.toExponential(2)}`;
-      io.stdout(`  ${s.name.padEnd(22)} ${relative}; largest absolute error ${s.maxAbsoluteError === null ? '—' : `${s.maxAbsoluteError.toExponential(2)} ${s.unit}`}\n`);
+      const absolute = s.maxAbsoluteError === null ? '' : `largest absolute error ${s.maxAbsoluteError.toExponential(2)} ${s.unit}`;
+      const line = s.maxAbsoluteError === null
+        ? 'no true value to compare with'
+        : s.medianRelativeError === null
+          ? `true value 0; ${absolute}`
+          : `relative error median ${s.medianRelativeError.toExponential(2)}, largest ${s.maxRelativeError!.toExponential(2)}; ${absolute}`;
+      io.stdout(`  ${s.name.padEnd(23)} ${line}\n`);
     }
     for (const w of fitted.greyBox.warnings) io.stderr(`warning: ${w}\n`);
     io.stdout(`${SAFETY_CAUTION}\n`);

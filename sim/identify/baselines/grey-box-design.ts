@@ -219,12 +219,12 @@ function writeRegressors(ctx: RegressorContext, t: number, out: Float64Array): v
     const kc = ctx.stiffnessColumn.get(relation)!;
     const dc = ctx.dampingColumn.get(relation)!;
     const damp = dampingWeight[s] * dvn;
-    const axis = [nx, ny, nz];
     for (let k = 0; k < 3; k++) {
-      out[(3 * a + k) * p + kc] += stretch * axis[k];
-      out[(3 * b + k) * p + kc] -= stretch * axis[k];
-      out[(3 * a + k) * p + dc] += damp * axis[k];
-      out[(3 * b + k) * p + dc] -= damp * axis[k];
+      const nk = k === 0 ? nx : k === 1 ? ny : nz;
+      out[(3 * a + k) * p + kc] += stretch * nk;
+      out[(3 * b + k) * p + kc] -= stretch * nk;
+      out[(3 * a + k) * p + dc] += damp * nk;
+      out[(3 * b + k) * p + dc] -= damp * nk;
     }
     if (ctx.fluidColumn >= 0 && relation === STRUCTURAL) {
       // Segment drag of fluid-drag.ts per unit of C·w: −½·L·(C_t·u_t·t̂ + C_n·(u − u_t·t̂)) on each end.
@@ -234,10 +234,11 @@ function writeRegressors(ctx: RegressorContext, t: number, out: Float64Array): v
       const uz = 0.5 * (v[ia + 2] + v[ib + 2]) - flow[2];
       const ut = ux * nx + uy * ny + uz * nz;
       const half = 0.5 * length;
-      const u = [ux, uy, uz];
       for (let k = 0; k < 3; k++) {
-        const normal = -half * (u[k] - ut * axis[k]);
-        const tangential = -half * ut * axis[k];
+        const nk = k === 0 ? nx : k === 1 ? ny : nz;
+        const uk = k === 0 ? ux : k === 1 ? uy : uz;
+        const normal = -half * (uk - ut * nk);
+        const tangential = -half * ut * nk;
         out[(3 * a + k) * p + ctx.fluidColumn] += normal;
         out[(3 * b + k) * p + ctx.fluidColumn] += normal;
         out[(3 * a + k) * p + ctx.fluidColumn + 1] += tangential;
