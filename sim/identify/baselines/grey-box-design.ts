@@ -7,9 +7,10 @@
 // mass μ̄_r; Pliant sets c = 2ζ√(kμ), so spring dampings scale with √μ), the apparent gravity
 // g (weight net of buoyancy, per unit mass), the air-drag rate λ and, for chains in a fluid,
 // the resistive-force coefficients times the chain's width, C_n·w and C_t·w. With one sub-step
-// per record interval the forces are those of the recorded state at t, exactly; with s > 1
-// sub-steps the mean force over the interval is taken as the mean of the regressors at t and
-// t+1 (trapezoidal rule, error O(Δt²) instead of O(Δt)).
+// per record interval the forces are those of the recorded state at t, exactly. With s > 1
+// sub-steps, Δv is dt·Σ_j F_j/m over sub-step states at t + j·dt (j = 0 … s−1), whose mean time
+// is t + w·Δt with w = (s−1)/(2s); the regressors are interpolated there between the recorded
+// rows t and t+1, (1−w)·R_t + w·R_{t+1}, which leaves an O(Δt²) error instead of O(Δt).
 // Rows are left out where the law above does not hold: pinned, driven and handle nodes (their
 // motion or force is prescribed), nodes on a spring an actuator may stretch, and nodes near the
 // ground plane in that interval (the contact projection changes their velocity).
@@ -95,7 +96,8 @@ export function buildGreyBoxDesign(episode: EpisodeTrajectory, structure: GreyBo
   let current = new Float64Array(block);
   let following = new Float64Array(block);
   const averaged = new Float64Array(block);
-  const trapezoid = episode.substeps > 1;
+  const interpolated = episode.substeps > 1;
+  const w = (episode.substeps - 1) / (2 * episode.substeps);
   const context = { episode, structure, massKg, dampingWeight, stiffnessColumn, dampingColumn, gravityColumn, airColumn, fluidColumn, p };
   writeRegressors(context, 0, current);
 
@@ -109,9 +111,9 @@ export function buildGreyBoxDesign(episode: EpisodeTrajectory, structure: GreyBo
   const v = episode.velocityMPerS;
   for (let t = 0; t < episode.steps; t++) {
     let used = current;
-    if (trapezoid) {
+    if (interpolated) {
       writeRegressors(context, t + 1, following);
-      for (let j = 0; j < block; j++) averaged[j] = 0.5 * (current[j] + following[j]);
+      for (let j = 0; j < block; j++) averaged[j] = (1 - w) * current[j] + w * following[j];
       used = averaged;
     }
     const now = t * 3 * n;
@@ -132,7 +134,7 @@ export function buildGreyBoxDesign(episode: EpisodeTrajectory, structure: GreyBo
         rows++;
       }
     }
-    if (trapezoid) [current, following] = [following, current];
+    if (interpolated) [current, following] = [following, current];
     else if (t + 1 < episode.steps) writeRegressors(context, t + 1, current);
   }
   return {
