@@ -169,6 +169,7 @@ describe('pliant baseline: bad inputs exit with 2 and a message, never a stack t
     ['--model linear without a fit', async () => ['predict', '--model', 'linear', 'tether', '--out', 'p'], /needs fitting first/],
     ['a linear model without an operator for the episodes\' node count', async () => ['predict', 'linear.json', 'no-train', '--out', 'p'], /no operator for 8 nodes, 2 channels .* cannot predict ep-/],
     ['--skip-unfitted with no episode of a fitted size', async () => ['predict', 'linear.json', 'no-train', '--out', 'p', '--skip-unfitted'], /has an operator for none of the episodes of validation, test/],
+    ['--out naming a folder that holds other files (the dataset itself)', async () => ['predict', '--model', 'persistence', 'tether', '--out', 'tether'], /tether already holds files that are not predictions; give --out a new or empty folder/],
     ['a model file that is not JSON', async () => { writeFileSync(join(work, 'broken.json'), '{"baselineModelFormat": 1,'); return ['predict', 'broken.json', 'tether', '--out', 'p']; }, /broken.json: not valid JSON/],
     ['a model file naming an unknown model', async () => {
       const m = JSON.parse(readFileSync(join(work, 'linear.json'), 'utf8'));

@@ -12,15 +12,14 @@ import { shownPath } from './shown-path.ts';
 import { DatasetNotFoundError } from '../dataset/dataset-not-found-error.ts';
 import { writeFileAtomic } from '../dataset/atomic-file.ts';
 import { BaselineInputError } from '../identify/baselines/baseline-input-error.ts';
-import { BASELINE_MODEL_NAMES, type BaselineModel, type BaselineModelName } from '../identify/baselines/baseline-model.ts';
+import { BASELINE_MODEL_NAMES, type BaselineModel } from '../identify/baselines/baseline-model.ts';
 import { readBaselineModel, writeBaselineModel } from '../identify/baselines/baseline-model-file.ts';
-import { fitBaseline } from '../identify/baselines/baseline-fit.ts';
+import { baselineModelHead, fitBaseline } from '../identify/baselines/baseline-fit.ts';
 import { predictBaseline } from '../identify/baselines/baseline-predict.ts';
-import { openDataset, type OpenDataset } from '../identify/baselines/dataset-episodes.ts';
+import { openDataset } from '../identify/baselines/dataset-episodes.ts';
 import { greyBoxReport } from '../identify/baselines/grey-box-report.ts';
 import { parseRankChoice } from '../identify/baselines/rank-rule.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
-import { PLIANT_VERSION } from './version.ts';
 
 const USAGE = [
   'Usage: pliant baseline fit DATASET --model MODEL --out MODEL.json [options]',
@@ -127,18 +126,6 @@ function summary(model: BaselineModel): string {
   return `${model.model} floor (nothing to fit) for ${model.dataset.name}`;
 }
 
-function floorModel(name: BaselineModelName, dataset: OpenDataset): BaselineModel {
-  const m = dataset.manifest;
-  return {
-    baselineModelFormat: 1,
-    model: name,
-    pliantVersion: PLIANT_VERSION,
-    dataset: { name: m.name, masterSeed: m.masterSeed, episodeCount: m.episodeCount, exportDtype: m.export.dtype },
-    fittedOn: { splits: [], episodes: [] },
-    safetyCaution: SAFETY_CAUTION,
-  };
-}
-
 async function runPredict(parsed: ParsedArguments, io: CliIo): Promise<number> {
   const modelText = parsed.values.get('--model');
   const expected = modelText === undefined ? 2 : 1;
@@ -155,7 +142,7 @@ async function runPredict(parsed: ParsedArguments, io: CliIo): Promise<number> {
   if (modelText !== undefined) {
     const name = choiceOption('--model', modelText, BASELINE_MODEL_NAMES);
     if (name !== 'persistence' && name !== 'constant-velocity') throw new CliUsageError(`--model ${name} needs fitting first: pliant baseline fit DATASET --model ${name} --out MODEL.json, then predict with MODEL.json`);
-    model = floorModel(name, dataset);
+    model = baselineModelHead(dataset, name, { splits: [], episodes: [] });
   } else {
     model = await guarded(() => readBaselineModel(resolve(io.cwd, parsed.positionals[0])));
     if (model.dataset.name !== dataset.manifest.name || model.dataset.masterSeed !== dataset.manifest.masterSeed) {

@@ -15,6 +15,19 @@ export interface FitRequest {
   linear: LinearOptions;
 }
 
+/** The members every model file has: which model, fitted on what, and the safety caution. */
+export function baselineModelHead(dataset: OpenDataset, name: BaselineModelName, fittedOn: BaselineModel['fittedOn']): BaselineModel {
+  const m = dataset.manifest;
+  return {
+    baselineModelFormat: BASELINE_MODEL_FORMAT,
+    model: name,
+    pliantVersion: PLIANT_VERSION,
+    dataset: { name: m.name, masterSeed: m.masterSeed, episodeCount: m.episodeCount, exportDtype: m.export.dtype },
+    fittedOn,
+    safetyCaution: SAFETY_CAUTION,
+  };
+}
+
 export async function fitBaseline(dataset: OpenDataset, request: FitRequest): Promise<BaselineModel> {
   const records = episodesOfSplits(dataset, request.splits);
   const needsData = request.model === 'linear' || request.model === 'grey-box';
@@ -23,14 +36,7 @@ export async function fitBaseline(dataset: OpenDataset, request: FitRequest): Pr
     throw new BaselineInputError(`${dataset.dir} has no ok episodes in ${request.splits.join(', ')} to fit the ${request.model} baseline on (ok episodes per split: ${counts}); choose a split that has some with --split`);
   }
   const manifest = dataset.manifest;
-  const model: BaselineModel = {
-    baselineModelFormat: BASELINE_MODEL_FORMAT,
-    model: request.model,
-    pliantVersion: PLIANT_VERSION,
-    dataset: { name: manifest.name, masterSeed: manifest.masterSeed, episodeCount: manifest.episodeCount, exportDtype: manifest.export.dtype },
-    fittedOn: { splits: request.splits, episodes: needsData ? records.map((r) => r.id) : [] },
-    safetyCaution: SAFETY_CAUTION,
-  };
+  const model = baselineModelHead(dataset, request.model, { splits: request.splits, episodes: needsData ? records.map((r) => r.id) : [] });
   if (request.model === 'linear') {
     const trajectories = [];
     for (const record of records) trajectories.push(await loadTrajectory(dataset, record));

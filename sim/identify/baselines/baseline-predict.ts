@@ -61,7 +61,7 @@ export async function predictBaseline(model: BaselineModel, dataset: OpenDataset
     const badVelocity = out.velocityMPerS.findIndex((x) => !Number.isFinite(x));
     if (firstBad >= 0 || badVelocity >= 0) {
       const row = Math.floor(Math.max(firstBad, badVelocity) / (3 * start.nodeCount));
-      throw new BaselineInputError(`the ${model.model} model's rollout of ${record.id} leaves the finite numbers by record row ${row}: the fitted operator is unstable there. Refit with a smaller --rank (e.g. --rank energy:0.9999) or more training episodes; ${request.outDir} is left without ${'predictions.json'}`);
+      throw new BaselineInputError(`the ${model.model} model's rollout of ${record.id} leaves the finite numbers by record row ${row}: the fitted operator is unstable there. Refit with --rank stable (the default), a smaller --rank or more training episodes; ${request.outDir} is left unfinished, without predictions.json`);
     }
     writePredictedEpisode(request.outDir, record.id, start.steps, start.nodeCount, out.positionM, out.velocityMPerS);
     written.push(record.id);

@@ -13,8 +13,8 @@ export const PREDICTIONS_FILE = 'predictions.json';
 export const PREDICTIONS_FORMAT = 1;
 
 /**
- * Makes `dir` ready: creates it, or empties an earlier predictions folder (one holding
- * predictions.json and .npz files only). Any other non-empty folder is refused.
+ * Makes `dir` ready: creates it, or empties an earlier predictions folder (one holding only
+ * predictions.json and .npz files). Any other non-empty folder is refused.
  */
 export function preparePredictionsFolder(dir: string): void {
   let entries: string[] = [];
@@ -27,8 +27,9 @@ export function preparePredictionsFolder(dir: string): void {
     return;
   }
   if (entries.length === 0) return;
+  // An unfinished run leaves NPZ files without predictions.json; that folder is ours too.
   const ours = entries.every((name) => name === PREDICTIONS_FILE || name.endsWith('.npz'));
-  if (!entries.includes(PREDICTIONS_FILE) || !ours) {
+  if (!ours) {
     throw new DatasetRequestError(`${dir} already holds files that are not predictions; give --out a new or empty folder`);
   }
   for (const name of entries) rmSync(join(dir, name));
