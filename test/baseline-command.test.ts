@@ -120,6 +120,19 @@ describe('pliant baseline: predictions folders', () => {
     expect(worst.constantVelocity).toBeLessThan(1e-12);
   });
 
+  it('records the linear options it was fitted with: absolute state, no constant column, at most 5 singular values', async () => {
+    const run = await pliant('baseline', 'fit', 'tether', '--model', 'linear', '--state', 'absolute', '--no-affine', '--rank', '5', '--out', 'models/linear-5.json');
+    expect(run.code, run.err).toBe(0);
+    expect(run.out).toContain(SAFETY_CAUTION);
+    const model = JSON.parse(readFileSync(join(work, 'models/linear-5.json'), 'utf8'));
+    expect(model.linear).toMatchObject({ delays: 0, affine: false, stateForm: 'absolute', rankRule: '5' });
+    for (const group of model.linear.groups) {
+      expect(group.rank).toBe(5);
+      expect(group.operator.columns).toBe(6 * group.nodeCount + group.channelCount);
+    }
+    expect((await pliant('baseline', 'predict', 'models/linear-5.json', 'tether', '--out', 'pred-linear-5')).code).toBe(0);
+  });
+
   it('writes the same bytes when the same model predicts again', async () => {
     expect((await pliant('baseline', 'predict', 'linear.json', 'tether', '--out', 'pred-linear-again')).code).toBe(0);
     for (const name of readdirSync(join(work, 'pred-linear'))) {

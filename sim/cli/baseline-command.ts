@@ -112,8 +112,8 @@ async function runFit(parsed: ParsedArguments, io: CliIo): Promise<number> {
       io.stdout(`  ${s.name.padEnd(23)} ${line}\n`);
     }
     for (const w of fitted.greyBox.warnings) io.stderr(`warning: ${w}\n`);
-    io.stdout(`${SAFETY_CAUTION}\n`);
   }
+  io.stdout(`${SAFETY_CAUTION}\n`);
   return 0;
 }
 
