@@ -3,6 +3,7 @@
 // createDefaultServices, so the desktop app and web mode answer every request with the same code;
 // tests may replace single parts.
 import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/app-worker-urls.ts';
+import { SCORE_JOB_WORKER_URL } from '../sim/identify/score/score-worker-url.ts';
 import type { JobKind } from './bridge-contract.ts';
 import type { DatasetReader, IdentificationReader, ScenarioChecker, SeedReader } from './request-services.ts';
 import { SIM_IDENTIFICATION_READER } from './sim-identification-reader.ts';
@@ -25,7 +26,7 @@ export function simPipelineServices(): PipelineServices {
     datasetReader: createSimDatasetReader({ verifyWorkerUrl: DATASET_VERIFY_WORKER_URL }),
     seedReader: SIM_SEED_READER,
     identificationReader: SIM_IDENTIFICATION_READER,
-    // One worker entry serves both kinds; it reads the kind from the job it is given.
-    jobWorkerUrls: { export: DATASET_JOB_WORKER_URL, reproduce: DATASET_JOB_WORKER_URL },
+    // One worker entry serves export and reproduce; it reads the kind from the job it is given.
+    jobWorkerUrls: { export: DATASET_JOB_WORKER_URL, reproduce: DATASET_JOB_WORKER_URL, score: SCORE_JOB_WORKER_URL },
   };
 }

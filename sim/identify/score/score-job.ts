@@ -1,0 +1,66 @@
+// One score job for the app: scores a predictions folder against a dataset (the same code and the
+// same report files as `pliant score`) and reports progress as the job runner's messages
+// (electron/job-worker-protocol.ts). Expected failures — a predictions folder that does not fit
+// the dataset, a damaged file — end the job with their message, never a stack trace.
+import { DatasetNotFoundError } from '../../dataset/dataset-not-found-error.ts';
+import { DatasetReadError } from '../../dataset/dataset-read-error.ts';
+import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+import { DatasetWriteError } from '../../dataset/dataset-write-error.ts';
+import { PredictionsError } from '../predictions/predictions-error.ts';
+import { writeScore } from './score-outputs.ts';
+import { DEFAULT_VPT_THRESHOLD, scorePredictions } from './score-predictions.ts';
+
+export interface ScoreJob {
+  kind: 'score';
+  datasetDir: string;
+  predictionsDir: string;
+  outDir: string;
+}
+
+export type ScoreJobMessage =
+  | { type: 'progress'; done: number; total: number }
+  | { type: 'done'; done: number; total: number; message?: string }
+  | { type: 'cancelled'; done: number; total: number }
+  | { type: 'failed'; message: string };
+
+class ScoreCancelled extends Error {}
+
+const PROGRESS_INTERVAL_MS = 200;
+
+export async function runScoreJob(job: ScoreJob, post: (message: ScoreJobMessage) => void, cancelled: () => boolean, nowMs: () => number = Date.now): Promise<void> {
+  let done = 0;
+  let total = 0;
+  let lastPostMs = -Infinity;
+  try {
+    const score = await scorePredictions({
+      datasetDir: job.datasetDir,
+      predictionsDir: job.predictionsDir,
+      splits: null,
+      horizons: null,
+      vptThreshold: DEFAULT_VPT_THRESHOLD,
+      onEpisode: (finished, of) => {
+        done = finished;
+        total = of;
+        if (cancelled()) throw new ScoreCancelled();
+        const now = nowMs();
+        if (now - lastPostMs >= PROGRESS_INTERVAL_MS || finished === of) {
+          lastPostMs = now;
+          post({ type: 'progress', done, total });
+        }
+      },
+    });
+    writeScore(job.outDir, score);
+    done = score.episodes.length;
+    post({ type: 'done', done, total: done, message: `Scored ${done} predicted episodes of ${score.dataset.name} (${score.predictions.model || 'unnamed model'}); score.json, REPORT.md and the plots are in the report folder.` });
+  } catch (error) {
+    if (error instanceof ScoreCancelled) {
+      post({ type: 'cancelled', done, total });
+      return;
+    }
+    if (error instanceof PredictionsError || error instanceof DatasetRequestError || error instanceof DatasetReadError || error instanceof DatasetWriteError || error instanceof DatasetNotFoundError) {
+      post({ type: 'failed', message: error.message });
+      return;
+    }
+    throw error;
+  }
+}
