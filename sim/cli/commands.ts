@@ -8,5 +8,6 @@ import { verifyCommand } from './verify-command.ts';
 import { reproduceCommand } from './reproduce-command.ts';
 import { inspectCommand } from './inspect-command.ts';
 import { demoCommand } from './demo-command.ts';
+import { calibrateCommand } from './calibrate-command.ts';
 
-export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, demoCommand, benchCommand];
+export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, demoCommand, calibrateCommand, benchCommand];
