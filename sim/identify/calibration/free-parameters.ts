@@ -58,7 +58,7 @@ export function selectParameters(scenario: Scenario, knownParameters: Record<str
   const unknown = (pointer: string, where: string): CalibrationInputError => {
     const near = closestName(pointer, names);
     return new CalibrationInputError(
-      `${where}: "${pointer}" is not a numeric parameter of the scenario${near ? `; did you mean "${near}"?` : ''} The scenario's parameters are: ${names.join(', ')}`,
+      `${where}: "${pointer}" is not a numeric parameter of the scenario${near ? `; did you mean "${near}"?` : '.'} The scenario's parameters are: ${names.join(', ')}`,
     );
   };
   for (const pointer of Object.keys(knownParameters)) {

@@ -50,7 +50,7 @@ export class MarkerTrajectoryModel {
       if (!this.channelNames.includes(drive.channel)) {
         const near = closestName(drive.channel, this.channelNames);
         throw new CalibrationInputError(
-          `${measurement.source} /drive/${drive.channel}: the scenario's system has no control channel "${drive.channel}"${near ? `; did you mean "${near}"?` : ''} Its channels are: ${this.channelNames.join(', ') || 'none'}`,
+          `${measurement.source} /drive/${drive.channel}: the scenario's system has no control channel "${drive.channel}"${near ? `; did you mean "${near}"?` : '.'} Its channels are: ${this.channelNames.join(', ') || 'none'}`,
         );
       }
     }

@@ -46,14 +46,14 @@ export async function readMeasurement(path: string, cwd: string): Promise<Measur
     }
     for (const [name, meaning] of wanted) {
       if (!table.header.includes(name)) {
-        const near = closestName(name, table.header);
-        throw new CalibrationInputError(`${shownTable}:1: the header has no column "${name}" (${meaning})${near ? `; did you mean "${near}"?` : ''} The header has: ${table.header.join(', ')}`);
+        const near = closestName(name, table.header.filter((column) => !wanted.has(column)));
+        throw new CalibrationInputError(`${shownTable}:1: the header has no column "${name}" (${meaning})${near ? `; did you mean "${near}"?` : '.'} The header has: ${table.header.join(', ')}`);
       }
     }
     for (const [index, name] of table.header.entries()) {
       if (!wanted.has(name)) {
         const near = closestName(name, [...wanted.keys()]);
-        throw new CalibrationInputError(`${shownTable}:1: column ${index + 1} "${name}" is not a marker coordinate, time or drive column of ${path}${near ? `; did you mean "${near}"?` : ''} Remove it or name it in the descriptor`);
+        throw new CalibrationInputError(`${shownTable}:1: column ${index + 1} "${name}" is not a marker coordinate, time or drive column of ${path}${near ? `; did you mean "${near}"?` : '.'} Remove it or name it in the descriptor`);
       }
     }
     frameCount = table.rows;
