@@ -7,6 +7,7 @@ import { lattice8x8x8Case } from './lattice-8x8x8.ts';
 import { pipelineEpisodeCases } from './pipeline-episodes.ts';
 import { exportHdf5Case, exportNpzCase } from './pipeline-export.ts';
 import { sweepMemoryCase } from './sweep-memory.ts';
+import { calibrateTetherCase } from './calibrate-tether.ts';
 
 export const BENCHMARK_CASES: BenchmarkCase[] = [
   chain1024Case,
@@ -17,4 +18,5 @@ export const BENCHMARK_CASES: BenchmarkCase[] = [
   exportNpzCase,
   exportHdf5Case,
   sweepMemoryCase,
+  calibrateTetherCase,
 ];
