@@ -87,6 +87,7 @@ export const calibrateCommand: CliCommand = {
       for (const p of result.parameters) {
         lines.push(p.identifiable ? `  ${p.pointer} = ${p.value.toPrecision(6)} ± ${(p.standardError as number).toPrecision(3)} (1 SE)${p.atSearchEdge ? '  at the search edge' : ''}` : `  ${p.pointer}: not identifiable from this data (kept as written)`);
       }
+      if (result.startMismatch) lines.push(`warning: ${result.startMismatch}`);
       lines.push(`wrote ${shownPath(io.cwd, outPath)} (fitted ranges ± ${k} SE) and ${shownPath(io.cwd, reportDir)}/{REPORT.md, calibration.json, ${RESIDUAL_PLOT_FILE}}`, `Caution: ${SAFETY_CAUTION}`, '');
       io.stdout(lines.join('\n'));
       return 0;

@@ -63,7 +63,14 @@ export interface CalibrationResult {
   startFrameRmsM: Float64Array;
   fittedFrameRmsM: Float64Array;
   blowUps: number;
+  /**
+   * Set when frame 0 differs from the simulated start by more than START_MISMATCH_SIGMAS σ̂:
+   * the bench run did not start from the scenario's laid-out shape at rest.
+   */
+  startMismatch: string | null;
 }
+
+export const START_MISMATCH_SIGMAS = 5;
 
 export function calibrate(scenario: Scenario, measurement: Measurement, options: CalibrationOptions = {}): CalibrationResult {
   const selection = selectParameters(scenario, measurement.knownParameters, options.fitPointers, measurement.source);
@@ -138,6 +145,13 @@ export function calibrate(scenario: Scenario, measurement: Measurement, options:
     return out;
   };
   const n = measurement.positionsM.length;
+  const fittedFrameRmsM = frameRms(fit.predictValues(values));
+  // The residual scale: σ̂ when there is a fit, else the typical frame's RMS.
+  const noiseM = uncertainty?.sigmaM ?? [...fittedFrameRmsM.slice(1)].sort((a, b) => a - b)[Math.floor((frames - 1) / 2)];
+  const startMismatch =
+    fittedFrameRmsM[0] > START_MISMATCH_SIGMAS * noiseM
+      ? `frame 0 differs from the simulated start by ${fittedFrameRmsM[0].toExponential(2)} m RMS, more than ${START_MISMATCH_SIGMAS} times the residual scale ${noiseM.toExponential(2)} m: the simulation starts from the scenario's laid-out shape at rest, so the bench run must start there too (check originM, directionUnit, the marker nodes and the table's first frame; see sim/identify/calibration/MEASUREMENT.md)`
+      : null;
   return {
     selection,
     parameters,
@@ -153,8 +167,9 @@ export function calibrate(scenario: Scenario, measurement: Measurement, options:
     rmsM: Math.sqrt(ssrM2 / n),
     frameTimesS: Float64Array.from({ length: frames }, (_, s) => s * model.recordIntervalS),
     startFrameRmsM: frameRms(fit.predictValues(start)),
-    fittedFrameRmsM: frameRms(fit.predictValues(values)),
+    fittedFrameRmsM,
     blowUps: fit.blowUps,
+    startMismatch,
   };
 }
 

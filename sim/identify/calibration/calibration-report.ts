@@ -57,6 +57,8 @@ export function calibrationJson(inputs: ReportInputs): Record<string, unknown> {
       count: result.residualCount,
       degreesOfFreedom: u?.degreesOfFreedom ?? null,
       startRmsM: result.startRmsM,
+      firstFrameRmsM: result.fittedFrameRmsM[0],
+      startMismatch: result.startMismatch,
       fittedRmsM: result.rmsM,
       sigmaM: u?.sigmaM ?? null,
     },
@@ -101,6 +103,7 @@ export function calibrationMarkdown(inputs: ReportInputs): string {
       `${result.residualCount} residuals. Simulated from the scenario's laid-out shape at rest with the recorded drive, ${result.substeps} sub-steps per frame.`,
     '',
   );
+  if (result.startMismatch) lines.push(`**Warning:** ${result.startMismatch}.`, '');
   lines.push('## Fitted parameters', '');
   lines.push(`| parameter | unit | start | fitted | standard error | relative | written to ${inputs.fittedScenarioName} |`, '| --- | --- | --- | --- | --- | --- | --- |');
   for (const p of result.parameters) {

@@ -124,7 +124,9 @@ export class MarkerFit {
     }
     let ssrM2 = startSsrM2;
     let iterations = 0;
-    while (iterations < settings.maxIterations && ssrM2 > 0) {
+    // When no parameter moves any marker there is nothing to fit; the identifiability check
+    // that follows says so.
+    while (iterations < settings.maxIterations && ssrM2 > 0 && startScaleM2 > 0 && Number.isFinite(startScaleM2)) {
       const rounds = Math.min(settings.iterationsPerRound, settings.maxIterations - iterations);
       const result = levenbergMarquardt(data, model, {
         initialValues: theta,
