@@ -3,7 +3,7 @@
 // fixed true values plus independent normal noise under 100 seeds, are fitted by `calibrate`, and
 // the true values fall within ±1 and ±2 reported standard errors as often as the normal
 // distribution says: 68.27 % and 95.45 % (the linearised least-squares estimate is asymptotically
-// normal with covariance σ²(JᵀJ)⁻¹; Seber & Wild, Nonlinear Regression, 1989, §2.1; n − p = 358,
+// normal with covariance σ²(JᵀJ)⁻¹; Seber & Wild, Nonlinear Regression, 1989, ch. 2, from memory; n − p = 358,
 // so Student's t is indistinguishable from the normal here). With 200 intervals (100 seeds × 2
 // parameters) each count is binomial if the intervals are independent; the parameters of one
 // seed are correlated, which widens the spread a little, so the accepted band is the binomial's

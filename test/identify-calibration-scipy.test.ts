@@ -3,13 +3,13 @@
 // NumPy from its textbook definitions: one Hooke spring with an axial dashpot (c = 2ζ√(kμ), μ the
 // reduced mass; Rao, Mechanical Vibrations) holding a hanging mass under gravity, stepped by
 // semi-implicit Euler v ← v + h·F/m, y ← y + h·v (Hairer, Lubich & Wanner, Geometric Numerical
-// Integration, §VI.3) with the same sub-step count. A one-part top-pinned Pliant chain is exactly
+// Integration, ch. VI, from memory) with the same sub-step count. A one-part top-pinned Pliant chain is exactly
 // that system (lumped end masses m/2, k = EA/L: sim/systems/chain.ts), so:
 //  1. the NumPy trajectory at the true values equals Pliant's to rounding (checks the stand-in);
 //  2. scipy.optimize.least_squares (method "lm", MINPACK) fitting the NumPy model to the same
 //     noisy marker table lands on the values `calibrate` finds (within 0.001 standard error);
 //  3. its textbook standard errors, sqrt(diag(σ̂²(JᵀJ)⁻¹)) with σ̂² = SSR/(n − p) (Seber & Wild,
-//     Nonlinear Regression, 1989, §2.1), from SciPy's Jacobian, equal ours to 1e-4 relative.
+//     Nonlinear Regression, 1989, ch. 2, from memory), from SciPy's Jacobian, equal ours to 1e-4 relative.
 // (Measured when written: values within 2e-6 SE, standard errors within 1e-7 relative.)
 // The scenario is an invented Korrin Bay spring check.
 import { describe, expect, it } from 'vitest';

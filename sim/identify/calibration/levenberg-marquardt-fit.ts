@@ -6,7 +6,7 @@
 // its default, whose absolute step of 0.1 suits no parameter here. The library always runs
 // its full iteration count, so it is called in short rounds, and the fit stops when a round
 // lowers the sum of squares by less than 1 % of σ̂² = SSR/(n − p). Near the optimum
-// SSR(θ) − SSR(θ̂) ≈ σ̂²·d² with d the distance in standard errors (Seber & Wild 1989, §5.2), so
+// SSR(θ) − SSR(θ̂) ≈ σ̂²·d² with d the distance in standard errors (Seber & Wild 1989, ch. 5; chapter from memory), so
 // a round that gains less than 0.01·σ̂² leaves the fit about 0.1 standard error or less from the
 // optimum along the directions the data informs; along those it does not inform LM only
 // crawls, and the calibration flags them instead of waiting.

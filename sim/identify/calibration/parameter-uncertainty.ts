@@ -1,5 +1,5 @@
 // Standard errors and identifiability at a least-squares optimum, by the textbook linearisation
-// of nonlinear least squares (Seber & Wild, Nonlinear Regression, 1989, §2.1 and §5.1):
+// of nonlinear least squares (Seber & Wild, Nonlinear Regression, 1989, ch. 2 and 5; chapters from memory):
 //   σ̂² = SSR / (n − p),   Cov(θ̂) ≈ σ̂² (JᵀJ)⁻¹,
 // with J the Jacobian of the model over the scaled parameters θ at the optimum. A value's
 // standard error follows by the delta method, SE(v) = |dv/dθ|·SE(θ). A parameter is called not
