@@ -8,6 +8,7 @@ import { pipelineEpisodeCases } from './pipeline-episodes.ts';
 import { exportHdf5Case, exportNpzCase } from './pipeline-export.ts';
 import { sweepMemoryCase } from './sweep-memory.ts';
 import { scoreThroughputCase } from './score-throughput.ts';
+import { calibrateTetherCase } from './calibrate-tether.ts';
 
 export const BENCHMARK_CASES: BenchmarkCase[] = [
   chain1024Case,
@@ -19,4 +20,5 @@ export const BENCHMARK_CASES: BenchmarkCase[] = [
   exportHdf5Case,
   sweepMemoryCase,
   scoreThroughputCase,
+  calibrateTetherCase,
 ];

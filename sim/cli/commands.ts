@@ -9,7 +9,8 @@ import { reproduceCommand } from './reproduce-command.ts';
 import { inspectCommand } from './inspect-command.ts';
 import { demoCommand } from './demo-command.ts';
 import { baselineCommand } from './baseline-command.ts';
+import { calibrateCommand } from './calibrate-command.ts';
 import { renderCommand } from './render-command.ts';
 import { scoreCommand } from './score-command.ts';
 
-export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, baselineCommand, scoreCommand, renderCommand, demoCommand, benchCommand];
+export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, baselineCommand, scoreCommand, calibrateCommand, renderCommand, demoCommand, benchCommand];
