@@ -6,6 +6,8 @@
 import { readFile, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { decodeNpz } from '../sim/dataset/npz.ts';
+import { scoreProblems } from '../sim/identify/score/score-check.ts';
+import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
 import { shown } from './allowed-folders.ts';
 import type { CalibrationReport, ScoreDocumentView } from './bridge-contract.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
@@ -46,6 +48,11 @@ function parsedJson(bytes: Buffer, path: string, what: string): unknown {
   }
 }
 
+/** The screen's view of score.json; the compiler checks here that every document `pliant score` writes fits it. */
+function scoreView(document: ScoreDocument): ScoreDocumentView {
+  return document;
+}
+
 function isObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
@@ -55,10 +62,12 @@ export const SIM_IDENTIFICATION_READER: IdentificationReader = {
     const path = join(reportDir, 'score.json');
     const fix = 'open the folder `pliant score … --out DIR` (or a score job) wrote.';
     const document = parsedJson(await readBounded(path, MAX_REPORT_JSON_BYTES, 'score report', fix), path, 'score report');
-    if (!isObject(document) || document.scoreFormat !== 1 || !Array.isArray(document.episodes) || !isObject(document.splits) || !isObject(document.overall)) {
-      throw new RequestError('invalid-dataset', `${shown(path)} is not a score report of this Pliant (scoreFormat 1 with episodes, splits and overall). ${fix}`);
+    // The same JSON Schema `pliant score` checks before it writes, so the screen only shows reports it can read whole.
+    const problems = scoreProblems(document);
+    if (problems.length > 0) {
+      throw new RequestError('invalid-dataset', `${shown(path)} is not a score report of this Pliant: ${problems.slice(0, 3).join('; ')}${problems.length > 3 ? ` and ${problems.length - 3} more` : ''}. ${fix}`);
     }
-    return { path: reportDir, score: document as unknown as ScoreDocumentView, reportMarkdown: await optionalText(join(reportDir, 'REPORT.md')) };
+    return { path: reportDir, score: scoreView(document as ScoreDocument), reportMarkdown: await optionalText(join(reportDir, 'REPORT.md')) };
   },
 
   async predictionArrays(predictionsDir, episodeId) {
@@ -89,7 +98,25 @@ export const SIM_IDENTIFICATION_READER: IdentificationReader = {
   async calibration(reportDir): Promise<CalibrationReport> {
     const path = join(reportDir, 'calibration.json');
     const fix = 'open the report folder `pliant calibrate` wrote.';
-    parsedJson(await readBounded(path, MAX_REPORT_JSON_BYTES, 'calibration report', fix), path, 'calibration report');
-    throw new RequestError('not-available', 'Reading calibration reports is not wired into this build yet.');
+    const document = parsedJson(await readBounded(path, MAX_REPORT_JSON_BYTES, 'calibration report', fix), path, 'calibration report');
+    if (!isObject(document) || document.calibrationFormat !== 1 || !Array.isArray(document.parameters) || !isObject(document.residualOverTime)) {
+      throw new RequestError('invalid-dataset', `${shown(path)} is not a calibration report of this Pliant (calibrationFormat 1 with parameters and residualOverTime). ${fix}`);
+    }
+    const residual = document.residualOverTime as { timeS?: unknown; fittedRmsM?: unknown };
+    const numbers = (value: unknown): number[] => (Array.isArray(value) ? value.map((v) => (typeof v === 'number' ? v : Number.NaN)) : []);
+    return {
+      path: reportDir,
+      parameters: (document.parameters as Record<string, unknown>[]).map((p) => ({
+        pointer: String(p.pointer ?? ''),
+        unit: String(p.unit ?? ''),
+        value: typeof p.value === 'number' ? p.value : null,
+        standardError: typeof p.standardError === 'number' ? p.standardError : null,
+        identifiable: p.identifiable === true,
+        note: typeof p.notIdentifiableBecause === 'string' ? p.notIdentifiableBecause : '',
+      })),
+      residualTimeS: numbers(residual.timeS),
+      residualRmsM: numbers(residual.fittedRmsM),
+      reportMarkdown: await optionalText(join(reportDir, 'REPORT.md')),
+    };
   },
 };

@@ -24,6 +24,8 @@ export class TimeSeriesPlot {
     private series: PlotSeries[],
     /** What x is; episode time by default, a prediction horizon or a parameter elsewhere. */
     private readonly xLabel = 't, s',
+    /** Draw each value as a point too (binned values, where a line alone would hide lone bins). */
+    private readonly showPoints = false,
   ) {
     this.chartHost = h('div', { className: 'plot-chart' });
     this.marker = h('div', { className: 'plot-marker', attrs: { 'aria-hidden': 'true' } });
@@ -94,7 +96,7 @@ export class TimeSeriesPlot {
         { label: this.xLabel, size: 36, labelSize: 14 },
         { label: unit, size: 56, labelSize: 14 },
       ],
-      series: [{ label: this.xLabel }, ...this.series.map((s) => ({ label: `${s.label}, ${unit}`, stroke: s.colour, width: 1.5, points: { show: false } }))],
+      series: [{ label: this.xLabel }, ...this.series.map((s) => ({ label: `${s.label}, ${unit}`, stroke: s.colour, width: 1.5, spanGaps: this.showPoints, points: { show: this.showPoints, size: 6 } }))],
     };
   }
 }

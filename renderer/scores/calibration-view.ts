@@ -27,6 +27,7 @@ export class CalibrationView {
       ),
     );
     this.root.hidden = false;
+    this.root.setAttribute('data-loaded', report.path);
     this.root.replaceChildren(
       h('h3', { text: `Calibration report — ${report.path}` }),
       h(

@@ -54,7 +54,7 @@ export class ScoresScreen implements Screen {
     this.report = h('div', { className: 'score-report', attrs: { 'data-role': 'score-report' } });
     this.parameterChoice = select([], '', { 'data-role': 'score-parameter' });
     this.parameterChoice.addEventListener('change', () => this.showParameter());
-    this.parameterPlot = new TimeSeriesPlot('Mean normalised error against a sampled parameter', '1', [], 'parameter');
+    this.parameterPlot = new TimeSeriesPlot('Mean normalised error against a sampled parameter', '– (error/ℓ)', [], 'parameter (bin centre)', true);
     this.episodes = new ScoreEpisodeList((row) => void this.play(row));
     this.playing = h('p', { className: 'playing-line', attrs: { 'data-role': 'score-playing' } });
     this.calibration = new CalibrationView();
@@ -175,6 +175,7 @@ export class ScoresScreen implements Screen {
       return;
     }
     this.show(report);
+    this.report.setAttribute('data-loaded', report.path);
     this.status.show('ok', `Scored ${report.score.episodes.length} episodes of ${report.score.dataset.name} predicted by ${report.score.predictions.model || 'an unnamed model'}.`);
   }
 

@@ -62,6 +62,8 @@ export function calibrationJson(inputs: ReportInputs): Record<string, unknown> {
       fittedRmsM: result.rmsM,
       sigmaM: u?.sigmaM ?? null,
     },
+    // The per-frame RMS marker error the residual plot draws, so other tools (the app) can draw it too.
+    residualOverTime: { timeS: Array.from(result.frameTimesS), startRmsM: Array.from(result.startFrameRmsM), fittedRmsM: Array.from(result.fittedFrameRmsM) },
     fit: {
       method: 'Levenberg-Marquardt (ml-levenberg-marquardt), forward-difference Jacobian in scaled parameters',
       iterations: result.iterations,
