@@ -133,6 +133,15 @@ describe('pliant baseline: predictions folders', () => {
     expect((await pliant('baseline', 'predict', 'models/linear-5.json', 'tether', '--out', 'pred-linear-5')).code).toBe(0);
   });
 
+  it('predicts the same floor from a `fit --model persistence` file as from `predict --model persistence`', async () => {
+    expect((await pliant('baseline', 'fit', 'tether', '--model', 'persistence', '--out', 'persistence.json')).code).toBe(0);
+    expect((await pliant('baseline', 'predict', 'persistence.json', 'tether', '--out', 'pred-persistence-file')).code).toBe(0);
+    expect((await pliant('baseline', 'predict', '--model', 'persistence', 'tether', '--out', 'pred-persistence-direct')).code).toBe(0);
+    const names = readdirSync(join(work, 'pred-persistence-direct')).filter((f) => f.endsWith('.npz'));
+    expect(names.length).toBeGreaterThan(0);
+    for (const name of names) expect(readFileSync(join(work, 'pred-persistence-file', name)).equals(readFileSync(join(work, 'pred-persistence-direct', name))), name).toBe(true);
+  });
+
   it('writes the same bytes when the same model predicts again', async () => {
     expect((await pliant('baseline', 'predict', 'linear.json', 'tether', '--out', 'pred-linear-again')).code).toBe(0);
     for (const name of readdirSync(join(work, 'pred-linear'))) {

@@ -36,6 +36,8 @@ export interface GreyBoxDesign {
   target: Float64Array;
   /** Median reduced mass per relation present, kg (relation → μ̄). */
   medianReducedMassKg: Map<number, number>;
+  /** 1 for springs acting on at least one node whose rows are used: the springs the fit sees. */
+  springSeen: Uint8Array;
   freeNodeCount: number;
   excludedNodeCount: number;
   /** Node-interval pairs left out for ground contact. */
@@ -91,6 +93,8 @@ export function buildGreyBoxDesign(episode: EpisodeTrajectory, structure: GreyBo
   const included = includedNodes(episode, massKg);
   let freeNodeCount = 0;
   for (let i = 0; i < n; i++) if (included[i]) freeNodeCount++;
+  const springSeen = new Uint8Array(edgeCount);
+  for (let s = 0; s < edgeCount; s++) springSeen[s] = included[episode.edges[2 * s]] | included[episode.edges[2 * s + 1]];
 
   const block = 3 * n * p;
   let current = new Float64Array(block);
@@ -143,6 +147,7 @@ export function buildGreyBoxDesign(episode: EpisodeTrajectory, structure: GreyBo
     matrix: matrix.subarray(0, rows * p),
     target: target.subarray(0, rows),
     medianReducedMassKg,
+    springSeen,
     freeNodeCount,
     excludedNodeCount: n - freeNodeCount,
     contactExclusions,

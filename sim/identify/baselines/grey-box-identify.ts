@@ -85,7 +85,8 @@ function median(values: number[]): { truth: number | null; range: [number, numbe
 }
 
 function trueValue(column: GreyBoxColumn, trajectory: EpisodeTrajectory, design: GreyBoxDesign, record: EpisodeRecord, scenario: unknown): { truth: number | null; range: [number, number] | null } {
-  const springs = [...trajectory.edgeRelation.keys()].filter((s) => trajectory.edgeRelation[s] === column.relation);
+  // The truth of a relation is that of the springs the fit sees (those acting on a used node).
+  const springs = [...trajectory.edgeRelation.keys()].filter((s) => trajectory.edgeRelation[s] === column.relation && design.springSeen[s] === 1);
   if (column.term === 'stiffness') return median(springs.map((s) => trajectory.edgeStiffnessNPerM[s]));
   if (column.term === 'damping') {
     const mu = design.medianReducedMassKg.get(column.relation!) ?? 0;
