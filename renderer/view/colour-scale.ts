@@ -12,7 +12,6 @@ const DIVERGING_STOPS = new Float32Array([
   0.93, 0.60, 0.30,
   0.70, 0.25, 0.05, // burnt orange: strongest extension
 ]);
-const DIVERGING_SEGMENTS = DIVERGING_STOPS.length / 3 - 1;
 
 /**
  * Sequential stops from 0 to the limit for magnitudes that are never negative (prediction
@@ -26,7 +25,6 @@ const SEQUENTIAL_STOPS = new Float32Array([
   0.67, 0.20, 0.27,
   0.33, 0.06, 0.30, // plum: at the limit or beyond
 ]);
-const SEQUENTIAL_SEGMENTS = SEQUENTIAL_STOPS.length / 3 - 1;
 
 /** Categorical colours for materials, in order of material index. */
 const MATERIAL_PALETTE = new Float32Array([
@@ -50,14 +48,20 @@ export function writeDivergingColour(value: number, limit: number, out: Float32A
   let t = limit > 0 ? value / limit : 0;
   if (!(t >= -1)) t = -1; // also catches NaN
   if (t > 1) t = 1;
-  const scaled = (t + 1) * 0.5 * DIVERGING_SEGMENTS;
+  writeBetweenStops(DIVERGING_STOPS, (t + 1) * 0.5, out, offset);
+}
+
+/** Writes the colour at fraction u (0…1) along evenly spaced stops into out[offset..offset+2]. */
+function writeBetweenStops(stops: Float32Array, u: number, out: Float32Array, offset: number): void {
+  const segments = stops.length / 3 - 1;
+  const scaled = u * segments;
   let segment = Math.floor(scaled);
-  if (segment >= DIVERGING_SEGMENTS) segment = DIVERGING_SEGMENTS - 1;
+  if (segment >= segments) segment = segments - 1;
   const f = scaled - segment;
   const a = 3 * segment;
-  out[offset] = DIVERGING_STOPS[a] + f * (DIVERGING_STOPS[a + 3] - DIVERGING_STOPS[a]);
-  out[offset + 1] = DIVERGING_STOPS[a + 1] + f * (DIVERGING_STOPS[a + 4] - DIVERGING_STOPS[a + 1]);
-  out[offset + 2] = DIVERGING_STOPS[a + 2] + f * (DIVERGING_STOPS[a + 5] - DIVERGING_STOPS[a + 2]);
+  out[offset] = stops[a] + f * (stops[a + 3] - stops[a]);
+  out[offset + 1] = stops[a + 1] + f * (stops[a + 4] - stops[a + 1]);
+  out[offset + 2] = stops[a + 2] + f * (stops[a + 5] - stops[a + 2]);
 }
 
 /** Writes the sequential colour of value/limit (clamped to 0…1) into out[offset..offset+2]. */
@@ -65,14 +69,7 @@ export function writeSequentialColour(value: number, limit: number, out: Float32
   let t = limit > 0 ? value / limit : 0;
   if (!(t >= 0)) t = 0; // also catches NaN
   if (t > 1) t = 1;
-  const scaled = t * SEQUENTIAL_SEGMENTS;
-  let segment = Math.floor(scaled);
-  if (segment >= SEQUENTIAL_SEGMENTS) segment = SEQUENTIAL_SEGMENTS - 1;
-  const f = scaled - segment;
-  const a = 3 * segment;
-  out[offset] = SEQUENTIAL_STOPS[a] + f * (SEQUENTIAL_STOPS[a + 3] - SEQUENTIAL_STOPS[a]);
-  out[offset + 1] = SEQUENTIAL_STOPS[a + 1] + f * (SEQUENTIAL_STOPS[a + 4] - SEQUENTIAL_STOPS[a + 1]);
-  out[offset + 2] = SEQUENTIAL_STOPS[a + 2] + f * (SEQUENTIAL_STOPS[a + 5] - SEQUENTIAL_STOPS[a + 2]);
+  writeBetweenStops(SEQUENTIAL_STOPS, t, out, offset);
 }
 
 /** Writes the colour of material index m (−1: none) into out[offset..offset+2]. */
@@ -98,20 +95,19 @@ export function materialCss(material: number): string {
 
 /** CSS linear-gradient stops of the diverging scale, left (−1) to right (+1). */
 export function divergingGradientCss(): string {
-  const stops: string[] = [];
-  for (let s = 0; s <= DIVERGING_SEGMENTS; s++) {
-    stops.push(`${rgbCss(DIVERGING_STOPS.subarray(3 * s, 3 * s + 3))} ${((100 * s) / DIVERGING_SEGMENTS).toFixed(0)}%`);
-  }
-  return `linear-gradient(to right, ${stops.join(', ')})`;
+  return gradientCss(DIVERGING_STOPS);
 }
 
 /** CSS linear-gradient stops of the sequential scale, left (0) to right (the limit). */
 export function sequentialGradientCss(): string {
-  const stops: string[] = [];
-  for (let s = 0; s <= SEQUENTIAL_SEGMENTS; s++) {
-    stops.push(`${rgbCss(SEQUENTIAL_STOPS.subarray(3 * s, 3 * s + 3))} ${((100 * s) / SEQUENTIAL_SEGMENTS).toFixed(0)}%`);
-  }
-  return `linear-gradient(to right, ${stops.join(', ')})`;
+  return gradientCss(SEQUENTIAL_STOPS);
+}
+
+function gradientCss(stops: Float32Array): string {
+  const segments = stops.length / 3 - 1;
+  const parts: string[] = [];
+  for (let s = 0; s <= segments; s++) parts.push(`${rgbCss(stops.subarray(3 * s, 3 * s + 3))} ${((100 * s) / segments).toFixed(0)}%`);
+  return `linear-gradient(to right, ${parts.join(', ')})`;
 }
 
 function rgbCss(rgb: ArrayLike<number>): string {
