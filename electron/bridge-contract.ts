@@ -297,7 +297,7 @@ export interface ScoreDocumentView {
   pliantVersion: string;
   caution: string;
   dataset: { name: string; masterSeed: string; episodeCount: number; manifestSha256: string; seedSha256: string | null };
-  predictions: { model: string; description: string; episodeFiles: number };
+  predictions: { model: string; description: string; episodeFiles: number; missing: { id: string; split: string }[] };
   settings: {
     splits: string[];
     horizons: { horizon: string; steps: number | null; seconds: number | null }[];
@@ -393,7 +393,7 @@ export interface RequestMap {
   'dataset.compare': { args: { originalPath: string; regeneratedPath: string }; result: DatasetComparison };
   'seed.read': { args: { path: string }; result: SeedSummary };
   'reproduce.begin': { args: { seedPath: string; outDir: string }; result: JobStarted };
-  'score.begin': { args: { datasetPath: string; predictionsPath: string; outDir: string }; result: JobStarted };
+  'score.begin': { args: { datasetPath: string; predictionsPath: string; outDir: string; allowMissing?: boolean }; result: JobStarted };
   'score.read': { args: { path: string }; result: ScoreReport };
   'predictions.episodeArrays': { args: { path: string; episodeId: string }; result: EpisodeArrays };
   'calibration.read': { args: { path: string }; result: CalibrationReport };
@@ -662,6 +662,7 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
       datasetPath: pathSchema('Dataset folder whose episodes the predictions are scored against.'),
       predictionsPath: pathSchema('Predictions folder: one <episode id>.npz per predicted episode.'),
       outDir: pathSchema('Folder the score report (score.json, REPORT.md, plots) is written into.'),
+      allowMissing: { type: 'boolean' },
     },
     ['datasetPath', 'predictionsPath', 'outDir'],
   ),

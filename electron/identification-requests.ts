@@ -10,11 +10,11 @@ type IdentificationRequests = Pick<HandlerTable, 'score.begin' | 'score.read' | 
 export function identificationRequests(services: RequestServices): IdentificationRequests {
   const { folders, jobRunner, identificationReader } = services;
   return {
-    'score.begin': async ({ datasetPath, predictionsPath, outDir }) => {
+    'score.begin': async ({ datasetPath, predictionsPath, outDir, allowMissing }) => {
       const datasetDir = await folders.resolve(datasetPath, 'read');
       const predictionsDir = await folders.resolve(predictionsPath, 'read');
       const realOut = await folders.resolve(outDir, 'write');
-      return jobRunner.begin({ kind: 'score', datasetDir, predictionsDir, outDir: realOut });
+      return jobRunner.begin({ kind: 'score', datasetDir, predictionsDir, outDir: realOut, allowMissing: allowMissing === true });
     },
 
     'score.read': async ({ path }) => identificationReader.score(await folders.resolve(path, 'read')),

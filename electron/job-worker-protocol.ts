@@ -28,6 +28,7 @@ export interface ScoreJobSpec {
   datasetDir: string;
   predictionsDir: string;
   outDir: string;
+  allowMissing: boolean;
 }
 
 export type JobSpec = ExportJobSpec | ReproduceJobSpec | ScoreJobSpec;

@@ -72,11 +72,11 @@ describe.skipIf(!python.available)('pliant score refuses bad input with exit 2 a
     expect(outcome.code).toBe(0);
   });
 
-  it('a missing episode: names it and suggests --split', async () => {
+  it('a missing episode: names it and suggests --split and --allow-missing', async () => {
     const dir = copyOfGood();
     rmSync(join(dir, `${testIds[0]}.npz`));
     const { outcome, out } = await score(dir);
-    expectUserMistake(outcome, `1 of the ${testIds.length} episodes of test have no prediction file: ${testIds[0]}`, '--split');
+    expectUserMistake(outcome, `1 of the ${testIds.length} episodes of test have no prediction file: ${testIds[0]}`, '--split', '--allow-missing');
     expect(existsSync(join(out, 'score.json'))).toBe(false);
   });
 

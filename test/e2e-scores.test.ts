@@ -3,8 +3,9 @@
 // screen's tables show what NumPy computes from the same NPZ files (the one-step RMSE of
 // persistence per split), an episode plays with its prediction drawn over the recording (the
 // legend's largest error as NumPy finds it), and a calibration report of the invented Korrin Bay
-// bench measurement opens with its fitted values and the parameter it cannot identify.
-import { mkdirSync, mkdtempSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
+// bench measurement opens with its fitted values and the parameter it cannot identify; a folder
+// short of one episode is scored with "only the episodes that have a prediction" ticked.
+import { cpSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
@@ -139,5 +140,23 @@ print(float(np.max(np.linalg.norm(q.astype(np.float64) - p.astype(np.float64), a
       if (!p.identifiable) expect(shown[i].value).toBe('not identifiable');
     }
     expect(calibration.parameters.some((p) => !p.identifiable)).toBe(true);
+  });
+
+  it('scores a folder short of one episode when asked to, and names the episode left out', async () => {
+    const partial = join(folder, 'partial');
+    cpSync(join(folder, 'persistence'), partial, { recursive: true });
+    const dropped = readdirSync(partial).filter((f) => f.endsWith('.npz')).sort()[0].slice(0, -4);
+    rmSync(join(partial, `${dropped}.npz`));
+    mkdirSync(join(folder, 'report-partial'));
+    await page.click('[data-role="score-predictions"]');
+    await chooseFolderInPage(page, partial);
+    await page.check('[data-role="score-allow-missing"]');
+    await page.click('[data-role="score-begin"]');
+    await chooseFolderInPage(page, join(folder, 'report-partial'));
+    await waitInPage(page, `document.querySelector('[data-role="score-report"]')?.getAttribute('data-loaded') === ${JSON.stringify(join(folder, 'report-partial'))}`, 180_000);
+    const score = JSON.parse(readFileSync(join(folder, 'report-partial', 'score.json'), 'utf8')) as { predictions: { missing: { id: string }[] } };
+    expect(score.predictions.missing.map((m) => m.id)).toEqual([dropped]);
+    const facts = (await page.textContent('[data-role="score-report"] dl.facts')) ?? '';
+    expect(facts).toContain(`not predicted1 episode has no prediction file and is left out: ${dropped}`);
   });
 });

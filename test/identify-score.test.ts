@@ -56,6 +56,9 @@ req = json.load(sys.stdin)
 m = json.load(open(os.path.join(req['dataset'], 'manifest.json')))
 splits = req['splits']
 eps = [e for e in m['episodes'] if e['status'] == 'ok' and e['split'] in splits]
+# Episodes without a prediction file are left out (pliant score --allow-missing) and listed.
+missing = [{'id': e['id'], 'split': e['split']} for e in eps if not os.path.exists(os.path.join(req['predictions'], e['id'] + '.npz'))]
+eps = [e for e in eps if os.path.exists(os.path.join(req['predictions'], e['id'] + '.npz'))]
 rows, curves = [], {}
 for e in eps:
     d = np.load(os.path.join(req['dataset'], e['files'][0]))
@@ -129,11 +132,12 @@ for key in keys:
                'meanNormalisedError': [float(err[(idx == b) & (sp == s)].mean()) if np.any((idx == b) & (sp == s)) else None for b in range(8)]}
            for s in splits}
     params.append({'label': key, 'count': counts.tolist(), 'edges': edges.tolist(), 'meanNormalisedError': means, 'splits': per})
-print(json.dumps({'rows': rows, 'splits': summ, 'params': params}))
+print(json.dumps({'rows': rows, 'splits': summ, 'params': params, 'missing': missing}))
 `;
 
 interface Reference {
   rows: ScoreDocument['episodes'];
+  missing: ScoreDocument['predictions']['missing'];
   splits: Record<string, Partial<ScoreDocument['overall']>>;
   params: { label: string; count: number[]; edges: number[]; meanNormalisedError: (number | null)[]; splits: Record<string, { count: number[]; meanNormalisedError: (number | null)[] }> }[];
 }
@@ -166,6 +170,7 @@ function compareWithNumPy(score: ScoreDocument, predictions: string): void {
   const reference = runReferencePython<Reference>(REFERENCE_SCRIPT, {
     dataset, predictions, splits: score.settings.splits, horizons: score.settings.horizons, threshold: score.settings.validPredictionTimeThreshold,
   });
+  expect(score.predictions.missing).toEqual(reference.missing);
   expect(score.episodes.map((r) => r.id)).toEqual(reference.rows.map((r) => r.id));
   reference.rows.forEach((row, i) => expectClose(score.episodes[i], row, `episode ${row.id}`));
   expect(Object.keys(reference.splits).sort()).toEqual([...score.settings.splits.filter((s) => score.splits[s].episodes > 0), 'overall'].sort());
@@ -242,6 +247,47 @@ describe.skipIf(!python.available)('pliant score against NumPy', () => {
     const report = readFileSync(join(out, 'REPORT.md'), 'utf8');
     expect(report).toContain('# Score of noisy-truth on korrin-tether-score-check');
     expect(report).toContain('Held out by: /system/partCount > 5');
+  });
+
+  it("scores the linear baseline's folder, which leaves out node counts it was not fitted on, with --allow-missing: equals NumPy on the episodes present and lists the others", async () => {
+    const fit = await runPliant(['baseline', 'fit', dataset, '--model', 'linear', '--out', join(work, 'linear.json')], work);
+    expect(fit.code, fit.stderr).toBe(0);
+    const linear = join(work, 'pred-linear');
+    const predict = await runPliant(['baseline', 'predict', join(work, 'linear.json'), dataset, '--out', linear, '--skip-unfitted', '--split', 'test,held-out'], work);
+    expect(predict.code, predict.stderr).toBe(0);
+    // Which episodes the linear model cannot predict, from NumPy's reading of the episode files:
+    // those whose node count no train episode has (the operator is fitted per node count).
+    const expectedMissing = runReferencePython<{ id: string; split: string }[]>(`
+import json, sys, os, numpy as np
+req = json.load(sys.stdin)
+m = json.load(open(os.path.join(req['dataset'], 'manifest.json')))
+nodes = lambda e: np.load(os.path.join(req['dataset'], e['files'][0]))['positions'].shape[1]
+ok = [e for e in m['episodes'] if e['status'] == 'ok']
+trained = {nodes(e) for e in ok if e['split'] == 'train'}
+print(json.dumps([{'id': e['id'], 'split': e['split']} for e in ok if e['split'] in ('test', 'held-out') and nodes(e) not in trained]))`, { dataset });
+    expect(expectedMissing.length).toBeGreaterThan(0);
+
+    const refused = await runPliant(['score', dataset, linear, '--out', join(work, 'report-linear-refused')], work);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toContain(`${expectedMissing.length} of the`);
+    expect(refused.stderr).toContain('--allow-missing');
+
+    const out = join(work, 'report-linear');
+    const run = await runPliant(['score', dataset, linear, '--out', out, '--allow-missing'], work);
+    expect(run.stderr).toBe('');
+    expect(run.code).toBe(0);
+    expect(run.stdout).toContain(`${expectedMissing.length} episode${expectedMissing.length === 1 ? '' : 's'} had no prediction file`);
+    const score = readScore(out);
+    expect(scoreProblems(score)).toEqual([]);
+    expect(score.predictions.model).toBe('linear');
+    expect(score.predictions.missing).toEqual(expectedMissing);
+    compareWithNumPy(score, linear);
+    const report = readFileSync(join(out, 'REPORT.md'), 'utf8');
+    expect(report).toContain('### Episodes without a prediction');
+    for (const m of expectedMissing) expect(report).toContain(m.id);
+    // Every held-out tether is longer than any train tether, so nothing measures the gap, and
+    // the report says why rather than showing an empty table.
+    if (score.splits['held-out'].episodes === 0) expect(score.generalisationGap.note).toBe('the predictions hold no episode of the held-out splits, so the gap cannot be measured');
   });
 
   it('gives the same bytes of score.json, REPORT.md and every SVG for the same inputs', async () => {

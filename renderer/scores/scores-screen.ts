@@ -40,6 +40,7 @@ export class ScoresScreen implements Screen {
   private readonly episodes: ScoreEpisodeList;
   private readonly playing: HTMLElement;
   private readonly calibration: CalibrationView;
+  private readonly allowMissing: HTMLInputElement;
   private datasetPath: string | null = null;
   private predictionsPath: string | null = null;
   private dataset: DatasetSummary | null = null;
@@ -51,6 +52,7 @@ export class ScoresScreen implements Screen {
     this.chosen = h('dl', { className: 'facts', attrs: { 'data-role': 'score-inputs' } });
     this.scoreButton = button('Score into a folder…', () => void this.begin(), { attrs: { 'data-role': 'score-begin' } });
     this.scoreButton.disabled = true;
+    this.allowMissing = h('input', { attrs: { type: 'checkbox', 'data-role': 'score-allow-missing' } });
     this.report = h('div', { className: 'score-report', attrs: { 'data-role': 'score-report' } });
     this.parameterChoice = select([], '', { 'data-role': 'score-parameter' });
     this.parameterChoice.addEventListener('change', () => this.showParameter());
@@ -70,6 +72,7 @@ export class ScoresScreen implements Screen {
         button('Dataset folder…', () => void this.chooseDataset(), { attrs: { 'data-role': 'score-dataset' } }),
         button('Predictions folder…', () => void this.choosePredictions(), { attrs: { 'data-role': 'score-predictions' } }),
         this.scoreButton,
+        labelled('Score only the episodes that have a prediction', this.allowMissing),
         button('Open a score report…', () => void this.openReport(), { attrs: { 'data-role': 'score-open' } }),
         button('Open a calibration report…', () => void this.openCalibration(), { attrs: { 'data-role': 'calibration-open' } }),
       ),
@@ -140,7 +143,7 @@ export class ScoresScreen implements Screen {
     this.progress.reset('Starting the score…');
     this.scoreButton.disabled = true;
     try {
-      const started = await this.bridge.invoke('score.begin', { datasetPath: this.datasetPath, predictionsPath: this.predictionsPath, outDir });
+      const started = await this.bridge.invoke('score.begin', { datasetPath: this.datasetPath, predictionsPath: this.predictionsPath, outDir, allowMissing: this.allowMissing.checked });
       this.progress.follow(started.jobId);
       this.report.setAttribute('data-pending', outDir);
     } catch (error) {
@@ -186,6 +189,9 @@ export class ScoresScreen implements Screen {
       ['model', `${score.predictions.model || 'unnamed'}${score.predictions.description ? ` — ${score.predictions.description}` : ''}`],
       ['dataset', `${score.dataset.name} (seed ${score.dataset.masterSeed}, ${score.dataset.episodeCount} episodes)`],
       ['scored splits', score.settings.splits.join(', ')],
+      ...(score.predictions.missing.length > 0
+        ? [['not predicted', `${score.predictions.missing.length === 1 ? '1 episode has' : `${score.predictions.missing.length} episodes have`} no prediction file and ${score.predictions.missing.length === 1 ? 'is' : 'are'} left out: ${score.predictions.missing.map((m) => m.id).join(', ')}`] as [string, string]]
+        : []),
       ['report folder', report.path],
     ];
     this.parameterChoice.replaceChildren(...score.parameters.map((p, i) => h('option', { text: `${p.label}${p.unit && p.unit !== '1' ? `, ${p.unit}` : ''}`, attrs: { value: String(i) } })));

@@ -37,11 +37,12 @@ export const scoreCommand: CliCommand = {
     '  --split A,B            splits to score (default: test and every held-out split)',
     `  --horizons LIST        horizons in steps (10) or seconds (0.5s) (default: ${DEFAULT_HORIZONS} where they fit, and the whole rollout)`,
     `  --vpt-threshold X      normalised error that ends the valid prediction time (default ${DEFAULT_VPT_THRESHOLD})`,
+    '  --allow-missing        score the episodes that have a prediction file; list the others in the report',
     '',
     'Exit status: 0 scored, 2 a mistake in the request or the predictions, 1 a file that cannot be read or written.',
   ].join('\n'),
   async run(args, io) {
-    const parsed = parseArguments('score', args, { valued: ['--out', '--split', '--horizons', '--vpt-threshold'], switches: [] });
+    const parsed = parseArguments('score', args, { valued: ['--out', '--split', '--horizons', '--vpt-threshold'], switches: ['--allow-missing'] });
     if (parsed.positionals.length !== 2) throw new CliUsageError('give a dataset folder and a predictions folder: pliant score DATASET PREDICTIONS --out REPORT_DIR');
     const out = parsed.values.get('--out');
     if (out === undefined) throw new CliUsageError('say where the report goes: --out REPORT_DIR');
@@ -60,12 +61,15 @@ export const scoreCommand: CliCommand = {
         splits,
         horizons: horizonText === undefined ? null : parseHorizons(horizonText),
         vptThreshold: parsed.values.has('--vpt-threshold') ? threshold(parsed.values.get('--vpt-threshold')!) : DEFAULT_VPT_THRESHOLD,
+        allowMissing: parsed.switches.has('--allow-missing'),
       });
       writeScore(outDir, score);
       const shown = shownPath(io.cwd, outDir);
       const o = score.overall;
       io.stdout(`scored ${o.episodes} episodes of ${score.settings.splits.join(', ')}: one-step RMSE ${o.oneStepRmseM!.mean.toPrecision(3)} m, `
         + `valid prediction time ${o.validPredictionTimeS!.mean.toPrecision(3)} s (mean); see ${shown}/${REPORT_FILE} and ${shown}/${SCORE_FILE}\n`);
+      const missing = score.predictions.missing.length;
+      if (missing > 0) io.stdout(`${missing} episode${missing === 1 ? '' : 's'} had no prediction file and ${missing === 1 ? 'was' : 'were'} left out; ${REPORT_FILE} lists them\n`);
       return 0;
     } catch (error) {
       if (error instanceof PredictionsError) throw new CliUsageError(error.message, 2);

@@ -20,7 +20,13 @@ export interface ScoreDocument {
     manifestSha256: string;
     seedSha256: string | null;
   };
-  predictions: { model: string; description: string; episodeFiles: number };
+  predictions: {
+    model: string;
+    description: string;
+    episodeFiles: number;
+    /** Episodes of the scored splits with no prediction file (only with allowMissing), in index order. */
+    missing: { id: string; split: string }[];
+  };
   settings: {
     splits: string[];
     horizons: { horizon: string; steps: number | null; seconds: number | null }[];

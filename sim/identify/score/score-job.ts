@@ -15,6 +15,8 @@ export interface ScoreJob {
   datasetDir: string;
   predictionsDir: string;
   outDir: string;
+  /** Score the episodes present and list the others (as `pliant score --allow-missing`). */
+  allowMissing: boolean;
 }
 
 export type ScoreJobMessage =
@@ -38,6 +40,7 @@ export async function runScoreJob(job: ScoreJob, post: (message: ScoreJobMessage
       splits: null,
       horizons: null,
       vptThreshold: DEFAULT_VPT_THRESHOLD,
+      allowMissing: job.allowMissing,
       onEpisode: (finished, of) => {
         done = finished;
         total = of;

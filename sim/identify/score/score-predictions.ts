@@ -25,6 +25,12 @@ export interface ScoreRequest {
   /** null: 10 and 50 steps (where shorter than the shortest episode) and the whole rollout. */
   horizons: HorizonSpec[] | null;
   vptThreshold: number;
+  /**
+   * Score the episodes that have a prediction file and list the others in the score, instead of
+   * refusing the folder. For models that cannot predict every episode (a linear model fitted on
+   * one node count, say); the report then says plainly what was left out.
+   */
+  allowMissing?: boolean;
   /** Called after each scored episode. */
   onEpisode?: (done: number, total: number) => void;
 }
@@ -64,18 +70,23 @@ export async function scorePredictions(request: ScoreRequest): Promise<ScoreDocu
     throw new PredictionsError(`${request.predictionsDir}: ${extra.length} prediction file${extra.length === 1 ? ' is' : 's are'} for episodes the dataset did not record: ${listed(extra)}${why}; remove them or check that the predictions belong to ${dataset.manifest.name}`);
   }
   const have = new Set(folder.episodeIds);
-  const missing: string[] = [];
+  const missing: { id: string; split: string }[] = [];
   let total = 0;
   let shortestSteps = Infinity;
   for await (const episode of episodeRecordsOfSplits(dataset, chosen)) {
     total += 1;
     shortestSteps = Math.min(shortestSteps, episode.simulation.recordedSteps);
-    if (!have.has(episode.id)) missing.push(episode.id);
+    if (!have.has(episode.id)) missing.push({ id: episode.id, split: episode.split });
   }
   if (total === 0) throw new DatasetRequestError(`the splits ${splits.join(', ')} of ${request.datasetDir} hold no recorded episode; choose others with --split (the dataset has ${known.filter((s) => dataset.manifest.splits[s].ok > 0).join(', ')})`);
-  if (missing.length > 0) {
-    throw new PredictionsError(`${request.predictionsDir}: ${missing.length} of the ${total} episodes of ${splits.join(', ')} have no prediction file: ${listed(missing)}; write <episode id>.npz for each, or score fewer splits with --split`);
+  if (missing.length > 0 && !request.allowMissing) {
+    throw new PredictionsError(`${request.predictionsDir}: ${missing.length} of the ${total} episodes of ${splits.join(', ')} have no prediction file: ${listed(missing.map((m) => m.id))}; write <episode id>.npz for each, score fewer splits with --split, or score only the episodes present with --allow-missing`);
   }
+  if (missing.length === total) {
+    throw new PredictionsError(`${request.predictionsDir}: none of the ${total} episodes of ${splits.join(', ')} has a prediction file; check that the predictions belong to ${dataset.manifest.name} and these splits`);
+  }
+  const missingIds = new Set(missing.map((m) => m.id));
+  const scoredTotal = total - missing.length;
 
   const horizons = request.horizons ?? defaultHorizons(shortestSteps);
   const settings: ScoreSettings = { horizons, vptThreshold: request.vptThreshold };
@@ -86,6 +97,7 @@ export async function scorePredictions(request: ScoreRequest): Promise<ScoreDocu
   const channelUnits = new Map<string, string>();
   let done = 0;
   for await (const episode of episodeRecordsOfSplits(dataset, chosen)) {
+    if (missingIds.has(episode.id)) continue;
     // Check every horizon against this episode before any arrays are read.
     for (const spec of horizons) horizonSteps(spec, episode.simulation.recordIntervalS, episode.simulation.recordedSteps, episode.id);
     const recorded = await recordedArrays(dataset, episode);
@@ -97,16 +109,22 @@ export async function scorePredictions(request: ScoreRequest): Promise<ScoreDocu
     labels.add(episode.labels);
     for (const channel of episode.controlChannels) channelUnits.set(channel.name, channel.unit);
     done += 1;
-    request.onEpisode?.(done, total);
+    request.onEpisode?.(done, scoredTotal);
   }
 
   const summaries = new Map<string, GroupSummary>([...groups].map(([s, g]) => [s, g.summary(horizons)]));
   const rules = heldOutRulesBySplit(dataset.manifest.scenario);
   const gap = generalisationGap(rules, summaries);
+  const unpredicted = (split: string): boolean => missing.some((m) => m.split === split) && summaries.get(split)?.episodes === 0;
   const gapNote = gap.length > 0 ? ''
-    : !chosen.has(IN_DISTRIBUTION_SPLIT) || (summaries.get(IN_DISTRIBUTION_SPLIT)?.episodes ?? 0) === 0
-      ? 'the test split was not scored, so there is nothing to compare held-out splits with'
-      : rules.size === 0 ? 'the scenario has no held-out rules' : 'no held-out split was scored';
+    : chosen.has(IN_DISTRIBUTION_SPLIT) && unpredicted(IN_DISTRIBUTION_SPLIT)
+      ? 'the predictions hold no episode of the test split, so there is nothing to compare held-out splits with'
+      : !chosen.has(IN_DISTRIBUTION_SPLIT) || (summaries.get(IN_DISTRIBUTION_SPLIT)?.episodes ?? 0) === 0
+        ? 'the test split was not scored, so there is nothing to compare held-out splits with'
+        : rules.size === 0 ? 'the scenario has no held-out rules'
+          : [...rules.keys()].some((s) => chosen.has(s) && unpredicted(s))
+            ? 'the predictions hold no episode of the held-out splits, so the gap cannot be measured'
+            : 'no held-out split was scored';
   const rows = overall.rows;
   return {
     scoreFormat: SCORE_FORMAT_VERSION,
@@ -119,7 +137,7 @@ export async function scorePredictions(request: ScoreRequest): Promise<ScoreDocu
       manifestSha256: dataset.manifestSha256,
       seedSha256: dataset.seedSha256,
     },
-    predictions: { model: folder.model, description: folder.description, episodeFiles: folder.episodeIds.length },
+    predictions: { model: folder.model, description: folder.description, episodeFiles: folder.episodeIds.length, missing },
     settings: {
       splits,
       horizons: horizons.map((h) => ({ horizon: h.text, steps: h.steps, seconds: h.seconds })),

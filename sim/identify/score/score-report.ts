@@ -18,6 +18,7 @@ function stats(s: Statistics | null): string {
 }
 
 function groupTable(name: string, g: GroupSummary): string[] {
+  if (g.episodes === 0) return [`### ${name} (0 episodes)`, '', 'No episode of this split had a prediction, so there is nothing to summarise.', ''];
   const lines = [
     `### ${name} (${g.episodes} episode${g.episodes === 1 ? '' : 's'})`,
     '',
@@ -42,6 +43,23 @@ function groupTable(name: string, g: GroupSummary): string[] {
   return [...lines, ''];
 }
 
+function missingSummary(score: ScoreDocument): string {
+  const n = score.predictions.missing.length;
+  return n === 0 ? '' : `; ${n} episode${n === 1 ? '' : 's'} of the scored splits had none and ${n === 1 ? 'is' : 'are'} not in these figures (listed below)`;
+}
+
+// Left-out episodes come first in the results so nobody reads a split's mean as covering it whole.
+function missingSection(score: ScoreDocument): string[] {
+  const bySplit = new Map<string, string[]>();
+  for (const m of score.predictions.missing) bySplit.set(m.split, [...(bySplit.get(m.split) ?? []), m.id]);
+  const lines = ['### Episodes without a prediction', '', '| split | not predicted | scored |', '| --- | --- | --- |'];
+  for (const split of score.settings.splits) {
+    const ids = bySplit.get(split);
+    if (ids) lines.push(`| ${split} | ${ids.length}: ${ids.join(', ')} | ${score.splits[split].episodes} |`);
+  }
+  return [...lines, ''];
+}
+
 export function scoreReport(score: ScoreDocument, plots: readonly ScorePlot[]): string {
   const s = score.settings;
   const lines: string[] = [
@@ -55,7 +73,7 @@ export function scoreReport(score: ScoreDocument, plots: readonly ScorePlot[]): 
     '## Settings',
     '',
     `- Dataset: ${score.dataset.name}, master seed ${score.dataset.masterSeed}, ${score.dataset.episodeCount} episodes in the sweep; manifest.json SHA-256 \`${score.dataset.manifestSha256}\``,
-    `- Predictions: ${score.predictions.episodeFiles} episode files from ${score.predictions.model}`,
+    `- Predictions: ${score.predictions.episodeFiles} episode files from ${score.predictions.model}${missingSummary(score)}`,
     `- Splits scored: ${s.splits.join(', ')}`,
     `- Horizons: ${s.horizons.map((h) => (h.steps !== null ? `${h.steps} step${h.steps === 1 ? '' : 's'}` : `${h.seconds} s`)).join(', ')}`,
     `- Error: RMSE over nodes of the Euclidean position error, RMSE(h) = sqrt((1/N) Σ_i |p̂_i(h) − p_i(h)|²), in m; ℓ is the episode's RMS node distance from the centroid at t = 0`,
@@ -66,6 +84,7 @@ export function scoreReport(score: ScoreDocument, plots: readonly ScorePlot[]): 
     '## Results',
     '',
   );
+  if (score.predictions.missing.length > 0) lines.push(...missingSection(score));
   for (const split of s.splits) lines.push(...groupTable(split, score.splits[split]));
   if (s.splits.length > 1) lines.push(...groupTable('overall', score.overall));
 

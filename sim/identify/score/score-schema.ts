@@ -107,8 +107,16 @@ export const SCORE_SCHEMA = {
     predictions: {
       type: 'object',
       additionalProperties: false,
-      required: ['model', 'description', 'episodeFiles'],
-      properties: { model: { type: 'string', minLength: 1 }, description: text, episodeFiles: count },
+      required: ['model', 'description', 'episodeFiles', 'missing'],
+      properties: {
+        model: { type: 'string', minLength: 1 },
+        description: text,
+        episodeFiles: count,
+        missing: {
+          type: 'array',
+          items: { type: 'object', additionalProperties: false, required: ['id', 'split'], properties: { id: { type: 'string', minLength: 1 }, split: { type: 'string', minLength: 1 } } },
+        },
+      },
     },
     settings: {
       type: 'object',
