@@ -10,9 +10,10 @@ import type { GenerationListener } from './generation-progress.ts';
 import { readFolderState } from './dataset-folder-state.ts';
 import { MANIFEST_FILE } from './dataset-files.ts';
 import type { DatasetManifest } from './dataset-manifest.ts';
-import { sha256Hex } from './sha256.ts';
+import { digestFile } from './file-digest.ts';
+import type { FileDigest } from './file-digest.ts';
 
-export type FileComparison = 'identical' | 'different' | 'missing in original' | 'missing in regenerated';
+export type FileComparison = 'identical' | 'different' | 'missing in original' | 'missing in regenerated' | 'unreadable in original' | 'unreadable in regenerated';
 
 export interface ReproduceRequest {
   seedPath: string;
@@ -32,12 +33,12 @@ export interface ReproduceReport {
   identical: boolean;
 }
 
-async function hashOf(path: string): Promise<string | null> {
-  try {
-    return sha256Hex(await readFile(path));
-  } catch {
-    return null;
-  }
+function compareDigests(a: FileDigest, b: FileDigest): FileComparison {
+  if (a.kind === 'missing') return 'missing in original';
+  if (a.kind === 'unreadable') return 'unreadable in original';
+  if (b.kind === 'missing') return 'missing in regenerated';
+  if (b.kind === 'unreadable') return 'unreadable in regenerated';
+  return a.sha256 === b.sha256 ? 'identical' : 'different';
 }
 
 function listedPaths(manifest: DatasetManifest | null): string[] {
@@ -85,9 +86,7 @@ export async function reproduceDataset(request: ReproduceRequest): Promise<Repro
   if (generated.status === 'stopped') return { generated, seedVersion: seed.pliantVersion, comparisons, identical: false };
   const paths = [...new Set([...listedPaths(original.manifest), ...(generated.listedPaths ?? [])])].sort();
   for (const path of paths) {
-    const a = await hashOf(join(originalDir, path));
-    const b = await hashOf(join(generated.outDir, path));
-    comparisons.push({ path, result: a === null ? 'missing in original' : b === null ? 'missing in regenerated' : a === b ? 'identical' : 'different' });
+    comparisons.push({ path, result: compareDigests(await digestFile(join(originalDir, path)), await digestFile(join(generated.outDir, path))) });
   }
   const regeneratedManifest = await readFile(join(generated.outDir, MANIFEST_FILE), 'utf8');
   const a = checkedPart(original.manifestText);

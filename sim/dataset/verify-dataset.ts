@@ -1,10 +1,9 @@
 // Checks a dataset folder against its manifest: the manifest against its schema, every listed
 // file for presence, size and SHA-256, and the cross references between episodes and files.
 // Any problem makes the report fail; nothing is repaired.
-import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { readFolderState } from './dataset-folder-state.ts';
-import { sha256Hex } from './sha256.ts';
+import { describeUnhashed, digestFile } from './file-digest.ts';
 import type { FileRecord } from './dataset-manifest.ts';
 
 export interface VerifyReport {
@@ -16,15 +15,10 @@ export interface VerifyReport {
 }
 
 export async function checkFileRecord(dir: string, record: FileRecord): Promise<string | null> {
-  let bytes: Uint8Array;
-  try {
-    bytes = await readFile(join(dir, record.path));
-  } catch {
-    return `missing file: ${record.path}`;
-  }
-  if (bytes.length !== record.sizeBytes) return `size mismatch: ${record.path} has ${bytes.length} bytes, the manifest says ${record.sizeBytes}`;
-  const found = sha256Hex(bytes);
-  if (found !== record.sha256) return `checksum mismatch: ${record.path} has SHA-256 ${found}, the manifest says ${record.sha256}`;
+  const digest = await digestFile(join(dir, record.path));
+  if (digest.kind !== 'hashed') return describeUnhashed(digest, record.path);
+  if (digest.sizeBytes !== record.sizeBytes) return `size mismatch: ${record.path} has ${digest.sizeBytes} bytes, the manifest says ${record.sizeBytes}`;
+  if (digest.sha256 !== record.sha256) return `checksum mismatch: ${record.path} has SHA-256 ${digest.sha256}, the manifest says ${record.sha256}`;
   return null;
 }
 
