@@ -18,6 +18,7 @@ import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
 import { readManifestHead, readManifestStream } from './manifest-stream.ts';
 import type { ManifestEvent, StreamedFileRecord } from './manifest-stream.ts';
 import { readTextIfPresent } from './text-file.ts';
+import { folderOverlap } from './folder-overlap.ts';
 import { writeDatasetFile } from './dataset-file-writer.ts';
 import { checkFileRecord } from './verify-dataset.ts';
 import { sha256Hex } from './sha256.ts';
@@ -98,6 +99,13 @@ async function ensureMergeTarget(outDir: string, force: boolean): Promise<void> 
 export async function mergeShards(request: MergeRequest): Promise<MergeResult> {
   const outDir = resolve(request.outDir);
   if (request.shardDirs.length === 0) throw new DatasetRequestError('give the shard folders to merge, e.g. `pliant merge shard-0 shard-1 --out all`');
+  // Before anything is read or written: --force would delete an input that the output is, holds or lies in.
+  for (const dir of request.shardDirs) {
+    const overlap = folderOverlap(outDir, dir);
+    if (overlap === null) continue;
+    const how = overlap === 'same' ? 'is the shard folder' : overlap === 'inside' ? 'lies inside the shard folder' : 'contains the shard folder';
+    throw new DatasetRequestError(`--out ${outDir} ${how} ${resolve(dir)} (after following links); merging there would overwrite the shard. Choose a new folder outside every shard`);
+  }
   const shards: Shard[] = [];
   for (const dir of request.shardDirs) shards.push(await readShard(resolve(dir)));
 
