@@ -14,6 +14,7 @@ import {
   CARD_FILE,
   EPISODES_FOLDER,
   INPUTS_FOLDER,
+  LOCK_FILE,
   MANIFEST_FILE,
   SEED_FILE,
   WORK_DONE_FOLDER,
@@ -39,6 +40,7 @@ import type { InputSource } from './dataset-inputs.ts';
 import type { GenerationListener } from './generation-progress.ts';
 import { makeSeedFile, renderSeedFile } from './seed-file.ts';
 import { shardEpisodes } from './shard-plan.ts';
+import { lockFolder } from './folder-lock.ts';
 import type { ShardPlan } from './shard-plan.ts';
 import { readTextIfPresent } from './text-file.ts';
 import { isUsableSplitName } from './dataset-files.ts';
@@ -143,7 +145,28 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
   const inputs = await gatherInputs(scenario, request.inputs);
   const seed = makeSeedFile(scenario, inputs.seedInputs, request.pliantVersion);
   const seedText = renderSeedFile(seed);
-  const entries = await folderEntries(outDir);
+  if ((await folderEntries(outDir)) === null) ensureFolder(outDir);
+  // Held until the run ends, however it ends: two runs writing one folder would rename files over each other.
+  const command = request.runInfo?.command;
+  const lock = lockFolder(outDir, Array.isArray(command) ? command.slice(0, 2).join(' ') : 'a Pliant run');
+  try {
+    return await generateLocked(request, outDir, shard, startedAt, inputs, seed, seedText);
+  } finally {
+    lock.release();
+  }
+}
+
+async function generateLocked(
+  request: GenerateRequest,
+  outDir: string,
+  shard: ShardPlan | null,
+  startedAt: string,
+  inputs: Awaited<ReturnType<typeof gatherInputs>>,
+  seed: ReturnType<typeof makeSeedFile>,
+  seedText: string,
+): Promise<GenerateResult> {
+  const scenario = request.scenario;
+  const entries = (await folderEntries(outDir))!.filter((name) => name !== LOCK_FILE);
   let resuming = false;
   if (entries !== null && entries.length > 0) {
     if (request.resume) {

@@ -10,7 +10,7 @@ import { join, resolve } from 'node:path';
 import { DatasetRequestError } from './dataset-request-error.ts';
 import { readFileBytes } from './read-file-bytes.ts';
 import { parseSeedFile } from './seed-file.ts';
-import { MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeDonePath, episodeId, episodeNpzPath, episodePartPath } from './dataset-files.ts';
+import { LOCK_FILE, MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeDonePath, episodeId, episodeNpzPath, episodePartPath } from './dataset-files.ts';
 import type { EpisodeRecord, ManifestHead } from './dataset-manifest.ts';
 import { readCompletion, renderCompletion } from './episode-completion.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
@@ -19,7 +19,8 @@ import { readManifestHead, readManifestStream } from './manifest-stream.ts';
 import type { ManifestEvent, StreamedFileRecord } from './manifest-stream.ts';
 import { readTextIfPresent } from './text-file.ts';
 import { folderOverlap } from './folder-overlap.ts';
-import { writeDatasetFile } from './dataset-file-writer.ts';
+import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
+import { lockFolder } from './folder-lock.ts';
 import { checkFileRecord } from './verify-dataset.ts';
 import { sha256Hex } from './sha256.ts';
 import type { GenerationListener } from './generation-progress.ts';
@@ -83,7 +84,7 @@ async function ensureMergeTarget(outDir: string, force: boolean): Promise<void> 
   let entries: string[];
   try {
     if (!(await stat(outDir)).isDirectory()) throw new DatasetRequestError(`--out ${outDir} is a file, not a folder`);
-    entries = await readdir(outDir);
+    entries = (await readdir(outDir)).filter((name) => name !== LOCK_FILE);
   } catch (error) {
     if (error instanceof DatasetRequestError) throw error;
     return;
@@ -138,7 +139,20 @@ export async function mergeShards(request: MergeRequest): Promise<MergeResult> {
       if (event.kind === 'run') s.run = event.run;
     }
   }
-  await ensureMergeTarget(outDir, request.force);
+  const outInfo = await stat(outDir).catch(() => null);
+  if (outInfo && !outInfo.isDirectory()) throw new DatasetRequestError(`--out ${outDir} is a file, not a folder`);
+  if (!outInfo) ensureFolder(outDir);
+  // Locked before --force deletes anything, so a merge never deletes what another run is writing.
+  const lock = lockFolder(outDir, 'pliant merge');
+  try {
+    await ensureMergeTarget(outDir, request.force);
+    return await mergeLocked(request, outDir, shards, first, seed);
+  } finally {
+    lock.release();
+  }
+}
+
+async function mergeLocked(request: MergeRequest, outDir: string, shards: Shard[], first: Shard, seed: ReturnType<typeof parseSeedFile>): Promise<MergeResult> {
 
   const seedRecord = writeDatasetFile(outDir, SEED_FILE, first.seedText);
   for (const input of seed.inputs) {
