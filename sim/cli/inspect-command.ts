@@ -38,8 +38,9 @@ export const inspectCommand: CliCommand = {
       const total = r.sizes.reduce((sum, s) => sum + s.bytes, 0);
       lines.push('', 'Files:', ...table([['kind', 'files', 'size'], ...r.sizes.map((s) => [s.kind, String(s.files), bytes(s.bytes)]), ['total', String(r.sizes.reduce((n, s) => n + s.files, 0)), bytes(total)]]));
     }
-    lines.push('', r.rejected.length === 0 ? 'Rejected episodes: none' : `Rejected episodes (${r.rejected.length}):`);
+    lines.push('', r.rejectedCount === 0 ? 'Rejected episodes: none' : `Rejected episodes (${r.rejectedCount}):`);
     if (r.rejected.length > 0) lines.push(...table([['episode', 'split', 'step', 'node', 'what happened'], ...r.rejected.map((e) => [e.id, e.split, String(e.step), String(e.node), `${e.kind}: ${e.cause}`])]));
+    if (r.rejectedCount > r.rejected.length) lines.push(`  … and ${r.rejectedCount - r.rejected.length} more (the manifest lists every one)`);
     io.stdout(`${lines.join('\n')}\n`);
     return 0;
   },

@@ -24,7 +24,7 @@ export const mergeCommand: CliCommand = {
     const out = parsed.values.get('--out');
     if (out === undefined) throw new CliUsageError('--out DIR is required: the folder for the merged dataset');
     if (parsed.positionals.length === 0) throw new CliUsageError('give the shard folders to merge: pliant merge SHARD_DIR... --out DIR');
-    const manifest = await withCliFailures('', () =>
+    const merged = await withCliFailures('', () =>
       mergeShards({
         shardDirs: parsed.positionals.map((p) => resolve(io.cwd, p)),
         outDir: resolve(io.cwd, out),
@@ -32,8 +32,7 @@ export const mergeCommand: CliCommand = {
         pliantVersion: PLIANT_VERSION,
       }),
     );
-    const ok = manifest.episodes.filter((e) => e.status === 'ok').length;
-    io.stdout(`merged ${parsed.positionals.length} shards into ${shownPath(io.cwd, resolve(io.cwd, out))}: ${ok} episodes recorded, ${manifest.episodes.length - ok} rejected, ${manifest.files.length} data files\n`);
+    io.stdout(`merged ${parsed.positionals.length} shards into ${shownPath(io.cwd, resolve(io.cwd, out))}: ${merged.ok} episodes recorded, ${merged.rejected} rejected, ${merged.dataFileCount} data files\n`);
     return 0;
   },
 };

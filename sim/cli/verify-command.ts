@@ -22,10 +22,10 @@ export const verifyCommand: CliCommand = {
     const dir = parsed.positionals[0];
     const report = await withCliFailures('', () => verifyDataset(resolve(io.cwd, dir)));
     if (report.ok) {
-      io.stdout(`${dir}: ok — ${report.verifiedFiles.length} files match the manifest's SHA-256\n`);
+      io.stdout(`${dir}: ok — ${report.verifiedFileCount} files match the manifest's SHA-256\n`);
       return 0;
     }
-    io.stderr(`${dir}: ${report.problems.length} problem${report.problems.length === 1 ? '' : 's'}\n${report.problems.map((p) => `  ${p}`).join('\n')}\n`);
+    io.stderr(`${dir}: ${report.problemCount} problem${report.problemCount === 1 ? '' : 's'}\n${report.problems.map((p) => `  ${p}`).join('\n')}\n`);
     return 1;
   },
 };

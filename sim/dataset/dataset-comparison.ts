@@ -2,13 +2,12 @@
 // manifest lists is hashed in both folders (SHA-256, FIPS 180-4) and called identical, different
 // or missing; files the regenerated folder has beyond those are extra. manifest.json is compared
 // as JSON without its `run` member, the one part that differs between runs by design.
-import { createHash } from 'node:crypto';
-import { createReadStream } from 'node:fs';
-import { readdir, stat } from 'node:fs/promises';
+import { readdir } from 'node:fs/promises';
 import { join } from 'node:path';
 import { MANIFEST_FILE, WORK_FOLDER } from './dataset-files.ts';
 import { readFolderState } from './dataset-folder-state.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
+import { digestFile } from './file-digest.ts';
 
 export type FileComparisonResult = 'identical' | 'different' | 'missing' | 'extra';
 
@@ -27,15 +26,14 @@ export async function compareDatasetFolders(originalDir: string, regeneratedDir:
   const listed = [...original.manifest.documents, ...original.manifest.files];
   const comparisons: FileComparison[] = [];
   for (const record of listed) {
-    const there = join(regeneratedDir, record.path);
-    if (!(await isFile(there))) {
+    const there = await hashOf(join(regeneratedDir, record.path));
+    if (there === null) {
       comparisons.push({ file: record.path, result: 'missing' });
       continue;
     }
-    const here = join(originalDir, record.path);
     // A file lost from the original still has its recorded digest to compare with.
-    const originalDigest = (await isFile(here)) ? await fileSha256Hex(here) : record.sha256;
-    comparisons.push({ file: record.path, result: (await fileSha256Hex(there)) === originalDigest ? 'identical' : 'different' });
+    const originalDigest = (await hashOf(join(originalDir, record.path))) ?? record.sha256;
+    comparisons.push({ file: record.path, result: there === originalDigest ? 'identical' : 'different' });
   }
   comparisons.push({
     file: MANIFEST_FILE,
@@ -51,19 +49,12 @@ function withoutRun(manifest: object): string {
   return JSON.stringify(rest);
 }
 
-async function isFile(path: string): Promise<boolean> {
-  return stat(path).then((s) => s.isFile(), () => false);
-}
-
-/** Streamed, so a large HDF5 file neither sits in memory nor holds the event loop for long. */
-function fileSha256Hex(path: string): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const hash = createHash('sha256');
-    createReadStream(path)
-      .on('data', (chunk) => hash.update(chunk))
-      .on('error', (error) => reject(new DatasetRequestError(`cannot read ${path} (${(error as { code?: string }).code ?? error.message}); check that it is readable`)))
-      .on('end', () => resolve(hash.digest('hex')));
-  });
+/** The file's SHA-256, null when it is not there; a file that is there but unreadable is an error, never "missing". */
+async function hashOf(path: string): Promise<string | null> {
+  const digest = await digestFile(path);
+  if (digest.kind === 'hashed') return digest.sha256;
+  if (digest.kind === 'missing') return null;
+  throw new DatasetRequestError(`cannot read ${path} (${digest.reason}); check that it is a readable file`);
 }
 
 async function filesBelow(dir: string, prefix: string): Promise<string[]> {

@@ -16,6 +16,8 @@ export const WORK_FOLDER = '.pliant-work';
 export const WORK_PLAN_FILE = `${WORK_FOLDER}/plan.json`;
 export const WORK_DONE_FOLDER = `${WORK_FOLDER}/done`;
 export const WORK_PARTS_FOLDER = `${WORK_FOLDER}/parts`;
+/** Present while a run writes the folder: who holds it (see folder-lock.ts). */
+export const LOCK_FILE = '.pliant-lock';
 
 const SPLIT_NAME = /^[A-Za-z0-9][A-Za-z0-9_-]{0,63}$/;
 

@@ -9,7 +9,6 @@
 // file is written one episode group at a time, and manifest.json is written member by member.
 // What is kept for the whole sweep is a few numbers per episode (split positions and the
 // scalar labels the card's histograms need).
-import { statSync } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead } from './dataset-manifest.ts';
@@ -23,7 +22,8 @@ import { writeDatasetFile, writeDatasetTextStreamed } from './dataset-file-write
 import { decodeNpz } from './npz.ts';
 import { writeSplitHdf5 } from './split-hdf5.ts';
 import type { SplitEpisode } from './split-hdf5.ts';
-import { sha256FileHex } from './sha256.ts';
+import { digestFile } from './file-digest.ts';
+import { DatasetReadError } from './dataset-read-error.ts';
 import type { SeedFile } from './seed-file.ts';
 import type { ShardPlan } from './shard-plan.ts';
 import type { GenerationListener } from './generation-progress.ts';
@@ -131,10 +131,12 @@ async function assembleSplit(request: FinishRequest, split: string, positions: r
   const absolute = join(request.outDir, path);
   await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed }, splitEpisodes(request, positions));
   const { completions } = request;
+  const digest = await digestFile(absolute);
+  if (digest.kind !== 'hashed') throw new DatasetReadError(absolute, '', `the file just written cannot be read back (${digest.kind === 'missing' ? 'ENOENT' : digest.reason})`, 'check the disk and run the same command again with --resume');
   return {
     path,
-    sha256: sha256FileHex(absolute),
-    sizeBytes: statSync(absolute).size,
+    sha256: digest.sha256,
+    sizeBytes: digest.sizeBytes,
     kind: 'split-hdf5',
     split,
     episodes: new StreamedList(function* () {

@@ -9,7 +9,7 @@ import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { EpisodeRecord, FileRecord } from './dataset-manifest.ts';
 import type { ArrayLayout } from './episode-outcome.ts';
-import { sha256Hex } from './sha256.ts';
+import { digestFile } from './file-digest.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import { systemErrorCode } from './read-file-bytes.ts';
 
@@ -48,8 +48,8 @@ export async function readTrustedCompletion(outDir: string, path: string, expect
   if (completion?.record?.id !== expectedId) return null;
   if (completion.record.status === 'rejected') return completion.npz === null ? completion : null;
   if (!completion.npz) return null;
-  const bytes = await readIfPresent(join(outDir, completion.npz.path));
-  if (bytes === null || bytes.length !== completion.npz.sizeBytes || sha256Hex(bytes) !== completion.npz.sha256) return null;
+  const digest = await digestFile(join(outDir, completion.npz.path));
+  if (digest.kind !== 'hashed' || digest.sizeBytes !== completion.npz.sizeBytes || digest.sha256 !== completion.npz.sha256) return null;
   return completion;
 }
 

@@ -14,6 +14,7 @@ import {
   CARD_FILE,
   EPISODES_FOLDER,
   INPUTS_FOLDER,
+  LOCK_FILE,
   MANIFEST_FILE,
   SEED_FILE,
   WORK_DONE_FOLDER,
@@ -29,7 +30,7 @@ import { DatasetRequestError } from './dataset-request-error.ts';
 import { toDatasetWriteError } from './dataset-write-error.ts';
 import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
 import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
-import type { DatasetManifest } from './dataset-manifest.ts';
+import { readManifestHead, readManifestStream } from './manifest-stream.ts';
 import { readCompletion, readTrustedCompletion, renderCompletion } from './episode-completion.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
 import type { EpisodeOutcome } from './episode-outcome.ts';
@@ -39,6 +40,7 @@ import type { InputSource } from './dataset-inputs.ts';
 import type { GenerationListener } from './generation-progress.ts';
 import { makeSeedFile, renderSeedFile } from './seed-file.ts';
 import { shardEpisodes } from './shard-plan.ts';
+import { lockFolder } from './folder-lock.ts';
 import type { ShardPlan } from './shard-plan.ts';
 import { readTextIfPresent } from './text-file.ts';
 import { isUsableSplitName } from './dataset-files.ts';
@@ -66,7 +68,7 @@ export interface GenerateResult {
   outDir: string;
   ok: number;
   rejected: number;
-  /** Paths of the documents and data files the manifest lists; null when the run stopped early. */
+  /** Paths of the documents and data files the manifest lists; null when the run stopped early or the folder was already complete. */
   listedPaths: string[] | null;
 }
 
@@ -90,6 +92,13 @@ async function folderEntries(path: string): Promise<string[] | null> {
   }
   if (!info.isDirectory()) throw new DatasetRequestError(`--out ${path} is a file, not a folder; choose a folder name`);
   return readdir(path);
+}
+
+/** The shard a finished folder's manifest records; its head is read, never the whole file. */
+function manifestShard(manifestPath: string): ShardPlan | null {
+  const { head, problems } = readManifestHead(manifestPath);
+  if (!head) throw new DatasetRequestError(`--resume: ${problems[0] ?? `${manifestPath} has no head`}; use --force to start over, or another --out folder`);
+  return head.shard;
 }
 
 function samePlan(a: ShardPlan | null, b: ShardPlan | null): boolean {
@@ -136,7 +145,28 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
   const inputs = await gatherInputs(scenario, request.inputs);
   const seed = makeSeedFile(scenario, inputs.seedInputs, request.pliantVersion);
   const seedText = renderSeedFile(seed);
-  const entries = await folderEntries(outDir);
+  if ((await folderEntries(outDir)) === null) ensureFolder(outDir);
+  // Held until the run ends, however it ends: two runs writing one folder would rename files over each other.
+  const command = request.runInfo?.command;
+  const lock = lockFolder(outDir, Array.isArray(command) ? command.slice(0, 2).join(' ') : 'a Pliant run');
+  try {
+    return await generateLocked(request, outDir, shard, startedAt, inputs, seed, seedText);
+  } finally {
+    lock.release();
+  }
+}
+
+async function generateLocked(
+  request: GenerateRequest,
+  outDir: string,
+  shard: ShardPlan | null,
+  startedAt: string,
+  inputs: Awaited<ReturnType<typeof gatherInputs>>,
+  seed: ReturnType<typeof makeSeedFile>,
+  seedText: string,
+): Promise<GenerateResult> {
+  const scenario = request.scenario;
+  const entries = (await folderEntries(outDir))!.filter((name) => name !== LOCK_FILE);
   let resuming = false;
   if (entries !== null && entries.length > 0) {
     if (request.resume) {
@@ -150,18 +180,24 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
         throw new DatasetRequestError(`--resume: ${join(outDir, SEED_FILE)} describes a different dataset (other scenario, overrides or Pliant version); resume with the same scenario and flags, or use --force to start over`);
       }
       const planText = await readTextIfPresent(join(outDir, WORK_PLAN_FILE));
-      const manifestText = await readTextIfPresent(join(outDir, MANIFEST_FILE));
+      // The manifest is read as a stream: a finished folder's may be larger than any string.
+      const manifestPath = join(outDir, MANIFEST_FILE);
+      const manifestThere = entries.includes(MANIFEST_FILE);
       const recorded: ShardPlan | null | undefined = planText !== null
         ? (JSON.parse(planText) as WorkPlan).shard
-        : manifestText !== null ? (JSON.parse(manifestText) as DatasetManifest).shard : undefined;
+        : manifestThere ? manifestShard(manifestPath) : undefined;
       if (recorded !== undefined && !samePlan(recorded, shard)) {
         throw new DatasetRequestError(`--resume: ${outDir} holds ${describeShard(recorded)}, but this run asks for ${describeShard(shard)}; give the same --shard`);
       }
-      if (manifestText !== null && planText === null && !entries.includes(WORK_FOLDER)) {
-        const manifest = JSON.parse(manifestText) as DatasetManifest;
-        const ok = manifest.episodes.filter((e) => e.status === 'ok').length;
-        const listedPaths = [...manifest.documents.map((d) => d.path), ...manifest.files.map((f) => f.path)];
-        return { status: 'already-complete', outDir, ok, rejected: manifest.episodes.length - ok, listedPaths };
+      if (manifestThere && planText === null && !entries.includes(WORK_FOLDER)) {
+        let ok = 0;
+        let listed = 0;
+        for (const event of readManifestStream(manifestPath)) {
+          if (event.kind !== 'episode') continue;
+          listed++;
+          if (event.record.status === 'ok') ok++;
+        }
+        return { status: 'already-complete', outDir, ok, rejected: listed - ok, listedPaths: null };
       }
       resuming = true;
     } else if (request.force) {

@@ -1,12 +1,15 @@
 // A summary of a dataset folder for a person at a terminal: episodes per split, the range of
 // every sampled parameter, the space the files take and the episodes that were rejected. Works
-// on unfinished folders too, from their completion records.
-import { readFile, readdir } from 'node:fs/promises';
+// on unfinished folders too, from their completion records. The manifest is read as a stream,
+// one record at a time, so its size does not matter.
+import { readFile, readdir, stat } from 'node:fs/promises';
 import { join } from 'node:path';
-import { readFolderState } from './dataset-folder-state.ts';
-import type { EpisodeRecord } from './dataset-manifest.ts';
+import type { EpisodeRecord, ManifestHead } from './dataset-manifest.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
-import { WORK_DONE_FOLDER } from './dataset-files.ts';
+import { MANIFEST_FILE, SEED_FILE, WORK_DONE_FOLDER, WORK_FOLDER } from './dataset-files.ts';
+import { readManifestStream } from './manifest-stream.ts';
+import { DatasetReadError } from './dataset-read-error.ts';
+import { readTextIfPresent } from './text-file.ts';
 import { formatLabelNumber } from './text-histogram.ts';
 import { unitOfLabel } from './label-units.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
@@ -21,7 +24,10 @@ export interface DatasetInspection {
   splits: Array<{ split: string; ok: number; rejected: number }>;
   parameters: Array<{ pointer: string; unit: string; summary: string }>;
   sizes: Array<{ kind: string; files: number; bytes: number }>;
+  /** The first MAX_LISTED_REJECTED rejected episodes. */
   rejected: Array<{ id: string; split: string; step: number; node: number; kind: string; cause: string }>;
+  /** How many episodes were rejected in all. */
+  rejectedCount: number;
 }
 
 async function completionsOf(dir: string): Promise<EpisodeRecord[]> {
@@ -42,61 +48,134 @@ async function completionsOf(dir: string): Promise<EpisodeRecord[]> {
   return records;
 }
 
-function parameterSummary(episodes: EpisodeRecord[]): DatasetInspection['parameters'] {
-  const pointers = [...new Set(episodes.flatMap((e) => Object.keys(e.labels)))];
-  const channelUnits = new Map(episodes.flatMap((e) => e.controlChannels).map((c) => [c.name, c.unit]));
-  return pointers.map((pointer) => {
-    const values = episodes.filter((e) => pointer in e.labels).map((e) => e.labels[pointer]);
-    const numbers = values.filter((v): v is number => typeof v === 'number');
-    let summary: string;
-    if (numbers.length === values.length && numbers.length > 0) {
-      const min = Math.min(...numbers);
-      const max = Math.max(...numbers);
-      summary = min === max ? `${formatLabelNumber(min)} (fixed)` : `${formatLabelNumber(min)} to ${formatLabelNumber(max)}`;
-    } else {
-      const distinct = [...new Set(values.map((v) => (typeof v === 'string' ? v : JSON.stringify(v))))];
-      summary = distinct.length <= 4 ? distinct.join(', ') : `${distinct.length} distinct values`;
+/** Beyond this many rejected episodes the inspection lists the first ones and counts the rest. */
+export const MAX_LISTED_REJECTED = 1000;
+const DISTINCT_SHOWN = 4;
+
+/** The range (numbers) or the few distinct values (anything else) of each label, taken one episode at a time. */
+class ParameterRanges {
+  private readonly byPointer = new Map<string, { min: number; max: number; numeric: boolean; count: number; distinct: Set<string> }>();
+  private readonly channelUnits = new Map<string, string>();
+
+  add(episode: EpisodeRecord): void {
+    for (const c of episode.controlChannels) if (!this.channelUnits.has(c.name)) this.channelUnits.set(c.name, c.unit);
+    for (const [pointer, value] of Object.entries(episode.labels)) {
+      let range = this.byPointer.get(pointer);
+      if (!range) this.byPointer.set(pointer, (range = { min: Infinity, max: -Infinity, numeric: true, count: 0, distinct: new Set() }));
+      range.count++;
+      if (typeof value === 'number') {
+        range.min = Math.min(range.min, value);
+        range.max = Math.max(range.max, value);
+      } else {
+        range.numeric = false;
+      }
+      // One more than is shown is enough to know there are too many to show.
+      if (range.distinct.size <= DISTINCT_SHOWN) range.distinct.add(typeof value === 'string' ? value : JSON.stringify(value));
     }
-    return { pointer, unit: unitOfLabel(pointer, channelUnits), summary };
-  });
+  }
+
+  summary(): DatasetInspection['parameters'] {
+    return [...this.byPointer].map(([pointer, range]) => {
+      let summary: string;
+      if (range.numeric && range.count > 0) {
+        summary = range.min === range.max ? `${formatLabelNumber(range.min)} (fixed)` : `${formatLabelNumber(range.min)} to ${formatLabelNumber(range.max)}`;
+      } else {
+        summary = range.distinct.size <= DISTINCT_SHOWN ? [...range.distinct].join(', ') : `more than ${DISTINCT_SHOWN} distinct values`;
+      }
+      return { pointer, unit: unitOfLabel(pointer, this.channelUnits), summary };
+    });
+  }
+}
+
+/** Everything the inspection takes from the episode records, gathered one record at a time. */
+class EpisodeTally {
+  readonly ranges = new ParameterRanges();
+  readonly splits = new Map<string, { ok: number; rejected: number }>();
+  readonly rejected: DatasetInspection['rejected'] = [];
+  rejectedCount = 0;
+  listed = 0;
+
+  add(e: EpisodeRecord): void {
+    this.listed++;
+    this.ranges.add(e);
+    const counts = this.splits.get(e.split) ?? { ok: 0, rejected: 0 };
+    this.splits.set(e.split, counts);
+    if (e.status === 'ok') {
+      counts.ok++;
+      return;
+    }
+    counts.rejected++;
+    if (!e.rejection) return;
+    this.rejectedCount++;
+    if (this.rejected.length < MAX_LISTED_REJECTED) {
+      this.rejected.push({ id: e.id, split: e.split, step: e.rejection.step, node: e.rejection.node, kind: e.rejection.kind, cause: e.rejection.likelyCause });
+    }
+  }
 }
 
 export async function inspectDataset(dir: string): Promise<DatasetInspection> {
-  const state = await readFolderState(dir);
-  const manifest = state.manifest;
-  if (!manifest && !state.inProgress) {
-    throw new DatasetRequestError(`${dir} holds no usable manifest: ${state.manifestProblems[0]}; run \`pliant verify ${dir}\` for details`);
+  const info = await stat(dir).catch(() => null);
+  if (!info) throw new DatasetRequestError(`${dir} does not exist; give the folder a Pliant run wrote`);
+  if (!info.isDirectory()) throw new DatasetRequestError(`${dir} is a file; give the dataset folder that holds ${MANIFEST_FILE}`);
+  const inProgress = await stat(join(dir, WORK_FOLDER)).then((s) => s.isDirectory(), () => false);
+  const seedText = await readTextIfPresent(join(dir, SEED_FILE));
+  const tally = new EpisodeTally();
+  const manifestPath = join(dir, MANIFEST_FILE);
+  let head: ManifestHead | null = null;
+  const sizes = new Map<string, { files: number; bytes: number }>();
+  const addSize = (kind: string, sizeBytes: number): void => {
+    const entry = sizes.get(kind) ?? { files: 0, bytes: 0 };
+    sizes.set(kind, entry);
+    entry.files++;
+    entry.bytes += sizeBytes;
+  };
+  const manifestThere = await stat(manifestPath).then(() => true, () => false);
+  if (manifestThere) {
+    const problems: string[] = [];
+    try {
+      for (const event of readManifestStream(manifestPath)) {
+        if (event.kind === 'problem') problems.push(event.message);
+        else if (event.kind === 'head') head = event.head;
+        else if (event.kind === 'episode') tally.add(event.record);
+        else if (event.kind === 'file') addSize(event.record.kind === 'episode-npz' ? 'episode NPZ' : 'split HDF5', event.record.sizeBytes);
+        else if (event.kind === 'documents') for (const d of event.documents) addSize('documents and inputs', d.sizeBytes);
+      }
+    } catch (error) {
+      if (!(error instanceof DatasetReadError)) throw error;
+      problems.push(error.message);
+    }
+    if (problems.length > 0) {
+      if (!inProgress) throw new DatasetRequestError(`${dir} holds no usable manifest: ${problems[0]}; run \`pliant verify ${dir}\` for details`);
+      head = null;
+    }
+  } else if (!inProgress) {
+    throw new DatasetRequestError(`${dir} holds no usable manifest: ${MANIFEST_FILE} is missing; run \`pliant verify ${dir}\` for details`);
   }
-  const episodes = manifest ? manifest.episodes : await completionsOf(dir);
-  const seed = state.seedText ? (JSON.parse(state.seedText) as { scenario?: { name?: string }; episodeCount?: number }) : {};
+  const fromManifest = head !== null;
+  if (!fromManifest) {
+    const unfinished = new EpisodeTally();
+    for (const record of await completionsOf(dir)) unfinished.add(record);
+    return describe(dir, null, inProgress, seedText, unfinished, new Map());
+  }
+  return describe(dir, head, inProgress, seedText, tally, sizes);
+}
+
+function describe(dir: string, head: ManifestHead | null, inProgress: boolean, seedText: string | null, tally: EpisodeTally, sizes: Map<string, { files: number; bytes: number }>): DatasetInspection {
+  const seed = seedText ? (JSON.parse(seedText) as { scenario?: { name?: string }; episodeCount?: number }) : {};
   // A finished manifest also lists the splits that drew no episode.
-  const splitNames = [...new Set([...Object.keys(manifest?.splits ?? {}), ...episodes.map((e) => e.split)])];
-  const splits = splitNames.map((split) => {
-    const members = episodes.filter((e) => e.split === split);
-    const ok = members.filter((e) => e.status === 'ok').length;
-    return { split, ok, rejected: members.length - ok };
-  });
-  const sizes: DatasetInspection['sizes'] = [];
-  if (manifest) {
-    const groups: Array<[string, Array<{ sizeBytes: number }>]> = [
-      ['episode NPZ', manifest.files.filter((f) => f.kind === 'episode-npz')],
-      ['split HDF5', manifest.files.filter((f) => f.kind === 'split-hdf5')],
-      ['documents and inputs', manifest.documents],
-    ];
-    for (const [kind, files] of groups) if (files.length > 0) sizes.push({ kind, files: files.length, bytes: files.reduce((sum, f) => sum + f.sizeBytes, 0) });
-  }
+  const splitNames = [...new Set([...Object.keys(head?.splits ?? {}), ...tally.splits.keys()])];
+  const order = ['episode NPZ', 'split HDF5', 'documents and inputs'];
   return {
     dir,
-    name: manifest?.name ?? seed.scenario?.name ?? '',
-    state: manifest && !state.inProgress ? 'complete' : 'in progress',
-    shard: manifest?.shard ?? null,
-    episodeCount: manifest?.episodeCount ?? seed.episodeCount ?? episodes.length,
-    listedEpisodes: episodes.length,
-    splits,
-    parameters: parameterSummary(episodes),
-    sizes,
-    rejected: episodes
-      .filter((e) => e.status === 'rejected' && e.rejection)
-      .map((e) => ({ id: e.id, split: e.split, step: e.rejection!.step, node: e.rejection!.node, kind: e.rejection!.kind, cause: e.rejection!.likelyCause })),
+    name: head?.name ?? seed.scenario?.name ?? '',
+    state: head && !inProgress ? 'complete' : 'in progress',
+    shard: head?.shard ?? null,
+    episodeCount: head?.episodeCount ?? seed.episodeCount ?? tally.listed,
+    listedEpisodes: tally.listed,
+    splits: splitNames.map((split) => ({ split, ...(tally.splits.get(split) ?? { ok: 0, rejected: 0 }) })),
+    parameters: tally.ranges.summary(),
+    sizes: order.filter((kind) => sizes.has(kind)).map((kind) => ({ kind, ...sizes.get(kind)! })),
+    rejected: tally.rejected,
+    rejectedCount: tally.rejectedCount,
   };
 }

@@ -5,13 +5,32 @@ import type { ErrorObject, ValidateFunction } from 'ajv';
 import { MANIFEST_SCHEMA } from './manifest-schema.ts';
 import type { DatasetManifest } from './dataset-manifest.ts';
 
-let compiled: ValidateFunction | undefined;
+let ajv: Ajv2020 | undefined;
 
-function validator(): ValidateFunction {
-  // strictTypes would demand a type beside every if/then; the schema states types in the branches.
-  compiled ??= new Ajv2020({ strict: true, strictTypes: false, allErrors: true }).compile(MANIFEST_SCHEMA);
-  return compiled;
+function validator(piece = ''): ValidateFunction {
+  if (!ajv) {
+    // strictTypes would demand a type beside every if/then; the schema states types in the branches.
+    ajv = new Ajv2020({ strict: true, strictTypes: false, allErrors: true });
+    ajv.addSchema(MANIFEST_SCHEMA);
+  }
+  let validate = pieceValidators.get(piece);
+  if (!validate) pieceValidators.set(piece, (validate = ajv.getSchema(`${MANIFEST_SCHEMA.$id}${piece}`)!));
+  return validate;
 }
+const pieceValidators = new Map<string, ValidateFunction>();
+
+/** The parts of a manifest a streaming reader checks one at a time, and where each sits in the schema. */
+const PIECES = {
+  head: '',
+  documents: '#/properties/documents',
+  run: '#/properties/run',
+  episode: '#/properties/episodes/items',
+  file: '#/properties/files/items',
+  'episode-id': '#/properties/files/items/properties/episodes/items',
+  array: '#/properties/files/items/properties/arrays/items',
+} as const;
+
+export type ManifestPiece = keyof typeof PIECES;
 
 function describe(error: ErrorObject): string {
   const where = error.instancePath === '' ? '/' : error.instancePath;
@@ -25,7 +44,22 @@ function describe(error: ErrorObject): string {
 
 /** Problems with the manifest, as "pointer: message" lines; empty when it is valid. */
 export function manifestProblems(value: unknown): string[] {
-  const validate = validator();
+  return problemsAgainst(validator(), value);
+}
+
+/**
+ * Problems with one piece of a manifest, pointers relative to the piece. The head is checked as
+ * a manifest whose lists are empty, so its required members and their types are the schema's.
+ */
+export function manifestPieceProblems(piece: ManifestPiece, value: unknown): string[] {
+  if (piece === 'head') {
+    const whole = value !== null && typeof value === 'object' ? { ...value, episodes: [], files: [], documents: [], run: {} } : value;
+    return problemsAgainst(validator(), whole);
+  }
+  return problemsAgainst(validator(PIECES[piece]), value);
+}
+
+function problemsAgainst(validate: ValidateFunction, value: unknown): string[] {
   if (validate(value)) return [];
   // if/then failures repeat the underlying error; keep the informative ones.
   const errors = (validate.errors ?? []).filter((e) => e.keyword !== 'if');

@@ -1,18 +1,19 @@
 // Regenerates a dataset from its seed.json into a new folder and compares the two file by file
 // (bytes, by SHA-256): the proof that a dataset is what its seed file says it is.
-import { readFile } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { parseSeedFile } from './seed-file.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
 import { generateDataset } from './generate-dataset.ts';
 import type { GenerateResult } from './generate-dataset.ts';
 import type { GenerationListener } from './generation-progress.ts';
-import { readFolderState } from './dataset-folder-state.ts';
 import { MANIFEST_FILE } from './dataset-files.ts';
-import type { DatasetManifest } from './dataset-manifest.ts';
-import { sha256Hex } from './sha256.ts';
+import { DatasetReadError } from './dataset-read-error.ts';
+import { listedManifestPaths, manifestDigestWithoutRun, readManifestHead } from './manifest-stream.ts';
+import { digestFile } from './file-digest.ts';
+import type { FileDigest } from './file-digest.ts';
 
-export type FileComparison = 'identical' | 'different' | 'missing in original' | 'missing in regenerated';
+export type FileComparison = 'identical' | 'different' | 'missing in original' | 'missing in regenerated' | 'unreadable in original' | 'unreadable in regenerated';
 
 export interface ReproduceRequest {
   seedPath: string;
@@ -32,27 +33,12 @@ export interface ReproduceReport {
   identical: boolean;
 }
 
-async function hashOf(path: string): Promise<string | null> {
-  try {
-    return sha256Hex(await readFile(path));
-  } catch {
-    return null;
-  }
-}
-
-function listedPaths(manifest: DatasetManifest | null): string[] {
-  return manifest ? [...manifest.documents.map((d) => d.path), ...manifest.files.map((f) => f.path)] : [];
-}
-
-/** The manifest without `run`, the part two copies of a dataset must share. */
-function checkedPart(text: string | null): string | null {
-  if (text === null) return null;
-  try {
-    const { run: _run, ...rest } = JSON.parse(text) as DatasetManifest;
-    return JSON.stringify(rest);
-  } catch {
-    return null;
-  }
+function compareDigests(a: FileDigest, b: FileDigest): FileComparison {
+  if (a.kind === 'missing') return 'missing in original';
+  if (a.kind === 'unreadable') return 'unreadable in original';
+  if (b.kind === 'missing') return 'missing in regenerated';
+  if (b.kind === 'unreadable') return 'unreadable in regenerated';
+  return a.sha256 === b.sha256 ? 'identical' : 'different';
 }
 
 export async function reproduceDataset(request: ReproduceRequest): Promise<ReproduceReport> {
@@ -65,14 +51,23 @@ export async function reproduceDataset(request: ReproduceRequest): Promise<Repro
   }
   const seed = parseSeedFile(seedText, request.seedPath);
   const originalDir = dirname(seedPath);
-  const original = await readFolderState(originalDir);
+  const originalManifest = join(originalDir, MANIFEST_FILE);
+  const originalThere = await stat(originalManifest).then(() => true, () => false);
+  // Only the head is read here; the manifest may be larger than any string.
+  let originalHead = null;
+  try {
+    if (originalThere) originalHead = readManifestHead(originalManifest).head;
+  } catch (error) {
+    // A damaged original manifest is reported by the comparison below, not here.
+    if (!(error instanceof DatasetReadError)) throw error;
+  }
   if (resolve(request.outDir) === originalDir) throw new DatasetRequestError('--out must be a different folder from the one holding the seed file');
   const generated = await generateDataset({
     scenario: seed.scenario,
     inputs: { kind: 'seed', seedDir: originalDir, seedName: request.seedPath, inputs: seed.inputs },
     outDir: request.outDir,
     // A shard's seed file regenerates that shard.
-    shard: original.manifest?.shard ?? null,
+    shard: originalHead?.shard ?? null,
     workers: request.workers,
     resume: false,
     force: request.force,
@@ -83,17 +78,16 @@ export async function reproduceDataset(request: ReproduceRequest): Promise<Repro
   });
   const comparisons: ReproduceReport['comparisons'] = [];
   if (generated.status === 'stopped') return { generated, seedVersion: seed.pliantVersion, comparisons, identical: false };
-  const paths = [...new Set([...listedPaths(original.manifest), ...(generated.listedPaths ?? [])])].sort();
-  for (const path of paths) {
-    const a = await hashOf(join(originalDir, path));
-    const b = await hashOf(join(generated.outDir, path));
-    comparisons.push({ path, result: a === null ? 'missing in original' : b === null ? 'missing in regenerated' : a === b ? 'identical' : 'different' });
+  const paths = new Set<string>();
+  if (originalHead) for (const path of listedManifestPaths(originalManifest)) paths.add(path);
+  for (const path of generated.listedPaths ?? []) paths.add(path);
+  for (const path of [...paths].sort()) {
+    comparisons.push({ path, result: compareDigests(await digestFile(join(originalDir, path)), await digestFile(join(generated.outDir, path))) });
   }
-  const regeneratedManifest = await readFile(join(generated.outDir, MANIFEST_FILE), 'utf8');
-  const a = checkedPart(original.manifestText);
+  const a = originalThere ? manifestDigestWithoutRun(originalManifest) : null;
   comparisons.push({
     path: `${MANIFEST_FILE} (all but "run")`,
-    result: a === null ? 'missing in original' : a === checkedPart(regeneratedManifest) ? 'identical' : 'different',
+    result: a === null ? 'missing in original' : a === manifestDigestWithoutRun(join(generated.outDir, MANIFEST_FILE)) ? 'identical' : 'different',
   });
   return { generated, seedVersion: seed.pliantVersion, comparisons, identical: comparisons.every((c) => c.result === 'identical') };
 }
