@@ -29,7 +29,7 @@ function tether(): Json {
       lengthM: { kind: 'uniform', min: 2, max: 5 },
       totalMassKg: { kind: 'uniform', min: 0.5, max: 1.2 },
       axialStiffnessN: { kind: 'log-uniform', min: 1000, max: 20000 },
-      bendingStiffnessRatio: 0.05,
+      secondNeighbourSpringRatio: 0.05,
       dampingRatio: 0.1,
       diameterM: 0.012,
       anchor: 'top-driven',

@@ -143,9 +143,10 @@ function arraySection(source: CardSource): string[] {
   const lines = ['| array | dtype | shape | unit | meaning |', '| --- | --- | --- | --- | --- |'];
   for (const a of EPISODE_ARRAYS) {
     if (a.latticeOnly && !lattice) continue;
+    if (a.chainOnly && !source.tally.hasChain) continue;
     lines.push(`| \`${a.name}\` | ${a.dtype === 'float' ? float : a.dtype} | (${a.shape.join(', ')}) | ${a.unit} | ${a.meaning} |`);
   }
-  lines.push('', 'T is the number of recorded steps, N nodes, C control channels, E springs, K cells. The control channels of each episode (name, kind, unit) are listed under `controlChannels` in its manifest record; its sampled parameters under `labels`.');
+  lines.push('', 'T is the number of recorded steps, N nodes, C control channels, E springs, K cells, H bending hinges, Q clamps. The control channels of each episode (name, kind, unit) are listed under `controlChannels` in its manifest record; its sampled parameters under `labels`.');
   return lines;
 }
 

@@ -108,12 +108,23 @@ function findFractionProblems(scenario: Scenario): ScenarioProblem[] {
   return [{ pointer: '/splits/fractions', message: `must sum to 1 (got ${parts} = ${Number(sum.toPrecision(12))}); adjust them, e.g. train 0.8, validation 0.1, test 0.1` }];
 }
 
+function nodeIndexProblems(spec: ChainSystemSpec['pinnedNodes'][number], pointer: string, shortest: number): ScenarioProblem[] {
+  const { min, max } = specBounds(spec);
+  if (max > shortest) return [{ pointer, message: `can be node ${max}, which the shortest chain (${shortest} parts, nodes 0 to ${shortest}) does not have; use a smaller index, or a negative one to count from the free end` }];
+  if (min < -(shortest + 1)) return [{ pointer, message: `can be ${min}, which counts past the start of the shortest chain (${shortest + 1} nodes, so -1 to -${shortest + 1}); use an index closer to the free end` }];
+  return [];
+}
+
 function findChainProblems(spec: ChainSystemSpec): ScenarioProblem[] {
   const problems: ScenarioProblem[] = [];
   if (spec.directionUnit.every((c) => isConstant(c) && specBounds(c).max === 0)) {
     problems.push({ pointer: '/system/directionUnit', message: 'is the zero vector [0, 0, 0], which has no direction; give e.g. [0, -1, 0] to hang the chain downwards' });
   }
+  if (spec.clampedEnds.length > 0 && specBounds(spec.bendingStiffnessNm2).min <= 0) {
+    problems.push({ pointer: '/system/clampedEnds', message: 'clamps an end, but /system/bendingStiffnessNm2 can be 0, and a clamp acts through the bending rigidity; give bendingStiffnessNm2 > 0 (EI in N·m²) or leave clampedEnds out' });
+  }
   const shortest = specBounds(spec.partCount).min;
+  spec.pinnedNodes.forEach((node, i) => problems.push(...nodeIndexProblems(node, `/system/pinnedNodes/${i}`, shortest)));
   const seen = new Map<number, number>();
   spec.forceHandles.forEach((handle, i) => {
     const pointer = `/system/forceHandles/${i}`;

@@ -37,7 +37,22 @@ const chainSchema = closed(
     lengthM: valueSpecSchema('Unstretched length of the whole chain, m.', { exclusiveMinimum: 0 }),
     totalMassKg: valueSpecSchema('Mass of the whole chain, kg.', { exclusiveMinimum: 0 }),
     axialStiffnessN: valueSpecSchema('Axial rigidity EA (Young\'s modulus times cross-section area), N.', { exclusiveMinimum: 0 }),
-    bendingStiffnessRatio: valueSpecSchema('Stiffness of the bending springs (node i to i + 2) over the structural ones, dimensionless; 0 for none.', { minimum: 0, default: 0 }),
+    secondNeighbourSpringRatio: valueSpecSchema('Stiffness of springs from node i to node i + 2 over the structural ones, dimensionless; 0 for none. They resist folding but give no bending stiffness about a straight line: use bendingStiffnessNm2 for that.', { minimum: 0, default: 0 }),
+    bendingStiffnessNm2: valueSpecSchema('Bending rigidity EI, N·m² (for a solid round section EI = E·π·d⁴/64): a turning-angle hinge at every interior node; 0 for none.', { minimum: 0, default: 0 }),
+    bendingDampingRatio: valueSpecSchema('Damping ratio of each bending hinge: of a node moving across the line through its two neighbours, dimensionless (1 is critical).', { minimum: 0, default: 0 }),
+    clampedEnds: {
+      type: 'array',
+      items: { type: 'string', enum: ['top', 'bottom'] },
+      uniqueItems: true,
+      default: [],
+      description: 'Ends held in position and direction (along directionUnit): "top" is node 0, "bottom" the last node. Needs bendingStiffnessNm2 > 0. A clamped top-driven node keeps its direction while it moves.',
+    },
+    pinnedNodes: {
+      type: 'array',
+      description: 'Further nodes held in place; negative indices count from the free end, -1 is the tip.',
+      items: valueSpecSchema('Node index of a pinned node; negative counts from the free end.', { integer: true }),
+      default: [],
+    },
     dampingRatio: valueSpecSchema('Damping ratio of each spring with its two end masses, dimensionless (1 is critical).', { minimum: 0 }),
     diameterM: valueSpecSchema('Outer diameter, m: sets the drag width and the displaced volume.', { exclusiveMinimum: 0 }),
     anchor: {

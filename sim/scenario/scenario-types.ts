@@ -5,7 +5,7 @@
 // Defaults named in the schema are filled in by checking, so every member below is present.
 import type { ControlSpec } from '../controls/control-spec.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
-import type { Axis, ChainAnchor } from '../systems/chain.ts';
+import type { Axis, ChainAnchor, ChainEnd } from '../systems/chain.ts';
 import type { LatticeBase, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
 
 export type Vector3Spec = [NumericValueSpec, NumericValueSpec, NumericValueSpec];
@@ -16,7 +16,13 @@ export interface ChainSystemSpec {
   lengthM: NumericValueSpec;
   totalMassKg: NumericValueSpec;
   axialStiffnessN: NumericValueSpec;
-  bendingStiffnessRatio: NumericValueSpec;
+  secondNeighbourSpringRatio: NumericValueSpec;
+  /** Bending rigidity EI, N·m². */
+  bendingStiffnessNm2: NumericValueSpec;
+  bendingDampingRatio: NumericValueSpec;
+  clampedEnds: ChainEnd[];
+  /** Node indices; negative ones count from the free end (−1: the tip). */
+  pinnedNodes: NumericValueSpec[];
   dampingRatio: NumericValueSpec;
   diameterM: NumericValueSpec;
   anchor: ChainAnchor;
