@@ -65,7 +65,7 @@ describe('SCENARIO_SCHEMA', () => {
     expect(s.time.autoSafety).toBe(props.time.properties.autoSafety.default);
     expect(s.world.gravityMPerS2).toEqual(props.world.properties.gravityMPerS2.default);
     expect(s.world.ground).toBeUndefined();
-    expect(s.controls).toEqual({ default: props.controls.properties.default.default, channels: {} });
+    expect(s.controls).toEqual({ default: props.controls.properties.default.default, channels: {}, rampInS: props.controls.properties.rampInS.default });
     expect(s.initialState).toEqual({ positionNoiseM: 0, velocityNoiseMPerS: 0 });
     expect(s.description).toBe('');
   });

@@ -8,6 +8,7 @@ import { valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NUMBER_SEED, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
+import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 
@@ -224,6 +225,13 @@ const controlsSchema = closed(
       description: 'Signals by channel name, or by channel index written as a string ("0").',
       additionalProperties: { $ref: CONTROL_SPEC_REF },
       default: {},
+    },
+    rampInS: {
+      type: 'number',
+      minimum: 0,
+      maximum: 3600,
+      default: DEFAULT_RAMP_IN_S,
+      description: `Every channel's signal (after its clip) is multiplied by a raised-cosine ramp ½(1 − cos(π·t/rampInS)) from 0 to 1 over the first rampInS seconds, so episodes start smoothly from the built state instead of with a jolt; 0 turns it off. Default ${DEFAULT_RAMP_IN_S} s.`,
     },
   },
   [],

@@ -112,6 +112,8 @@ export interface ControlsSpec {
   default: ControlSpec;
   /** Per channel, by its name (e.g. "top-offset-x") or its index as a string ("0"). */
   channels: Record<string, ControlSpec>;
+  /** Every channel's signal is multiplied by a raised-cosine ramp from 0 to 1 over this long, s (0: none). */
+  rampInS: number;
 }
 
 export interface TimeSpec {
