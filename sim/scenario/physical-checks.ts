@@ -10,6 +10,7 @@ import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
 import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
+import { findLatticeClampProblems } from './lattice-clamp-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveWorld } from './resolve-world.ts';
@@ -52,6 +53,10 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
     const shape = findLatticeShapeProblems(scenario.system);
     problems.push(...shape.problems);
     maxNodes = shape.maxNodes;
+    if (shape.problems.length === 0) {
+      const lattice = resolveLatticeParameters(scenario.system, new DemandingCorner('demanding'));
+      problems.push(...findLatticeClampProblems(scenario.system, lattice, lattice.materials));
+    }
   }
   const states = (scenario.time.recordedSteps + 1) * maxNodes;
   if (states > MAX_RECORDED_NODE_STATES) {
@@ -125,6 +130,7 @@ function findChainProblems(spec: ChainSystemSpec): ScenarioProblem[] {
   }
   const shortest = specBounds(spec.partCount).min;
   spec.pinnedNodes.forEach((node, i) => problems.push(...nodeIndexProblems(node, `/system/pinnedNodes/${i}`, shortest)));
+  spec.drivenNodes.forEach((node, i) => problems.push(...nodeIndexProblems(node, `/system/drivenNodes/${i}`, shortest)));
   const seen = new Map<number, number>();
   spec.forceHandles.forEach((handle, i) => {
     const pointer = `/system/forceHandles/${i}`;

@@ -24,6 +24,7 @@ export function resolveChainParameters(spec: ChainSystemSpec, resolver: Paramete
     bendingDampingRatio: resolver.value(spec.bendingDampingRatio, '/system/bendingDampingRatio', 'high'),
     clampedEnds: [...spec.clampedEnds],
     pinnedNodes: spec.pinnedNodes.map((node, i) => resolver.value(node, `/system/pinnedNodes/${i}`, 'none')),
+    drivenNodes: spec.drivenNodes.map((node, i) => resolver.value(node, `/system/drivenNodes/${i}`, 'none')),
     dampingRatio: resolver.value(spec.dampingRatio, '/system/dampingRatio', 'high'),
     diameterM: resolver.value(spec.diameterM, '/system/diameterM', 'none'),
     anchor: spec.anchor,

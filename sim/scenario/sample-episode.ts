@@ -54,7 +54,7 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
     const lattice = resolveLatticeParameters(spec, draws);
     const body = latticeBody(spec.shape, lattice.shape, lattice.materials, spec.base === 'clamped', shapeStream(seed, episodeIndex));
     dimensions = latticeDimension(body.materialMap);
-    system = buildLattice({ cellSizeM: lattice.cellSizeM, materialMap: body.materialMap, materials: body.materials, base: spec.base, originM: lattice.originM });
+    system = buildLattice({ cellSizeM: lattice.cellSizeM, materialMap: body.materialMap, materials: body.materials, base: spec.base, originM: lattice.originM, clamps: lattice.clamps });
   }
   const world = resolveWorld(scenario.world, draws);
   const positionStdM = draws.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');

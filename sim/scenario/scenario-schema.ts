@@ -70,7 +70,13 @@ const chainSchema = closed(
       default: [],
     },
     forceAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which every handle is pushed.', default: ['x', 'y', 'z'] },
-    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which a top-driven node 0 follows its control channels.', default: ['x', 'y', 'z'] },
+    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which a top-driven node 0 and every node of drivenNodes follow their control channels.', default: ['x', 'y', 'z'] },
+    drivenNodes: {
+      type: 'array',
+      description: 'Further nodes moved by control channels along drivenAxes ("<node>-offset-<axis>", e.g. "tip-offset-x" or "node4-offset-y", a displacement in m from the start); negative indices count from the free end, -1 is the tip.',
+      items: valueSpecSchema('Node index of a driven node; negative counts from the free end.', { integer: true }),
+      default: [],
+    },
   },
   ['kind', 'partCount', 'lengthM', 'totalMassKg', 'axialStiffnessN', 'dampingRatio', 'diameterM', 'anchor'],
 );
@@ -160,6 +166,26 @@ const materialSchema = closed(
   ['name', 'youngsModulusPa', 'densityKgPerM3', 'dampingRatio'],
 );
 
+const latticeClampSchema = closed(
+  'A group of lattice nodes held in place, or moved by control channels along drivenAxes (a shaking table). Give exactly one of face, cells and boxM.',
+  {
+    name: { type: 'string', pattern: '^[a-z][a-z0-9-]{0,31}$', description: 'Start of the group\'s channel names ("table" gives "table-offset-x"); default "clamp-<position in the list>".' },
+    face: { type: 'string', enum: ['-x', '+x', '-y', '+y', '-z', '+z'], description: 'Every node on the body\'s outermost grid plane on that side (-y is the bottom; 2-D lattices have no z faces).' },
+    cells: {
+      type: 'array',
+      minItems: 1,
+      description: 'Every corner node of these cells, each given by its grid position [x, y] (2-D) or [x, y, z] (3-D), counting from 0 at the grid\'s minimum corner.',
+      items: { type: 'array', minItems: 2, maxItems: 3, items: { type: 'integer', minimum: 0 }, description: 'Grid position of a filled cell.' },
+    },
+    boxM: closed('Every node whose built position lies inside this axis-aligned box (faces included), m.', {
+      min: vector3('Minimum corner of the box, m.'),
+      max: vector3('Maximum corner of the box, m.'),
+    }, ['min', 'max']),
+    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, default: [], description: 'Axes along which the group follows its channels (one "<name>-offset-<axis>" channel each, a displacement in m from the built position); empty: the group is pinned.' },
+  },
+  [],
+);
+
 const latticeSchema = closed(
   'A soft body of square (2-D) or cubic (3-D) cells sharing corner nodes; actuated materials change their springs\' rest lengths with their channel.',
   {
@@ -169,6 +195,7 @@ const latticeSchema = closed(
     materials: { type: 'array', minItems: 1, maxItems: 64, items: materialSchema, description: 'Materials, referred to by position (1 is the first).' },
     base: { type: 'string', enum: ['clamped', 'free'], default: 'free', description: 'clamped: the bottom nodes of the lowest layer are pinned; free: nothing is pinned.' },
     originM: vector3('Position of the grid\'s minimum corner, m.', {}, [0, 0, 0]),
+    clamps: { type: 'array', items: latticeClampSchema, default: [], description: 'Further node groups held in place or driven: faces, cells or boxes.' },
   },
   ['kind', 'cellSizeM', 'shape', 'materials'],
 );

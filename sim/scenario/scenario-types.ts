@@ -6,7 +6,7 @@
 import type { ControlSpec } from '../controls/control-spec.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import type { Axis, ChainAnchor, ChainEnd } from '../systems/chain.ts';
-import type { LatticeBase, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
+import type { LatticeBase, LatticeFace, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
 
 export type Vector3Spec = [NumericValueSpec, NumericValueSpec, NumericValueSpec];
 
@@ -23,6 +23,7 @@ export interface ChainSystemSpec {
   clampedEnds: ChainEnd[];
   /** Node indices; negative ones count from the free end (−1: the tip). */
   pinnedNodes: NumericValueSpec[];
+  drivenNodes: NumericValueSpec[];
   dampingRatio: NumericValueSpec;
   diameterM: NumericValueSpec;
   anchor: ChainAnchor;
@@ -73,6 +74,14 @@ export interface GeneratedShapeSpec {
 
 export type LatticeShapeSpec = MapListShapeSpec | GeneratedShapeSpec;
 
+export interface LatticeClampSpec {
+  name?: string;
+  face?: LatticeFace;
+  cells?: number[][];
+  boxM?: { min: Vector3Spec; max: Vector3Spec };
+  drivenAxes: Axis[];
+}
+
 export interface LatticeSystemSpec {
   kind: 'lattice';
   cellSizeM: NumericValueSpec;
@@ -80,6 +89,7 @@ export interface LatticeSystemSpec {
   materials: LatticeMaterialSpec[];
   base: LatticeBase;
   originM: Vector3Spec;
+  clamps: LatticeClampSpec[];
 }
 
 export type SystemSpec = ChainSystemSpec | LatticeSystemSpec;

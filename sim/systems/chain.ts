@@ -37,6 +37,11 @@ export interface ChainParameters {
   clampedEnds?: ChainEnd[];
   /** Further pinned nodes; negative indices count from the free end (−1: the tip). */
   pinnedNodes?: number[];
+  /**
+   * Further nodes moved by control channels along drivenAxes, like a driven top; negative
+   * indices count from the free end. Channels "<node label>-offset-<axis>" ("tip-offset-x").
+   */
+  drivenNodes?: number[];
   /** Damping ratio of each spring's two-mass oscillator, dimensionless. */
   dampingRatio: number;
   /** Outer diameter, m: sets the fluid panel width and the displaced volume. */
@@ -50,7 +55,7 @@ export interface ChainParameters {
   forceHandles: number[];
   /** Axes along which each handle is pushed (one control channel each). */
   forceAxes: Axis[];
-  /** Axes along which a driven top follows its control channels (top-driven only). */
+  /** Axes along which a driven top and the drivenNodes follow their control channels. */
   drivenAxes: Axis[];
 }
 
@@ -123,6 +128,16 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
       channels.push({ index: channels.length, name: `top-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of the driven top along ${axis} from its start, reached at the end of each control interval` });
     }
     builder.addDriven(0, axes);
+  }
+  for (const index of p.drivenNodes ?? []) {
+    const node = nodeIndex(index, nodeCount, 'driven node');
+    const label = handleLabel(index);
+    const axes: [number, number, number] = [-1, -1, -1];
+    for (const axis of p.drivenAxes) {
+      axes[AXIS_INDEX[axis]] = channels.length;
+      channels.push({ index: channels.length, name: `${label}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of node ${node} (${label}) along ${axis} from its start, reached at the end of each control interval` });
+    }
+    builder.addDriven(node, axes);
   }
   for (const handle of p.forceHandles) {
     const node = nodeIndex(handle, nodeCount, 'force handle');
