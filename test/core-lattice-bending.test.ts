@@ -85,7 +85,7 @@ describe('thin 2-D lattice cantilever against Euler–Bernoulli (δ = wL⁴/8EI)
 
 describe('lattice clamps pick the nodes their definitions name', () => {
   it('faces, cells and a box of a 4 × 2 strip', () => {
-    const held = (clamp: LatticeClamp): number[] => {
+    const held = (clamp: LatticeClamp): string[] => {
       const model = strip(2, 4, [clamp]).model;
       const out: number[] = [];
       for (let i = 0; i < model.nodeCount; i++) if (model.nodeFlags[i] & (NODE_PINNED | NODE_DRIVEN)) out.push(i);

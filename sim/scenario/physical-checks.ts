@@ -14,6 +14,8 @@ import { findLatticeClampProblems } from './lattice-clamp-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveWorld } from './resolve-world.ts';
+import { resolveStartState } from './resolve-start-state.ts';
+import { findStartStateProblems } from './start-state-checks.ts';
 import { FRACTION_SUM_TOLERANCE, MAX_RECORDED_NODE_STATES, MAX_STRING_SEED } from './scenario-limits.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { ChainSystemSpec, Scenario } from './scenario-types.ts';
@@ -26,6 +28,7 @@ export function parameterSites(scenario: Scenario): ParameterSite[] {
   if (scenario.system.kind === 'chain') resolveChainParameters(scenario.system, corner);
   else resolveLatticeParameters(scenario.system, corner);
   resolveWorld(scenario.world, corner);
+  resolveStartState(scenario.initialState, corner);
   corner.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
   corner.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');
   return corner.sites;
@@ -72,6 +75,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   const demanding = cornerSystems(scenario, 'demanding');
   const gentle = cornerSystems(scenario, 'gentle');
   problems.push(...findChannelKeyProblems(scenario, [...demanding, ...gentle]));
+  problems.push(...findStartStateProblems(scenario, [...demanding, ...gentle]));
   problems.push(...findStabilityProblems(scenario, demanding, cornerWords(sites)));
   return problems;
 }

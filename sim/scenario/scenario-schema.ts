@@ -283,8 +283,15 @@ const timeSchema = closed(
 );
 
 const initialStateSchema = closed(
-  'Randomisation of the start state; pinned and driven nodes are never moved.',
+  'The start state: a pose (rotation, translation) of the built shape, an optional settling under gravity before recording, a uniform start velocity and spin, then noise. Pinned and driven nodes are never moved.',
   {
+    rotationRad: valueSpecSchema('Rigid rotation of the start pose, rad, about rotationAxisUnit through the first pinned or driven node (a chain\'s top: the chain starts at this angle), or through the centre of mass of a body with none. 2-D lattices turn about z.', { default: 0 }),
+    rotationAxisUnit: vector3('Axis of the start rotation, normalised before use.', {}, [0, 0, 1]),
+    translationM: vector3('Shift of the start pose of a body with no pinned or driven node, m.', {}, [0, 0, 0]),
+    settleS: valueSpecSchema('Seconds the system relaxes under its world (controls at 0, extra drag settleDragPerS) before recording starts, so hanging or resting bodies start at rest; 0 for none. Velocities are zeroed afterwards.', { minimum: 0, maximum: 600, default: 0 }),
+    settleDragPerS: valueSpecSchema('Extra mass-proportional drag while settling, 1/s (about twice the slowest mode\'s angular frequency settles it fastest).', { minimum: 0, default: 10 }),
+    velocityMPerS: vector3('Uniform start velocity of every free node, m/s (after settling).', {}, [0, 0, 0]),
+    spinRadPerS: vector3('Start angular velocity about the rotation pivot, rad/s: each free node gets ω × (x − pivot) on top of velocityMPerS.', {}, [0, 0, 0]),
     positionNoiseM: valueSpecSchema('Standard deviation of normal noise on each coordinate of every free node, m.', { minimum: 0, default: 0 }),
     velocityNoiseMPerS: valueSpecSchema('Standard deviation of normal noise on each velocity component of every free node, m/s.', { minimum: 0, default: 0 }),
   },

@@ -135,6 +135,13 @@ export interface TimeSpec {
 }
 
 export interface InitialStateSpec {
+  rotationRad: NumericValueSpec;
+  rotationAxisUnit: Vector3Spec;
+  translationM: Vector3Spec;
+  settleS: NumericValueSpec;
+  settleDragPerS: NumericValueSpec;
+  velocityMPerS: Vector3Spec;
+  spinRadPerS: Vector3Spec;
   /** Standard deviation of the normal noise added to each coordinate of every free node, m. */
   positionNoiseM: NumericValueSpec;
   /** Standard deviation of the normal noise given to each velocity component of every free node, m/s. */
