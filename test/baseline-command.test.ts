@@ -23,7 +23,7 @@ function tether(name: string, partCount: number, splits: object): object {
     formatVersion: 1,
     name,
     description: 'Korrin Bay test tank: a short tether dragged by the rover. Invented numbers for demonstration.',
-    system: { kind: 'chain', partCount, lengthM: 1, totalMassKg: 0.2, axialStiffnessN: { kind: 'uniform', min: 800, max: 1200 }, bendingStiffnessRatio: 0.02, dampingRatio: 0.1, diameterM: 0.008, anchor: 'top-driven', drivenAxes: ['x', 'z'] },
+    system: { kind: 'chain', partCount, lengthM: 1, totalMassKg: 0.2, axialStiffnessN: { kind: 'uniform', min: 800, max: 1200 }, secondNeighbourSpringRatio: 0.02, dampingRatio: 0.1, diameterM: 0.008, anchor: 'top-driven', drivenAxes: ['x', 'z'] },
     world: { gravityMPerS2: [0, -9.81, 0] },
     controls: { default: { kind: 'band-limited', cutoffHz: 1, std: 0.04, componentCount: 6 } },
     time: { recordIntervalS: 0.02, recordedSteps: 40 },

@@ -33,7 +33,7 @@ const AIR = {
   formatVersion: 1,
   name: 'korrin-probe-air',
   description: 'Korrin Bay test tank: a tether probe swung in air above the tank. Invented numbers for demonstration.',
-  system: { kind: 'chain', partCount: 6, lengthM: 1.2, totalMassKg: 0.3, axialStiffnessN: { kind: 'uniform', min: 500, max: 1500 }, bendingStiffnessRatio: 0.05, dampingRatio: { kind: 'uniform', min: 0.05, max: 0.2 }, diameterM: 0.008, anchor: 'top-driven', originM: [0, 2, 0], directionUnit: [1, -1, 0], drivenAxes: ['x', 'z'] },
+  system: { kind: 'chain', partCount: 6, lengthM: 1.2, totalMassKg: 0.3, axialStiffnessN: { kind: 'uniform', min: 500, max: 1500 }, secondNeighbourSpringRatio: 0.05, dampingRatio: { kind: 'uniform', min: 0.05, max: 0.2 }, diameterM: 0.008, anchor: 'top-driven', originM: [0, 2, 0], directionUnit: [1, -1, 0], drivenAxes: ['x', 'z'] },
   world: { gravityMPerS2: [0, { kind: 'uniform', min: -10.5, max: -8.5 }, 0], airDragPerS: { kind: 'uniform', min: 0.1, max: 0.5 } },
   controls: { default: { kind: 'band-limited', cutoffHz: 1.5, std: 0.05, componentCount: 8 } },
   time: { recordIntervalS: 0.001, recordedSteps: 400, substeps: 1 },
@@ -48,7 +48,7 @@ const FLOOR = {
   formatVersion: 1,
   name: 'korrin-probe-floor',
   description: 'Korrin Bay test tank: a loose tether length dropped onto the dry tank floor. Invented numbers for demonstration.',
-  system: { kind: 'chain', partCount: 5, lengthM: 0.5, totalMassKg: 0.1, axialStiffnessN: 300, bendingStiffnessRatio: 0.1, dampingRatio: 0.1, diameterM: 0.008, anchor: 'free', originM: [0, 0.05, 0], directionUnit: [1, 0.3, 0] },
+  system: { kind: 'chain', partCount: 5, lengthM: 0.5, totalMassKg: 0.1, axialStiffnessN: 300, secondNeighbourSpringRatio: 0.1, dampingRatio: 0.1, diameterM: 0.008, anchor: 'free', originM: [0, 0.05, 0], directionUnit: [1, 0.3, 0] },
   world: { gravityMPerS2: [0, -9.81, 0], ground: { heightM: 0, staticFriction: 0.6, kineticFriction: 0.4 } },
   time: { recordIntervalS: 0.001, recordedSteps: 400, substeps: 1 },
   initialState: { velocityNoiseMPerS: 0.2 },
@@ -122,17 +122,17 @@ function expectRecovered(ids: EpisodeIdentification[], expectedNames: string[]):
 
 describe('grey-box identification recovers the generating parameters (float64, one sub-step)', () => {
   it('in air: per-relation stiffness and damping, gravity and the air-drag rate', () => {
-    expectRecovered(identifyAll('air'), ['stiffness.structural', 'damping.structural', 'stiffness.bending', 'damping.bending', 'gravity.x', 'gravity.y', 'gravity.z', 'air-drag']);
+    expectRecovered(identifyAll('air'), ['stiffness.structural', 'damping.structural', 'stiffness.second-neighbour', 'damping.second-neighbour', 'gravity.x', 'gravity.y', 'gravity.z', 'air-drag']);
   });
 
   it('in water: with resistive-force drag and buoyancy (the fine-recorded Korrin tether)', () => {
-    expectRecovered(identifyAll('fine'), ['stiffness.structural', 'damping.structural', 'stiffness.bending', 'damping.bending', 'gravity.x', 'gravity.y', 'gravity.z', 'fluid-normal', 'fluid-tangential']);
+    expectRecovered(identifyAll('fine'), ['stiffness.structural', 'damping.structural', 'stiffness.second-neighbour', 'damping.second-neighbour', 'gravity.x', 'gravity.y', 'gravity.z', 'fluid-normal', 'fluid-tangential']);
   });
 
   it('on the tank floor: nodes in ground contact are left out and the rest still give the exact values', () => {
     const ids = identifyAll('floor');
     expect(ids.every((id) => id.contactExclusions > 0)).toBe(true); // the chain does land
-    expectRecovered(ids, ['stiffness.structural', 'damping.structural', 'stiffness.bending', 'damping.bending', 'gravity.x', 'gravity.y', 'gravity.z']);
+    expectRecovered(ids, ['stiffness.structural', 'damping.structural', 'stiffness.second-neighbour', 'damping.second-neighbour', 'gravity.x', 'gravity.y', 'gravity.z']);
   });
 });
 

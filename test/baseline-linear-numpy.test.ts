@@ -30,7 +30,7 @@ const SCENARIO = {
   formatVersion: 1,
   name: 'korrin-axial-probe',
   description: 'Korrin Bay test tank: a short tether probe shaken along its own axis with gravity off. Invented numbers for demonstration.',
-  system: { kind: 'chain', partCount: 4, lengthM: 0.8, totalMassKg: 0.2, axialStiffnessN: 400, bendingStiffnessRatio: 0.05, dampingRatio: 0.1, diameterM: 0.008, anchor: 'top-driven', originM: [0, 1, 0], directionUnit: [0, -1, 0], drivenAxes: ['y'] },
+  system: { kind: 'chain', partCount: 4, lengthM: 0.8, totalMassKg: 0.2, axialStiffnessN: 400, secondNeighbourSpringRatio: 0.05, dampingRatio: 0.1, diameterM: 0.008, anchor: 'top-driven', originM: [0, 1, 0], directionUnit: [0, -1, 0], drivenAxes: ['y'] },
   world: { gravityMPerS2: [0, 0, 0] },
   controls: { default: { kind: 'band-limited', cutoffHz: 4, std: 0.001, componentCount: 12 } },
   time: { recordIntervalS: 0.005, recordedSteps: 160, substeps: 'auto' },

@@ -69,7 +69,7 @@ describe('blow-up report (project rule: what, where, how to fix; common practice
 
   it('a handle force too large for the stiffness is reported as over-stretch at a stable step', () => {
     const system = buildChain({
-      partCount: 4, lengthM: 0.4, totalMassKg: 0.2, axialStiffnessN: 5, bendingStiffnessRatio: 0, dampingRatio: 0.5,
+      partCount: 4, lengthM: 0.4, totalMassKg: 0.2, axialStiffnessN: 5, secondNeighbourSpringRatio: 0, dampingRatio: 0.5,
       diameterM: 0.01, anchor: 'top-pinned', originM: [0, 0, 0], directionUnit: [1, 0, 0], forceHandles: [-1], forceAxes: ['x'], drivenAxes: [],
     });
     const steps = 100;

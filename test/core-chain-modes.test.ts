@@ -20,7 +20,7 @@ function chainParameters(): ChainParameters {
     lengthM: 1.3,
     totalMassKg: 0.65, // 0.05 kg per part: every interior node carries one part's mass
     axialStiffnessN: 26, // k = EA / segment = 26 / 0.1 = 260 N/m
-    bendingStiffnessRatio: 0,
+    secondNeighbourSpringRatio: 0,
     dampingRatio: 0,
     diameterM: 0.01,
     anchor: 'both-pinned',

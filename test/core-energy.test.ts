@@ -4,7 +4,7 @@
 // exact in decimal.
 import { describe, expect, it } from 'vitest';
 import { ModelBuilder } from '../sim/core/model-builder.ts';
-import { NODE_PINNED, RELATION_BENDING, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import { ENERGY_NAMES, measureEnergies } from '../sim/core/energy.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 
@@ -23,7 +23,7 @@ describe('energies of a three-node system, worked by hand (Halliday & Resnick)',
     builder.addNode({ positionM: [3, 4, 12], massKg: 0.2, velocityMPerS: [0, -3, 4] });
     builder.addSpring(0, 1, 10, 0.3, RELATION_STRUCTURAL, 4);
     builder.addSpring(1, 2, 40, 0.1, RELATION_STRUCTURAL, 12.5);
-    builder.addSpring(0, 2, 7, 0, RELATION_BENDING);
+    builder.addSpring(0, 2, 7, 0, RELATION_SECOND_NEIGHBOUR);
     return builder.build();
   }
 

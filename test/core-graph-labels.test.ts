@@ -8,7 +8,7 @@ import { buildChain } from '../sim/systems/chain.ts';
 import { buildLattice } from '../sim/systems/lattice.ts';
 import type { LatticeMaterial } from '../sim/systems/lattice.ts';
 import { graphLabels, NODE_FEATURE_NAMES } from '../sim/systems/graph-labels.ts';
-import { RELATION_BENDING, RELATION_NAMES, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { RELATION_SECOND_NEIGHBOUR, RELATION_NAMES, RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import { applyActuation } from '../sim/core/control-application.ts';
 
 const F = NODE_FEATURE_NAMES.length;
@@ -16,7 +16,7 @@ const F = NODE_FEATURE_NAMES.length;
 describe('graph labels of a chain (definitions in sim/systems/chain.ts)', () => {
   const parts = 6;
   const system = buildChain({
-    partCount: parts, lengthM: 1.2, totalMassKg: 0.3, axialStiffnessN: 60, bendingStiffnessRatio: 0.25, dampingRatio: 0.1,
+    partCount: parts, lengthM: 1.2, totalMassKg: 0.3, axialStiffnessN: 60, secondNeighbourSpringRatio: 0.25, dampingRatio: 0.1,
     diameterM: 0.006, anchor: 'top-driven', originM: [0, 2, 0], directionUnit: [0, -1, 0], forceHandles: [-1, 3], forceAxes: ['x', 'z'], drivenAxes: ['x'],
   });
   const labels = graphLabels(system.model);
@@ -42,13 +42,13 @@ describe('graph labels of a chain (definitions in sim/systems/chain.ts)', () => 
       const relation = labels.edgeRelation[e];
       edges.push(`${RELATION_NAMES[relation]} ${a}-${b}`);
       const span = b - a;
-      expect(relation).toBe(span === 1 ? RELATION_STRUCTURAL : RELATION_BENDING);
+      expect(relation).toBe(span === 1 ? RELATION_STRUCTURAL : RELATION_SECOND_NEIGHBOUR);
       expect(labels.edgeRestLengthM[e]).toBeCloseTo(span * segment, 14);
       expect(labels.edgeStiffnessNPerM[e]).toBeCloseTo(span === 1 ? k : 0.25 * k, 10);
       expect(labels.edgeDampingNsPerM[e]).toBeGreaterThan(0);
     }
     expect(edges.filter((e) => e.startsWith('structural')).length).toBe(parts);
-    expect(edges.filter((e) => e.startsWith('bending')).length).toBe(parts - 1);
+    expect(edges.filter((e) => e.startsWith('second-neighbour')).length).toBe(parts - 1);
     expect(new Set(edges).size).toBe(edges.length);
   });
 

@@ -15,7 +15,7 @@ function hangingChain(partCount: number, dampingRatio: number): ChainParameters 
     lengthM: 2,
     totalMassKg: 1.5,
     axialStiffnessN: 3000,
-    bendingStiffnessRatio: 0,
+    secondNeighbourSpringRatio: 0,
     dampingRatio,
     diameterM: 0.01,
     anchor: 'top-pinned',

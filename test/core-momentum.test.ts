@@ -44,7 +44,7 @@ function angularMomentum(model: Model, out: Float64Array): Float64Array {
 describe('free chain in zero gravity (Newton\'s third law; Hairer, Lubich & Wanner ch. IV)', () => {
   it('linear and angular momentum stay constant to ~1e-12 relative over 20,000 steps with springs and damping', () => {
     const system = buildChain({
-      partCount: 15, lengthM: 1.5, totalMassKg: 0.8, axialStiffnessN: 400, bendingStiffnessRatio: 0.3,
+      partCount: 15, lengthM: 1.5, totalMassKg: 0.8, axialStiffnessN: 400, secondNeighbourSpringRatio: 0.3,
       dampingRatio: 0.4, diameterM: 0.01, anchor: 'free', originM: [0.2, 1, -0.1], directionUnit: [1, 0.3, 0.2],
       forceHandles: [], forceAxes: [], drivenAxes: [],
     });
@@ -127,7 +127,7 @@ function expectCentreOfMassAcceleration(model: Model, forceChannels: number[], f
 describe('constant force on a free body: centre of mass accelerates at F/M (Newton\'s second law)', () => {
   it('chain: force channels on two handles', () => {
     const system = buildChain({
-      partCount: 10, lengthM: 1, totalMassKg: 0.4, axialStiffnessN: 200, bendingStiffnessRatio: 0.2,
+      partCount: 10, lengthM: 1, totalMassKg: 0.4, axialStiffnessN: 200, secondNeighbourSpringRatio: 0.2,
       dampingRatio: 0.1, diameterM: 0.01, anchor: 'free', originM: [0, 0, 0], directionUnit: [1, 0, 0],
       forceHandles: [0, -1], forceAxes: ['x', 'y', 'z'], drivenAxes: [],
     });

@@ -21,7 +21,7 @@ const CHAIN: ChainParameters = {
   lengthM: 1,
   totalMassKg: 0.5,
   axialStiffnessN: 500,
-  bendingStiffnessRatio: 0.1,
+  secondNeighbourSpringRatio: 0.1,
   dampingRatio: 0.1,
   diameterM: 0.01,
   anchor: 'top-pinned',

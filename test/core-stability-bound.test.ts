@@ -53,12 +53,12 @@ interface Case {
   model: Model;
 }
 
-function chainCase(partCount: number, anchor: ChainAnchor, bendingStiffnessRatio: number): Case {
+function chainCase(partCount: number, anchor: ChainAnchor, secondNeighbourSpringRatio: number): Case {
   const model = buildChain({
-    partCount, lengthM: 0.1 * partCount, totalMassKg: 0.02 * partCount, axialStiffnessN: 50, bendingStiffnessRatio,
+    partCount, lengthM: 0.1 * partCount, totalMassKg: 0.02 * partCount, axialStiffnessN: 50, secondNeighbourSpringRatio,
     dampingRatio: 0.05, diameterM: 0.008, anchor, originM: [0, 1, 0], directionUnit: [0.6, -0.8, 0], forceHandles: [], forceAxes: [], drivenAxes: [],
   }).model;
-  return { name: `chain of ${partCount} parts, ${anchor}, bending ratio ${bendingStiffnessRatio}`, model };
+  return { name: `chain of ${partCount} parts, ${anchor}, bending ratio ${secondNeighbourSpringRatio}`, model };
 }
 
 const MATERIALS: LatticeMaterial[] = [

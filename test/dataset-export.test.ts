@@ -56,7 +56,7 @@ function newtonScenario(): Scenario {
       lengthM: 1,
       totalMassKg: { kind: 'uniform', min: 0.4, max: 0.8 },
       axialStiffnessN: { kind: 'uniform', min: 50, max: 150 },
-      bendingStiffnessRatio: 0.1,
+      secondNeighbourSpringRatio: 0.1,
       dampingRatio: { kind: 'uniform', min: 0.02, max: 0.2 },
       diameterM: 0.01,
       anchor: 'top-pinned',
@@ -250,7 +250,7 @@ for e in manifest["episodes"]:
     m = a["node_features"][:, 0]
     for (i, j), rel, k, c, rest in zip(a["edges"], a["edge_relation"], a["edge_stiffness"], a["edge_damping"], a["edge_rest_length"]):
         springs += 1
-        k_expected = k_axial if rel == 0 else k_axial * L["/system/bendingStiffnessRatio"]
+        k_expected = k_axial if rel == 0 else k_axial * L["/system/secondNeighbourSpringRatio"]
         rest_expected = seg * (j - i)
         mu = m[i] * m[j] / (m[i] + m[j])
         c_expected = 2 * L["/system/dampingRatio"] * np.sqrt(k_expected * mu)

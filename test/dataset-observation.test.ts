@@ -47,7 +47,7 @@ function tetherScenario(extra: Record<string, unknown>, dtype: 'float32' | 'floa
       lengthM: 1.2,
       totalMassKg: 0.2,
       axialStiffnessN: 3000,
-      bendingStiffnessRatio: 0.02,
+      secondNeighbourSpringRatio: 0.02,
       dampingRatio: 0.1,
       diameterM: 0.008,
       anchor: 'top-driven',

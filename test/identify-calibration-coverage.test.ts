@@ -28,7 +28,7 @@ function pendulumScenario(): Scenario {
       lengthM: 1,
       totalMassKg: 0.6,
       axialStiffnessN: { kind: 'log-uniform', min: 100, max: 1000 },
-      bendingStiffnessRatio: 0,
+      secondNeighbourSpringRatio: 0,
       dampingRatio: { kind: 'uniform', min: 0.01, max: 0.2 },
       diameterM: 0.008,
       anchor: 'top-pinned',

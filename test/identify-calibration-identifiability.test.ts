@@ -20,7 +20,7 @@ const WRITTEN = {
     lengthM: 0.5,
     totalMassKg: { kind: 'uniform', min: 0.5, max: 1.5 },
     axialStiffnessN: { kind: 'log-uniform', min: 50, max: 500 },
-    bendingStiffnessRatio: 0,
+    secondNeighbourSpringRatio: 0,
     dampingRatio: { kind: 'uniform', min: 0.02, max: 0.2 },
     diameterM: 0.008,
     anchor: 'top-pinned',

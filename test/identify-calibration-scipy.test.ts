@@ -39,7 +39,7 @@ function springScenario(): Scenario {
       lengthM: LENGTH_M,
       totalMassKg: MASS_KG,
       axialStiffnessN: { kind: 'log-uniform', min: 50, max: 500 },
-      bendingStiffnessRatio: 0,
+      secondNeighbourSpringRatio: 0,
       dampingRatio: { kind: 'uniform', min: 0.02, max: 0.2 },
       diameterM: 0.008,
       anchor: 'top-pinned',

@@ -25,7 +25,7 @@ function tetherScenario(): Json {
       lengthM: { kind: 'uniform', min: 2, max: 5 },
       totalMassKg: 0.8,
       axialStiffnessN: { kind: 'log-uniform', min: 1000, max: 20000 },
-      bendingStiffnessRatio: 0.05,
+      secondNeighbourSpringRatio: 0.05,
       dampingRatio: 0.1,
       diameterM: 0.012,
       anchor: 'top-driven',

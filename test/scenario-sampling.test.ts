@@ -29,7 +29,7 @@ function tether(): Json {
       lengthM: { kind: 'uniform', min: 2, max: 5 },
       totalMassKg: { kind: 'uniform', min: 0.5, max: 1.2 },
       axialStiffnessN: { kind: 'log-uniform', min: 1000, max: 20000 },
-      bendingStiffnessRatio: 0.05,
+      secondNeighbourSpringRatio: 0.05,
       dampingRatio: 0.1,
       diameterM: 0.012,
       anchor: 'top-driven',
@@ -42,6 +42,8 @@ function tether(): Json {
       default: { kind: 'sinusoid', amplitude: { kind: 'uniform', min: 0.05, max: 0.2 }, frequencyHz: { kind: 'uniform', min: 0.2, max: 1 }, phaseRad: { kind: 'uniform', min: 0, max: 6.28 } },
       // The tip's channel name carries its node index, which varies with partCount: name it by index.
       channels: { '2': { kind: 'ornstein-uhlenbeck', meanValue: 0, std: 0.5, timeConstantS: 0.3 } },
+      // Raw signals, so they compare with their definitions; the ramp-in has its own suite.
+      rampInS: 0,
     },
     time: { recordIntervalS: 0.02, recordedSteps: 50 },
     initialState: { positionNoiseM: 0.002, velocityNoiseMPerS: { kind: 'uniform', min: 0, max: 0.01 } },
@@ -267,7 +269,7 @@ describe('controls per channel (sinusoid u = offset + A·sin(2πft + φ), the sp
 
   it('plays back a column of a replay table through options.replay, and says clearly when it cannot', () => {
     const value = tether();
-    value.controls = { default: { kind: 'none' }, channels: { '0': { kind: 'replay', file: 'tank-run-3.npy', column: 1 } } };
+    value.controls = { default: { kind: 'none' }, channels: { '0': { kind: 'replay', file: 'tank-run-3.npy', column: 1 } }, rampInS: 0 };
     const scenario = checked(value);
     const rows = 60;
     const data = new Float64Array(rows * 2);

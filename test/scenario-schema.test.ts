@@ -65,8 +65,11 @@ describe('SCENARIO_SCHEMA', () => {
     expect(s.time.autoSafety).toBe(props.time.properties.autoSafety.default);
     expect(s.world.gravityMPerS2).toEqual(props.world.properties.gravityMPerS2.default);
     expect(s.world.ground).toBeUndefined();
-    expect(s.controls).toEqual({ default: props.controls.properties.default.default, channels: {} });
-    expect(s.initialState).toEqual({ positionNoiseM: 0, velocityNoiseMPerS: 0 });
+    expect(s.controls).toEqual({ default: props.controls.properties.default.default, channels: {}, rampInS: props.controls.properties.rampInS.default });
+    expect(s.initialState).toEqual({
+      positionNoiseM: 0, velocityNoiseMPerS: 0, rotationRad: 0, rotationAxisUnit: [0, 0, 1], translationM: [0, 0, 0],
+      settleS: 0, settleDragPerS: 10, velocityMPerS: [0, 0, 0], spinRadPerS: [0, 0, 0],
+    });
     expect(s.description).toBe('');
   });
 

@@ -21,7 +21,7 @@ function tether(substeps: number | 'auto'): Json {
       lengthM: { kind: 'uniform', min: 2, max: 5 },
       totalMassKg: { kind: 'log-uniform', min: 0.3, max: 1.5 },
       axialStiffnessN: { kind: 'log-uniform', min: 1000, max: 50000 },
-      bendingStiffnessRatio: { kind: 'uniform', min: 0, max: 0.2 },
+      secondNeighbourSpringRatio: { kind: 'uniform', min: 0, max: 0.2 },
       dampingRatio: { kind: 'uniform', min: 0.02, max: 0.5 },
       diameterM: 0.012,
       anchor: 'top-pinned',

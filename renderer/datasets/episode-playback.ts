@@ -7,6 +7,7 @@ import { decodeArray } from '../bridge/decode-array.ts';
 import type { DecodedArray } from '../bridge/decode-array.ts';
 import { NODE_FEATURE_NAMES } from '../../sim/systems/graph-labels.ts';
 import { TrajectoryFrames } from '../playback/trajectory-frames.ts';
+import { ENERGY_COUNT } from '../../sim/core/energy.ts';
 import type { BodyTopology } from '../view/body-topology.ts';
 
 export interface PlayableEpisode {
@@ -79,9 +80,18 @@ export function playableEpisode(episode: EpisodeArrays): PlayableEpisode {
     frameCount,
     positions.data instanceof Float32Array ? positions.data : Float32Array.from(positions.data),
     Float64Array.from(time),
-    energies ? Float64Array.from(energies.data) : null,
+    energies ? energyColumns(energies.data, energies.shape[1] ?? ENERGY_COUNT, frameCount) : null,
     controls ? Float64Array.from(controls.data) : null,
   );
   const frameIntervalS = frameCount > 1 ? (time[frameCount - 1] - time[0]) / (frameCount - 1) : 1;
   return { topology, frames, frameIntervalS, channelCount };
+}
+
+/** Widens an energies table to the columns this version plots: older datasets had no bending column, and no bending, so 0. */
+function energyColumns(data: ArrayLike<number>, columns: number, frameCount: number): Float64Array {
+  if (columns === ENERGY_COUNT) return Float64Array.from(data);
+  const out = new Float64Array(frameCount * ENERGY_COUNT);
+  const shared = Math.min(columns, ENERGY_COUNT);
+  for (let f = 0; f < frameCount; f++) for (let c = 0; c < shared; c++) out[f * ENERGY_COUNT + c] = data[f * columns + c];
+  return out;
 }

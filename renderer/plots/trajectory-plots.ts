@@ -11,6 +11,7 @@ const ENERGY_SERIES: PlotSeries[] = [
   { label: 'kinetic', colour: '#b5462b' },
   { label: 'elastic', colour: '#2f7f8c' },
   { label: 'gravitational', colour: '#8c7a2f' },
+  { label: 'bending', colour: '#6b4fa0' },
   { label: 'total', colour: '#222222' },
 ];
 const CHANNEL_COLOURS = ['#2f7f8c', '#b5462b', '#6b4fa0', '#8c7a2f', '#3f6f3a', '#a0527a'];
@@ -92,7 +93,7 @@ export class TrajectoryPlots {
     const n = s.filled;
     const t = s.frames.timeS.subarray(0, n);
     this.coordinates.setData(t, [s.xM.subarray(0, n), s.yM.subarray(0, n), s.zM.subarray(0, n)]);
-    this.energies.setData(t, [s.kineticJ.subarray(0, n), s.elasticJ.subarray(0, n), s.gravitationalJ.subarray(0, n), s.totalJ.subarray(0, n)]);
+    this.energies.setData(t, [s.kineticJ.subarray(0, n), s.elasticJ.subarray(0, n), s.gravitationalJ.subarray(0, n), s.bendingJ.subarray(0, n), s.totalJ.subarray(0, n)]);
     if (this.channels.length > 0) this.controls.setData(t, s.controls.map((c) => c.subarray(0, n)));
   }
 }

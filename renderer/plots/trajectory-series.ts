@@ -2,6 +2,7 @@
 // coordinates, the energies and their sum, and every control channel, each a full-length array
 // of which the first `filled` entries are valid. Extending them touches only the new frames.
 import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
+import { ENERGY_COUNT } from '../../sim/core/energy.ts';
 
 export class TrajectorySeries {
   readonly xM: Float64Array;
@@ -10,6 +11,7 @@ export class TrajectorySeries {
   readonly kineticJ: Float64Array;
   readonly elasticJ: Float64Array;
   readonly gravitationalJ: Float64Array;
+  readonly bendingJ: Float64Array;
   readonly totalJ: Float64Array;
   readonly controls: Float64Array[];
   filled = 0;
@@ -24,6 +26,7 @@ export class TrajectorySeries {
     this.kineticJ = new Float64Array(n);
     this.elasticJ = new Float64Array(n);
     this.gravitationalJ = new Float64Array(n);
+    this.bendingJ = new Float64Array(n);
     this.totalJ = new Float64Array(n);
     this.controls = Array.from({ length: frames.channelCount }, () => new Float64Array(n));
   }
@@ -46,10 +49,12 @@ export class TrajectorySeries {
     this.fillCoordinates(from, to);
     const e = this.frames.energiesJ;
     for (let f = from; f < to; f++) {
-      this.kineticJ[f] = e[3 * f];
-      this.elasticJ[f] = e[3 * f + 1];
-      this.gravitationalJ[f] = e[3 * f + 2];
-      this.totalJ[f] = e[3 * f] + e[3 * f + 1] + e[3 * f + 2];
+      const o = ENERGY_COUNT * f;
+      this.kineticJ[f] = e[o];
+      this.elasticJ[f] = e[o + 1];
+      this.gravitationalJ[f] = e[o + 2];
+      this.bendingJ[f] = e[o + 3];
+      this.totalJ[f] = e[o] + e[o + 1] + e[o + 2] + e[o + 3];
     }
     const channels = this.frames.channelCount;
     for (let c = 0; c < channels; c++) {

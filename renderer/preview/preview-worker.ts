@@ -5,6 +5,7 @@
 import { sampleEpisode } from '../../sim/scenario/sample-episode.ts';
 import type { SampledEpisode } from '../../sim/scenario/sampled-episode.ts';
 import { EpisodeStepper } from './episode-stepper.ts';
+import { ENERGY_COUNT } from '../../sim/core/energy.ts';
 import { checkedScenario } from './checked-scenario.ts';
 import { modelTopology, topologyBuffers } from './model-topology.ts';
 import type { FromPreviewWorker, PreviewEpisodeSummary, ToPreviewWorker } from './preview-worker-protocol.ts';
@@ -83,7 +84,7 @@ function run(requestId: number, text: string, fileName: string, index: number): 
     const count = Math.min(framesPerChunk, stepper.frameCount - first);
     const positionsM = new Float32Array(count * n3);
     const timeS = new Float64Array(count);
-    const energiesJ = new Float64Array(count * 3);
+    const energiesJ = new Float64Array(count * ENERGY_COUNT);
     const chunkStartMs = performance.now();
     let written: number;
     try {

@@ -7,7 +7,7 @@
 // Its bench line: {"case":"chain-1024","spring_updates_per_s":…,"seconds":…,"checksum":…}, the
 // checksum to 10 significant digits. native/chain_kernel.c is the same kernel in C.
 import { ModelBuilder } from '../core/model-builder.ts';
-import { NODE_PINNED, RELATION_BENDING, RELATION_STRUCTURAL } from '../core/model.ts';
+import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../core/model.ts';
 import type { Model } from '../core/model.ts';
 import { Simulator } from '../core/simulator.ts';
 import { defaultWorld } from '../core/world.ts';
@@ -23,7 +23,7 @@ export function buildChain1024(): Model {
     builder.addNode({ positionM: [0.01 * i, 0, 0], massKg: 0.01, flags: i === 0 ? NODE_PINNED : 0 });
   }
   for (let i = 0; i + 1 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 1, 200, 0.05, RELATION_STRUCTURAL, 0.01);
-  for (let i = 0; i + 2 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 2, 20, 0.005, RELATION_BENDING, 0.02);
+  for (let i = 0; i + 2 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 2, 20, 0.005, RELATION_SECOND_NEIGHBOUR, 0.02);
   return builder.build();
 }
 

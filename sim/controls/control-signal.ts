@@ -1,6 +1,7 @@
 // Generates one channel's control signal for one episode: draws the spec's parameters once,
 // writes the signal at every record time into a step-major array (zero-order hold between
-// records), applies the clip and returns the drawn parameters as ground-truth labels.
+// records), applies the clip and then the ramp-in window (ramp-in.ts), and returns the drawn
+// parameters as ground-truth labels.
 import { sampleValue } from '../random/distribution.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import type { JsonValue } from '../random/json-value.ts';
@@ -12,6 +13,7 @@ import { fillHeld, fillPiecewiseConstant, fillSwitchedLevels } from './held-leve
 import { drawMultisine, fillMultisine } from './multisine-signal.ts';
 import { fillOrnsteinUhlenbeck } from './ornstein-uhlenbeck-signal.ts';
 import { fillChirp, fillSinusoid } from './sinusoid-signal.ts';
+import { applyRampIn } from './ramp-in.ts';
 
 /** The parameters one episode drew for a channel, in the spec's member names and units. */
 export interface SampledControl {
@@ -24,6 +26,11 @@ export interface ControlSignalOptions {
   replay?: Float64Array;
   /** JSON pointer of the spec in its scenario, so errors point at the right place. */
   pointer?: string;
+  /**
+   * Length of the ramp-in window, s (0: none). It acts after the clip, so the signal starts
+   * at 0 even when the clip's range leaves 0 out.
+   */
+  rampInS?: number;
 }
 
 /**
@@ -175,6 +182,7 @@ export function generateControlSignal(
     applyClip(out, channel, channelCount, stepCount, clip.min, clip.max);
     sampled.clip = clip.labels;
   }
+  applyRampIn(out, channel, channelCount, stepCount, recordIntervalS, options.rampInS ?? 0);
   return sampled;
 }
 

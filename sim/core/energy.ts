@@ -1,9 +1,11 @@
-// Energy diagnostics recorded with every step: kinetic ½mv², elastic ½k(L − L0)² and
-// gravitational −m·g·x of the free nodes (pinned and driven nodes are part of the support).
+// Energy diagnostics recorded with every step: kinetic ½mv², elastic ½k(L − L0)² of the
+// springs, gravitational −m·g·x of the free nodes (pinned and driven nodes are part of the
+// support) and the bending energy of hinges and clamps (bending-energy.ts), in that order.
 import type { Model } from './model.ts';
 import type { World } from './world.ts';
+import { bendingEnergyJ } from './bending-energy.ts';
 
-/** Writes [kinetic, elastic, gravitational] in J into out at offset. */
+/** Writes [kinetic, elastic, gravitational, bending] in J into out at offset. */
 export function measureEnergies(model: Model, world: World, out: Float64Array, offset: number): void {
   const x = model.positionM;
   const v = model.velocityMPerS;
@@ -35,6 +37,9 @@ export function measureEnergies(model: Model, world: World, out: Float64Array, o
   out[offset] = kinetic;
   out[offset + 1] = elastic;
   out[offset + 2] = gravitational;
+  out[offset + 3] = model.hingeCount + model.clampCount > 0 ? bendingEnergyJ(model, x) : 0;
 }
 
-export const ENERGY_NAMES = ['kinetic', 'elastic', 'gravitational'] as const;
+/** The columns measureEnergies writes; bending is last so the first three keep their places. */
+export const ENERGY_NAMES = ['kinetic', 'elastic', 'gravitational', 'bending'] as const;
+export const ENERGY_COUNT = ENERGY_NAMES.length;

@@ -40,6 +40,13 @@ export class ModelBuilder {
   private readonly drivenNodes: number[] = [];
   private readonly drivenChannels: number[] = [];
   private controlChannels = 0;
+  private readonly hinges: number[] = [];
+  private readonly hingeK: number[] = [];
+  private readonly hingeC: number[] = [];
+  private readonly clamps: number[] = [];
+  private readonly clampDirections: number[] = [];
+  private readonly clampK: number[] = [];
+  private readonly clampC: number[] = [];
 
   constructor(
     readonly cellCornerCount: number = 8,
@@ -179,6 +186,27 @@ export class ModelBuilder {
     }
   }
 
+  /** Adds a bending hinge at `middle` between the segments to `previous` and `next`. */
+  addHinge(previous: number, middle: number, next: number, stiffnessNm: number, dampingNms: number): void {
+    if (!(stiffnessNm >= 0) || !(dampingNms >= 0)) throw new RangeError(`hinge stiffness and damping must be ≥ 0, got ${stiffnessNm} N·m and ${dampingNms} N·m·s`);
+    this.hinges.push(previous, middle, next);
+    this.hingeK.push(stiffnessNm);
+    this.hingeC.push(dampingNms);
+  }
+
+  /** Holds the segment from `held` to `neighbour` along its built direction. */
+  addClamp(held: number, neighbour: number, stiffnessNm: number, dampingNms: number): void {
+    if (!(stiffnessNm >= 0) || !(dampingNms >= 0)) throw new RangeError(`clamp stiffness and damping must be ≥ 0, got ${stiffnessNm} N·m and ${dampingNms} N·m·s`);
+    const a = this.position(held);
+    const b = this.position(neighbour);
+    const length = Math.hypot(b[0] - a[0], b[1] - a[1], b[2] - a[2]);
+    if (!(length > 0)) throw new RangeError(`clamp nodes ${held} and ${neighbour} coincide, so the clamp has no direction`);
+    this.clamps.push(held, neighbour);
+    this.clampDirections.push((b[0] - a[0]) / length, (b[1] - a[1]) / length, (b[2] - a[2]) / length);
+    this.clampK.push(stiffnessNm);
+    this.clampC.push(dampingNms);
+  }
+
   useChannel(channel: number): void {
     this.controlChannels = Math.max(this.controlChannels, channel + 1);
   }
@@ -240,6 +268,15 @@ export class ModelBuilder {
       drivenOriginM: drivenOrigin,
       drivenOffsetChannel: Int32Array.from(this.drivenChannels),
       controlChannelCount: this.controlChannels,
+      hingeCount: this.hingeK.length,
+      hingeNodes: Uint32Array.from(this.hinges),
+      hingeStiffnessNm: Float64Array.from(this.hingeK),
+      hingeDampingNms: Float64Array.from(this.hingeC),
+      clampCount: this.clampK.length,
+      clampNodes: Uint32Array.from(this.clamps),
+      clampDirectionUnit: Float64Array.from(this.clampDirections),
+      clampStiffnessNm: Float64Array.from(this.clampK),
+      clampDampingNms: Float64Array.from(this.clampC),
     };
   }
 }

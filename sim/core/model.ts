@@ -11,11 +11,12 @@ export const NODE_HANDLE = 4;
 
 /** Spring relation types, stored per spring and exported as edge labels for graph models. */
 export const RELATION_STRUCTURAL = 0;
-export const RELATION_BENDING = 1;
+/** Springs from node i to node i + 2 of a chain: they resist folding, not small bends. */
+export const RELATION_SECOND_NEIGHBOUR = 1;
 export const RELATION_CELL_EDGE = 2;
 export const RELATION_FACE_DIAGONAL = 3;
 export const RELATION_BODY_DIAGONAL = 4;
-export const RELATION_NAMES = ['structural', 'bending', 'cell-edge', 'face-diagonal', 'body-diagonal'] as const;
+export const RELATION_NAMES = ['structural', 'second-neighbour', 'cell-edge', 'face-diagonal', 'body-diagonal'] as const;
 
 export interface Model {
   readonly nodeCount: number;
@@ -79,4 +80,24 @@ export interface Model {
 
   /** Number of control channels this model reads from the control vector. */
   readonly controlChannelCount: number;
+
+  /**
+   * Bending hinges (see bending-forces.ts): node triples (previous, middle, next), 3 per hinge,
+   * each with energy ½·k·|t_b − t_a|² = k·(1 − cos φ) in the turning angle φ between the unit
+   * tangents of its two segments. k = EI / Voronoi length, N·m; damping η, N·m·s.
+   */
+  readonly hingeCount: number;
+  readonly hingeNodes: Uint32Array;
+  readonly hingeStiffnessNm: Float64Array;
+  readonly hingeDampingNms: Float64Array;
+
+  /**
+   * Clamps: the direction of one segment held along a fixed unit vector d (a clamped end).
+   * Node pairs (held node, its neighbour), 2 per clamp; energy ½·k·|t − d|², N·m; damping η.
+   */
+  readonly clampCount: number;
+  readonly clampNodes: Uint32Array;
+  readonly clampDirectionUnit: Float64Array;
+  readonly clampStiffnessNm: Float64Array;
+  readonly clampDampingNms: Float64Array;
 }

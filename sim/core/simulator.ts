@@ -7,6 +7,7 @@ import type { Model } from './model.ts';
 import type { World } from './world.ts';
 import { writeBodyForces } from './body-forces.ts';
 import { accumulateSpringForces } from './spring-forces.ts';
+import { accumulateBendingForces, accumulateClampForces } from './bending-forces.ts';
 import { accumulateFluidDrag } from './fluid-drag.ts';
 import { projectGroundContact } from './ground-contact.ts';
 import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
@@ -64,6 +65,8 @@ export class Simulator {
     const f = this.forceN;
     writeBodyForces(model, world, f);
     accumulateSpringForces(model, f);
+    if (model.hingeCount > 0) accumulateBendingForces(model, f);
+    if (model.clampCount > 0) accumulateClampForces(model, f);
     if (world.fluid.enabled && model.panelCount > 0) accumulateFluidDrag(model, world.fluid, f);
     const handles = model.handleNodes;
     const hf = this.handleForceN;

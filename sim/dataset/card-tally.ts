@@ -112,6 +112,7 @@ export class CardTally {
   /** Split of the first episode that was recorded, or null when none was. */
   firstOkSplit: string | null = null;
   hasLattice = false;
+  hasChain = false;
   nodeCountMin = Infinity;
   nodeCountMax = -Infinity;
   springCountMin = Infinity;
@@ -140,6 +141,7 @@ export class CardTally {
       }
     }
     if (record.systemKind === 'lattice') this.hasLattice = true;
+    if (record.systemKind === 'chain') this.hasChain = true;
     const s = record.simulation;
     this.firstSimulation ??= s;
     this.nodeCountMin = Math.min(this.nodeCountMin, s.nodeCount);

@@ -35,7 +35,7 @@ function describeSystem(scenario: Record<string, unknown>, tally: CardTally): st
   const system = (scenario.system ?? {}) as Record<string, unknown>;
   const lines: string[] = [];
   if (system.kind === 'chain') {
-    lines.push('Each episode is a **chain** (rope, cable or tether) of equal parts: point masses joined by structural springs, with bending springs across every second node, simulated by semi-implicit Euler.');
+    lines.push(`Each episode is a **chain** (rope, cable or tether) of equal parts: point masses joined by structural springs${chainBendingWords(system)}, simulated by semi-implicit Euler.`);
   } else if (system.kind === 'lattice') {
     lines.push('Each episode is a **voxel lattice**: a soft body of cells of one or more materials whose corner nodes are joined by edge and diagonal springs; cells of actuated materials change their rest lengths with their control channel. Simulated by semi-implicit Euler.');
   } else {
@@ -46,7 +46,28 @@ function describeSystem(scenario: Record<string, unknown>, tally: CardTally): st
   if (steps) {
     lines.push(`Recorded: ${steps.recordedSteps} steps of ${formatLabelNumber(steps.recordIntervalS)} s (${formatLabelNumber(steps.recordedSteps * steps.recordIntervalS)} s) per episode; sub-steps per record vary from ${tally.substepsMin} to ${tally.substepsMax} (chosen from the stability bound when "auto").`);
   }
+  lines.push(rampInWords(scenario));
   return lines;
+}
+
+function chainBendingWords(system: Record<string, unknown>): string {
+  const parts: string[] = [];
+  const rigidity = system.bendingStiffnessNm2;
+  if (rigidity !== undefined && rigidity !== 0) parts.push('bending rigidity EI through a turning-angle hinge at every interior node (arrays `hinges`, `hinge_stiffness`, `hinge_damping`; energy column `bending`)');
+  const clamped = Array.isArray(system.clampedEnds) ? system.clampedEnds : [];
+  if (clamped.length > 0) parts.push(`clamped ${clamped.join(' and ')} end${clamped.length > 1 ? 's' : ''} (arrays \`clamps\`, \`clamp_direction\`)`);
+  const ratio = system.secondNeighbourSpringRatio;
+  if (ratio !== undefined && ratio !== 0) parts.push('second-neighbour springs from node i to i + 2 (edge relation 1), which resist folding but not small bends');
+  return parts.length === 0 ? ' and no bending stiffness' : `, with ${parts.join(', ')}`;
+}
+
+function rampInWords(scenario: Record<string, unknown>): string {
+  const controls = (scenario.controls ?? {}) as Record<string, unknown>;
+  const rampInS = typeof controls.rampInS === 'number' ? controls.rampInS : 0;
+  if (rampInS > 0) {
+    return `Control signals ramp in: every channel's signal is multiplied by the raised-cosine window ½(1 − cos(π·t/${formatLabelNumber(rampInS)} s)) for the first ${formatLabelNumber(rampInS)} s of each episode, so the recorded \`controls\` start at 0 and episodes start without a jolt.`;
+  }
+  return 'Control signals start at full strength (no ramp-in: `controls.rampInS` is 0), so an episode may begin with a jump of its driven nodes or actuators.';
 }
 
 /** Most distinct non-numeric values a card shows one row each for. */
@@ -145,9 +166,10 @@ function arraySection(source: CardSource): string[] {
   for (const a of EPISODE_ARRAYS) {
     if (a.latticeOnly && !lattice) continue;
     if (a.observationOnly && !observed) continue;
+    if (a.chainOnly && !source.tally.hasChain) continue;
     lines.push(`| \`${a.name}\` | ${a.dtype === 'float' ? float : a.dtype} | (${a.shape.join(', ')}) | ${a.unit} | ${a.meaning} |`);
   }
-  lines.push('', `T is the number of recorded steps, N nodes, C control channels, E springs, K cells${observed ? ', T_obs observed frames, M markers' : ''}. The control channels of each episode (name, kind, unit) are listed under \`controlChannels\` in its manifest record; its sampled parameters under \`labels\`.`);
+  lines.push('', `T is the number of recorded steps, N nodes, C control channels, E springs, K cells, H bending hinges, Q clamps${observed ? ', T_obs observed frames, M markers' : ''}. The control channels of each episode (name, kind, unit) are listed under \`controlChannels\` in its manifest record; its sampled parameters under \`labels\`.`);
   return lines;
 }
 

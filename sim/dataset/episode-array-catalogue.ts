@@ -3,6 +3,7 @@
 // learner reading any of them gets the same description of every column.
 import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
 import { RELATION_NAMES } from '../core/model.ts';
+import { ENERGY_NAMES } from '../core/energy.ts';
 
 /** 'float' arrays take the dataset's export dtype (float32 or float64); the rest are fixed. */
 export type CatalogueDtype = 'float' | 'int32' | 'uint8' | 'int16';
@@ -10,7 +11,7 @@ export type CatalogueDtype = 'float' | 'int32' | 'uint8' | 'int16';
 export interface ArrayDescription {
   name: string;
   dtype: CatalogueDtype;
-  /** Shape in symbols: T recorded steps, N nodes, C control channels, E springs, K cells, T_obs observed frames, M markers. */
+  /** Shape in symbols: T recorded steps, N nodes, C control channels, E springs, K cells, H hinges, Q clamps, T_obs observed frames, M markers. */
   shape: string[];
   unit: string;
   meaning: string;
@@ -18,16 +19,18 @@ export interface ArrayDescription {
   latticeOnly?: boolean;
   /** Only scenarios with an `observation` block have observed arrays. */
   observationOnly?: boolean;
+  /** Only chains have hinges and clamps (H or Q may be 0: no bending rigidity, no clamped end). */
+  chainOnly?: boolean;
 }
 
-export const ENERGY_COLUMNS = ['kinetic', 'elastic', 'gravitational'] as const;
+export const ENERGY_COLUMNS = ENERGY_NAMES;
 
 export const EPISODE_ARRAYS: readonly ArrayDescription[] = [
   { name: 'time', dtype: 'float', shape: ['T+1'], unit: 's', meaning: 'record times from the start of the episode; row t of positions, velocities and energies is the state at time[t]' },
   { name: 'positions', dtype: 'float', shape: ['T+1', 'N', '3'], unit: 'm', meaning: 'node positions (x, y, z) at each record time; y is up' },
   { name: 'velocities', dtype: 'float', shape: ['T+1', 'N', '3'], unit: 'm/s', meaning: 'node velocities at each record time' },
   { name: 'controls', dtype: 'float', shape: ['T', 'C'], unit: 'per channel (see controlChannels: N, m or 1)', meaning: 'control applied from time[t] to time[t+1]; column c is control channel c' },
-  { name: 'energies', dtype: 'float', shape: ['T+1', '3'], unit: 'J', meaning: `energies at each record time, columns ${ENERGY_COLUMNS.join(', ')}` },
+  { name: 'energies', dtype: 'float', shape: ['T+1', String(ENERGY_COLUMNS.length)], unit: 'J', meaning: `energies at each record time, columns ${ENERGY_COLUMNS.join(', ')} (bending: hinges and clamps of chains)` },
   { name: 'node_features', dtype: 'float', shape: ['N', String(NODE_FEATURE_NAMES.length)], unit: 'kg for mass_kg, else 1', meaning: `per-node features, columns ${NODE_FEATURE_NAMES.join(', ')} (flags are 0/1; material and channel are indices, -1 for none)` },
   { name: 'edges', dtype: 'int32', shape: ['E', '2'], unit: '1', meaning: 'node indices (a, b) of each spring' },
   { name: 'edge_relation', dtype: 'uint8', shape: ['E'], unit: '1', meaning: `relation type of each spring: ${RELATION_NAMES.map((name, i) => `${i} ${name}`).join(', ')}` },
@@ -36,6 +39,13 @@ export const EPISODE_ARRAYS: readonly ArrayDescription[] = [
   { name: 'edge_damping', dtype: 'float', shape: ['E'], unit: 'N·s/m', meaning: 'damping c of each spring along its axis: force c·(relative velocity · unit axis)' },
   { name: 'cells', dtype: 'int32', shape: ['K', 'corners'], unit: '1', meaning: 'corner node indices of each cell (8 for voxels, 4 for squares; corner bit 0 = +x, bit 1 = +y, bit 2 = +z)', latticeOnly: true },
   { name: 'cell_material', dtype: 'int16', shape: ['K'], unit: '1', meaning: 'material index of each cell (into the scenario\'s materials)', latticeOnly: true },
+  { name: 'hinges', dtype: 'int32', shape: ['H', '3'], unit: '1', meaning: 'node indices (previous, middle, next) of each bending hinge: energy k·(1 − cos φ) in the turning angle φ between the segments previous→middle and middle→next', chainOnly: true },
+  { name: 'hinge_stiffness', dtype: 'float', shape: ['H'], unit: 'N·m', meaning: 'bending stiffness k of each hinge, EI over the middle node\'s Voronoi length', chainOnly: true },
+  { name: 'hinge_damping', dtype: 'float', shape: ['H'], unit: 'N·m·s', meaning: 'bending damping η of each hinge: dissipated power η·(d|t_b − t_a|/dt)², t_a and t_b the unit tangents of its segments', chainOnly: true },
+  { name: 'clamps', dtype: 'int32', shape: ['Q', '2'], unit: '1', meaning: 'node indices (held end, neighbour) of each clamped end: energy k·(1 − cos φ), φ the angle between the segment and clamp_direction', chainOnly: true },
+  { name: 'clamp_direction', dtype: 'float', shape: ['Q', '3'], unit: '1', meaning: 'unit vector each clamp holds its segment (held end → neighbour) along', chainOnly: true },
+  { name: 'clamp_stiffness', dtype: 'float', shape: ['Q'], unit: 'N·m', meaning: 'bending stiffness k of each clamp, EI over half a segment', chainOnly: true },
+  { name: 'clamp_damping', dtype: 'float', shape: ['Q'], unit: 'N·m·s', meaning: 'bending damping η of each clamp, as for hinges with t_a the clamp direction', chainOnly: true },
   { name: 'cell_channel', dtype: 'int16', shape: ['K'], unit: '1', meaning: 'actuator channel of each cell, -1 for passive cells', latticeOnly: true },
   { name: 'observed_time', dtype: 'float', shape: ['T_obs'], unit: 's', meaning: 'time at which each observed frame is reported: time[j·frameStride]', observationOnly: true },
   { name: 'observed_positions', dtype: 'float', shape: ['T_obs', 'M', '3'], unit: 'm', meaning: 'marker positions as the sensor reports them: the state at observed_time[j] − latencyS plus Gaussian noise; NaN where observed_mask is 0', observationOnly: true },

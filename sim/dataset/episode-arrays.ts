@@ -4,6 +4,7 @@
 // it is the same on every machine.
 import type { RecordedTrajectory } from '../episode/record-episode.ts';
 import type { ObservedTrajectory } from '../episode/observe-trajectory.ts';
+import { ENERGY_COUNT } from '../core/energy.ts';
 import type { GraphLabels } from '../systems/graph-labels.ts';
 import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
 import type { ExportDtype } from './dataset-manifest.ts';
@@ -27,12 +28,14 @@ export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels
   const c = trajectory.channelCount;
   const e = graph.edgeRelation.length;
   const k = graph.cellMaterial.length;
+  const h = graph.hingeStiffnessNm.length;
+  const q = graph.clampStiffnessNm.length;
   const data: Record<string, { shape: number[]; data: StoredArrayData }> = {
     time: { shape: [t + 1], data: floats(trajectory.timeS, dtype) },
     positions: { shape: [t + 1, n, 3], data: floats(trajectory.positionM, dtype) },
     velocities: { shape: [t + 1, n, 3], data: floats(trajectory.velocityMPerS, dtype) },
     controls: { shape: [t, c], data: floats(trajectory.controls, dtype) },
-    energies: { shape: [t + 1, 3], data: floats(trajectory.energiesJ, dtype) },
+    energies: { shape: [t + 1, ENERGY_COUNT], data: floats(trajectory.energiesJ, dtype) },
     node_features: { shape: [n, NODE_FEATURE_NAMES.length], data: floats(graph.nodeFeatures, dtype) },
     edges: { shape: [e, 2], data: Int32Array.from(graph.edges) },
     edge_relation: { shape: [e], data: graph.edgeRelation.slice() },
@@ -42,6 +45,13 @@ export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels
     cells: { shape: [k, cellCornerCount], data: Int32Array.from(graph.cells) },
     cell_material: { shape: [k], data: graph.cellMaterial.slice() },
     cell_channel: { shape: [k], data: graph.cellChannel.slice() },
+    hinges: { shape: [h, 3], data: Int32Array.from(graph.hinges) },
+    hinge_stiffness: { shape: [h], data: floats(graph.hingeStiffnessNm, dtype) },
+    hinge_damping: { shape: [h], data: floats(graph.hingeDampingNms, dtype) },
+    clamps: { shape: [q, 2], data: Int32Array.from(graph.clamps) },
+    clamp_direction: { shape: [q, 3], data: floats(graph.clampDirectionUnit, dtype) },
+    clamp_stiffness: { shape: [q], data: floats(graph.clampStiffnessNm, dtype) },
+    clamp_damping: { shape: [q], data: floats(graph.clampDampingNms, dtype) },
   };
   if (observed !== null) {
     const frames = observed.frameCount;
@@ -55,6 +65,7 @@ export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels
   for (const description of EPISODE_ARRAYS) {
     if (description.latticeOnly && k === 0) continue;
     if (description.observationOnly && observed === null) continue;
+    if (description.chainOnly && k > 0) continue;
     const entry = data[description.name];
     // namedArray takes the dtype from the typed array, so it cannot disagree with the data.
     arrays.push(namedArray(description.name, entry.shape, entry.data, { unit: description.unit, description: description.meaning }) as NamedArray);

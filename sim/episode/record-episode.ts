@@ -6,7 +6,7 @@ import type { Model } from '../core/model.ts';
 import type { World } from '../core/world.ts';
 import { Simulator } from '../core/simulator.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
-import { measureEnergies } from '../core/energy.ts';
+import { ENERGY_COUNT, measureEnergies } from '../core/energy.ts';
 import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../core/blow-up-check.ts';
 import type { BlowUpLimits } from '../core/blow-up-check.ts';
 
@@ -34,7 +34,7 @@ export interface RecordedTrajectory {
   velocityMPerS: Float64Array;
   /** T × C, in each channel's unit. */
   controls: Float64Array;
-  /** (T+1) × 3: kinetic, elastic, gravitational, J. */
+  /** (T+1) × ENERGY_COUNT: kinetic, elastic, gravitational, bending, J. */
   energiesJ: Float64Array;
 }
 
@@ -58,7 +58,7 @@ export function recordTrajectory(model: Model, world: World, controls: Float64Ar
   const timeS = new Float64Array(steps + 1);
   const positionM = new Float64Array((steps + 1) * n * 3);
   const velocityMPerS = new Float64Array((steps + 1) * n * 3);
-  const energiesJ = new Float64Array((steps + 1) * 3);
+  const energiesJ = new Float64Array((steps + 1) * ENERGY_COUNT);
   const control = new Float64Array(channels);
   checkForBlowUp(model, limits, 0, dtS, criticalDtS);
   positionM.set(model.positionM, 0);
@@ -72,7 +72,7 @@ export function recordTrajectory(model: Model, world: World, controls: Float64Ar
     timeS[t + 1] = (t + 1) * settings.recordIntervalS;
     positionM.set(model.positionM, (t + 1) * n * 3);
     velocityMPerS.set(model.velocityMPerS, (t + 1) * n * 3);
-    measureEnergies(model, world, energiesJ, 3 * (t + 1));
+    measureEnergies(model, world, energiesJ, ENERGY_COUNT * (t + 1));
   }
   return { nodeCount: n, channelCount: channels, steps, substeps, dtS, criticalDtS, timeS, positionM, velocityMPerS, controls: controls.slice(), energiesJ };
 }

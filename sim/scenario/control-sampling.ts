@@ -46,6 +46,7 @@ export function sampleControls(
     const column = spec.kind === 'replay' ? replayColumn(spec.file, spec.column, pointer, replay, tables) : undefined;
     const sampled = generateControlSignal(spec, controlStream(seed, episodeIndex, labelPointer), recordIntervalS, recordedSteps, out, channel.index, channels.length, {
       pointer,
+      rampInS: controls.rampInS,
       ...(column ? { replay: column } : {}),
     });
     addLabels(labels, labelPointer, sampled);

@@ -23,7 +23,7 @@ export function cornerSystems(scenario: Scenario, corner: 'demanding' | 'gentle'
   if (spec.kind === 'chain') return [buildChain(resolveChainParameters(spec, resolver))];
   const lattice = resolveLatticeParameters(spec, resolver);
   const build = (materialMap: MaterialMap2D | MaterialMap3D, materials: LatticeMaterial[]): BuiltSystem =>
-    buildLattice({ cellSizeM: lattice.cellSizeM, materialMap, materials, base: spec.base, originM: lattice.originM });
+    buildLattice({ cellSizeM: lattice.cellSizeM, materialMap, materials, base: spec.base, originM: lattice.originM, clamps: lattice.clamps });
   if (lattice.shape.kind === 'map') {
     if ('generator' in spec.shape) return [];
     return spec.shape.maps.map((map) => build(map, lattice.materials));

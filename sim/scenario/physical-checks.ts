@@ -12,9 +12,12 @@ import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
 import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
 import { findObservationProblems } from './observation-checks.ts';
+import { findLatticeClampProblems } from './lattice-clamp-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveWorld } from './resolve-world.ts';
+import { resolveStartState } from './resolve-start-state.ts';
+import { findStartStateProblems } from './start-state-checks.ts';
 import { FRACTION_SUM_TOLERANCE, MAX_RECORDED_NODE_STATES, MAX_STRING_SEED } from './scenario-limits.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { ChainSystemSpec, Scenario } from './scenario-types.ts';
@@ -27,6 +30,7 @@ export function parameterSites(scenario: Scenario): ParameterSite[] {
   if (scenario.system.kind === 'chain') resolveChainParameters(scenario.system, corner);
   else resolveLatticeParameters(scenario.system, corner);
   resolveWorld(scenario.world, corner);
+  resolveStartState(scenario.initialState, corner);
   corner.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
   corner.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');
   if (scenario.observation !== undefined) {
@@ -58,6 +62,10 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
     const shape = findLatticeShapeProblems(scenario.system);
     problems.push(...shape.problems);
     maxNodes = shape.maxNodes;
+    if (shape.problems.length === 0) {
+      const lattice = resolveLatticeParameters(scenario.system, new DemandingCorner('demanding'));
+      problems.push(...findLatticeClampProblems(scenario.system, lattice, lattice.materials));
+    }
   }
   problems.push(...findObservationProblems(scenario, maxNodes));
   const states = (scenario.time.recordedSteps + 1) * maxNodes;
@@ -74,6 +82,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   const demanding = cornerSystems(scenario, 'demanding');
   const gentle = cornerSystems(scenario, 'gentle');
   problems.push(...findChannelKeyProblems(scenario, [...demanding, ...gentle]));
+  problems.push(...findStartStateProblems(scenario, [...demanding, ...gentle]));
   problems.push(...findStabilityProblems(scenario, demanding, cornerWords(sites)));
   return problems;
 }
@@ -115,12 +124,24 @@ function findFractionProblems(scenario: Scenario): ScenarioProblem[] {
   return [{ pointer: '/splits/fractions', message: `must sum to 1 (got ${parts} = ${Number(sum.toPrecision(12))}); adjust them, e.g. train 0.8, validation 0.1, test 0.1` }];
 }
 
+function nodeIndexProblems(spec: ChainSystemSpec['pinnedNodes'][number], pointer: string, shortest: number): ScenarioProblem[] {
+  const { min, max } = specBounds(spec);
+  if (max > shortest) return [{ pointer, message: `can be node ${max}, which the shortest chain (${shortest} parts, nodes 0 to ${shortest}) does not have; use a smaller index, or a negative one to count from the free end` }];
+  if (min < -(shortest + 1)) return [{ pointer, message: `can be ${min}, which counts past the start of the shortest chain (${shortest + 1} nodes, so -1 to -${shortest + 1}); use an index closer to the free end` }];
+  return [];
+}
+
 function findChainProblems(spec: ChainSystemSpec): ScenarioProblem[] {
   const problems: ScenarioProblem[] = [];
   if (spec.directionUnit.every((c) => isConstant(c) && specBounds(c).max === 0)) {
     problems.push({ pointer: '/system/directionUnit', message: 'is the zero vector [0, 0, 0], which has no direction; give e.g. [0, -1, 0] to hang the chain downwards' });
   }
+  if (spec.clampedEnds.length > 0 && specBounds(spec.bendingStiffnessNm2).min <= 0) {
+    problems.push({ pointer: '/system/clampedEnds', message: 'clamps an end, but /system/bendingStiffnessNm2 can be 0, and a clamp acts through the bending rigidity; give bendingStiffnessNm2 > 0 (EI in N·m²) or leave clampedEnds out' });
+  }
   const shortest = specBounds(spec.partCount).min;
+  spec.pinnedNodes.forEach((node, i) => problems.push(...nodeIndexProblems(node, `/system/pinnedNodes/${i}`, shortest)));
+  spec.drivenNodes.forEach((node, i) => problems.push(...nodeIndexProblems(node, `/system/drivenNodes/${i}`, shortest)));
   const seen = new Map<number, number>();
   spec.forceHandles.forEach((handle, i) => {
     const pointer = `/system/forceHandles/${i}`;

@@ -17,6 +17,9 @@ import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveObservation } from './resolve-observation.ts';
 import { resolveWorld } from './resolve-world.ts';
+import { resolveStartState } from './resolve-start-state.ts';
+import { applyStartPose, applyStartVelocity } from './start-pose.ts';
+import { settleStart } from './settle-start.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
@@ -56,9 +59,13 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
     const lattice = resolveLatticeParameters(spec, draws);
     const body = latticeBody(spec.shape, lattice.shape, lattice.materials, spec.base === 'clamped', shapeStream(seed, episodeIndex));
     dimensions = latticeDimension(body.materialMap);
-    system = buildLattice({ cellSizeM: lattice.cellSizeM, materialMap: body.materialMap, materials: body.materials, base: spec.base, originM: lattice.originM });
+    system = buildLattice({ cellSizeM: lattice.cellSizeM, materialMap: body.materialMap, materials: body.materials, base: spec.base, originM: lattice.originM, clamps: lattice.clamps });
   }
   const world = resolveWorld(scenario.world, draws);
+  const start = resolveStartState(scenario.initialState, draws);
+  applyStartPose(system.model, dimensions, start.motion);
+  settleStart(system.model, world, start.settleS, start.settleDragPerS, scenario.time.recordIntervalS, scenario.time.autoSafety);
+  applyStartVelocity(system.model, dimensions, start.motion);
   const positionStdM = draws.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
   const velocityStdMPerS = draws.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');
   applyInitialStateNoise(

@@ -8,6 +8,7 @@ import { valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
+import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 
@@ -37,7 +38,22 @@ const chainSchema = closed(
     lengthM: valueSpecSchema('Unstretched length of the whole chain, m.', { exclusiveMinimum: 0 }),
     totalMassKg: valueSpecSchema('Mass of the whole chain, kg.', { exclusiveMinimum: 0 }),
     axialStiffnessN: valueSpecSchema('Axial rigidity EA (Young\'s modulus times cross-section area), N.', { exclusiveMinimum: 0 }),
-    bendingStiffnessRatio: valueSpecSchema('Stiffness of the bending springs (node i to i + 2) over the structural ones, dimensionless; 0 for none.', { minimum: 0, default: 0 }),
+    secondNeighbourSpringRatio: valueSpecSchema('Stiffness of springs from node i to node i + 2 over the structural ones, dimensionless; 0 for none. They resist folding but give no bending stiffness about a straight line: use bendingStiffnessNm2 for that.', { minimum: 0, default: 0 }),
+    bendingStiffnessNm2: valueSpecSchema('Bending rigidity EI, N·m² (for a solid round section EI = E·π·d⁴/64): a turning-angle hinge at every interior node; 0 for none.', { minimum: 0, default: 0 }),
+    bendingDampingRatio: valueSpecSchema('Damping ratio of each bending hinge: of a node moving across the line through its two neighbours, dimensionless (1 is critical).', { minimum: 0, default: 0 }),
+    clampedEnds: {
+      type: 'array',
+      items: { type: 'string', enum: ['top', 'bottom'] },
+      uniqueItems: true,
+      default: [],
+      description: 'Ends held in position and direction (along directionUnit): "top" is node 0, "bottom" the last node. Needs bendingStiffnessNm2 > 0. A clamped top-driven node keeps its direction while it moves.',
+    },
+    pinnedNodes: {
+      type: 'array',
+      description: 'Further nodes held in place; negative indices count from the free end, -1 is the tip.',
+      items: valueSpecSchema('Node index of a pinned node; negative counts from the free end.', { integer: true }),
+      default: [],
+    },
     dampingRatio: valueSpecSchema('Damping ratio of each spring with its two end masses, dimensionless (1 is critical).', { minimum: 0 }),
     diameterM: valueSpecSchema('Outer diameter, m: sets the drag width and the displaced volume.', { exclusiveMinimum: 0 }),
     anchor: {
@@ -54,7 +70,13 @@ const chainSchema = closed(
       default: [],
     },
     forceAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which every handle is pushed.', default: ['x', 'y', 'z'] },
-    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which a top-driven node 0 follows its control channels.', default: ['x', 'y', 'z'] },
+    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, description: 'Axes along which a top-driven node 0 and every node of drivenNodes follow their control channels.', default: ['x', 'y', 'z'] },
+    drivenNodes: {
+      type: 'array',
+      description: 'Further nodes moved by control channels along drivenAxes ("<node>-offset-<axis>", e.g. "tip-offset-x" or "node4-offset-y", a displacement in m from the start); negative indices count from the free end, -1 is the tip.',
+      items: valueSpecSchema('Node index of a driven node; negative counts from the free end.', { integer: true }),
+      default: [],
+    },
   },
   ['kind', 'partCount', 'lengthM', 'totalMassKg', 'axialStiffnessN', 'dampingRatio', 'diameterM', 'anchor'],
 );
@@ -144,6 +166,26 @@ const materialSchema = closed(
   ['name', 'youngsModulusPa', 'densityKgPerM3', 'dampingRatio'],
 );
 
+const latticeClampSchema = closed(
+  'A group of lattice nodes held in place, or moved by control channels along drivenAxes (a shaking table). Give exactly one of face, cells and boxM.',
+  {
+    name: { type: 'string', pattern: '^[a-z][a-z0-9-]{0,31}$', description: 'Start of the group\'s channel names ("table" gives "table-offset-x"); default "clamp-<position in the list>".' },
+    face: { type: 'string', enum: ['-x', '+x', '-y', '+y', '-z', '+z'], description: 'Every node on the body\'s outermost grid plane on that side (-y is the bottom; 2-D lattices have no z faces).' },
+    cells: {
+      type: 'array',
+      minItems: 1,
+      description: 'Every corner node of these cells, each given by its grid position [x, y] (2-D) or [x, y, z] (3-D), counting from 0 at the grid\'s minimum corner.',
+      items: { type: 'array', minItems: 2, maxItems: 3, items: { type: 'integer', minimum: 0 }, description: 'Grid position of a filled cell.' },
+    },
+    boxM: closed('Every node whose built position lies inside this axis-aligned box (faces included), m.', {
+      min: vector3('Minimum corner of the box, m.'),
+      max: vector3('Maximum corner of the box, m.'),
+    }, ['min', 'max']),
+    drivenAxes: { type: 'array', items: AXES, uniqueItems: true, default: [], description: 'Axes along which the group follows its channels (one "<name>-offset-<axis>" channel each, a displacement in m from the built position); empty: the group is pinned.' },
+  },
+  [],
+);
+
 const latticeSchema = closed(
   'A soft body of square (2-D) or cubic (3-D) cells sharing corner nodes; actuated materials change their springs\' rest lengths with their channel.',
   {
@@ -153,6 +195,7 @@ const latticeSchema = closed(
     materials: { type: 'array', minItems: 1, maxItems: 64, items: materialSchema, description: 'Materials, referred to by position (1 is the first).' },
     base: { type: 'string', enum: ['clamped', 'free'], default: 'free', description: 'clamped: the bottom nodes of the lowest layer are pinned; free: nothing is pinned.' },
     originM: vector3('Position of the grid\'s minimum corner, m.', {}, [0, 0, 0]),
+    clamps: { type: 'array', items: latticeClampSchema, default: [], description: 'Further node groups held in place or driven: faces, cells or boxes.' },
   },
   ['kind', 'cellSizeM', 'shape', 'materials'],
 );
@@ -210,6 +253,13 @@ const controlsSchema = closed(
       additionalProperties: { $ref: CONTROL_SPEC_REF },
       default: {},
     },
+    rampInS: {
+      type: 'number',
+      minimum: 0,
+      maximum: 3600,
+      default: DEFAULT_RAMP_IN_S,
+      description: `Every channel's signal (after its clip) is multiplied by a raised-cosine ramp ½(1 − cos(π·t/rampInS)) from 0 to 1 over the first rampInS seconds, so episodes start smoothly from the built state instead of with a jolt; 0 turns it off. Default ${DEFAULT_RAMP_IN_S} s.`,
+    },
   },
   [],
 );
@@ -233,8 +283,15 @@ const timeSchema = closed(
 );
 
 const initialStateSchema = closed(
-  'Randomisation of the start state; pinned and driven nodes are never moved.',
+  'The start state: a pose (rotation, translation) of the built shape, an optional settling under gravity before recording, a uniform start velocity and spin, then noise. Pinned and driven nodes are never moved.',
   {
+    rotationRad: valueSpecSchema('Rigid rotation of the start pose, rad, about rotationAxisUnit through the first pinned or driven node (a chain\'s top: the chain starts at this angle), or through the centre of mass of a body with none. 2-D lattices turn about z.', { default: 0 }),
+    rotationAxisUnit: vector3('Axis of the start rotation, normalised before use.', {}, [0, 0, 1]),
+    translationM: vector3('Shift of the start pose of a body with no pinned or driven node, m.', {}, [0, 0, 0]),
+    settleS: valueSpecSchema('Seconds the system relaxes under its world (controls at 0, extra drag settleDragPerS) before recording starts, so hanging or resting bodies start at rest; 0 for none. Velocities are zeroed afterwards.', { minimum: 0, maximum: 600, default: 0 }),
+    settleDragPerS: valueSpecSchema('Extra mass-proportional drag while settling, 1/s (about twice the slowest mode\'s angular frequency settles it fastest).', { minimum: 0, default: 10 }),
+    velocityMPerS: vector3('Uniform start velocity of every free node, m/s (after settling).', {}, [0, 0, 0]),
+    spinRadPerS: vector3('Start angular velocity about the rotation pivot, rad/s: each free node gets ω × (x − pivot) on top of velocityMPerS.', {}, [0, 0, 0]),
     positionNoiseM: valueSpecSchema('Standard deviation of normal noise on each coordinate of every free node, m.', { minimum: 0, default: 0 }),
     velocityNoiseMPerS: valueSpecSchema('Standard deviation of normal noise on each velocity component of every free node, m/s.', { minimum: 0, default: 0 }),
   },

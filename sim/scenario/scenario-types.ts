@@ -5,8 +5,8 @@
 // Defaults named in the schema are filled in by checking, so every member below is present.
 import type { ControlSpec } from '../controls/control-spec.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
-import type { Axis, ChainAnchor } from '../systems/chain.ts';
-import type { LatticeBase, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
+import type { Axis, ChainAnchor, ChainEnd } from '../systems/chain.ts';
+import type { LatticeBase, LatticeFace, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
 
 export type Vector3Spec = [NumericValueSpec, NumericValueSpec, NumericValueSpec];
 
@@ -16,7 +16,14 @@ export interface ChainSystemSpec {
   lengthM: NumericValueSpec;
   totalMassKg: NumericValueSpec;
   axialStiffnessN: NumericValueSpec;
-  bendingStiffnessRatio: NumericValueSpec;
+  secondNeighbourSpringRatio: NumericValueSpec;
+  /** Bending rigidity EI, N·m². */
+  bendingStiffnessNm2: NumericValueSpec;
+  bendingDampingRatio: NumericValueSpec;
+  clampedEnds: ChainEnd[];
+  /** Node indices; negative ones count from the free end (−1: the tip). */
+  pinnedNodes: NumericValueSpec[];
+  drivenNodes: NumericValueSpec[];
   dampingRatio: NumericValueSpec;
   diameterM: NumericValueSpec;
   anchor: ChainAnchor;
@@ -67,6 +74,14 @@ export interface GeneratedShapeSpec {
 
 export type LatticeShapeSpec = MapListShapeSpec | GeneratedShapeSpec;
 
+export interface LatticeClampSpec {
+  name?: string;
+  face?: LatticeFace;
+  cells?: number[][];
+  boxM?: { min: Vector3Spec; max: Vector3Spec };
+  drivenAxes: Axis[];
+}
+
 export interface LatticeSystemSpec {
   kind: 'lattice';
   cellSizeM: NumericValueSpec;
@@ -74,6 +89,7 @@ export interface LatticeSystemSpec {
   materials: LatticeMaterialSpec[];
   base: LatticeBase;
   originM: Vector3Spec;
+  clamps: LatticeClampSpec[];
 }
 
 export type SystemSpec = ChainSystemSpec | LatticeSystemSpec;
@@ -106,6 +122,8 @@ export interface ControlsSpec {
   default: ControlSpec;
   /** Per channel, by its name (e.g. "top-offset-x") or its index as a string ("0"). */
   channels: Record<string, ControlSpec>;
+  /** Every channel's signal is multiplied by a raised-cosine ramp from 0 to 1 over this long, s (0: none). */
+  rampInS: number;
 }
 
 export interface TimeSpec {
@@ -117,6 +135,13 @@ export interface TimeSpec {
 }
 
 export interface InitialStateSpec {
+  rotationRad: NumericValueSpec;
+  rotationAxisUnit: Vector3Spec;
+  translationM: Vector3Spec;
+  settleS: NumericValueSpec;
+  settleDragPerS: NumericValueSpec;
+  velocityMPerS: Vector3Spec;
+  spinRadPerS: Vector3Spec;
   /** Standard deviation of the normal noise added to each coordinate of every free node, m. */
   positionNoiseM: NumericValueSpec;
   /** Standard deviation of the normal noise given to each velocity component of every free node, m/s. */

@@ -1,16 +1,21 @@
 // Chains: ropes, cables and tethers made of equal parts. Part j is the segment between nodes
 // j and j+1; its mass is lumped half to each end node. Structural springs join neighbours with
-// k = EA / segment length; bending springs join every second node (i, i+2) with a stiffness
-// given as a fraction of the structural one (the usual mass-spring bending model; it resists
-// folding but adds no linear bending stiffness to a straight chain).
+// k = EA / segment length. Bending rigidity EI acts through a hinge at every interior node,
+// k = EI / ℓ (ℓ the segment length, which is the node's Voronoi length), and through a clamp
+// of k = 2·EI / ℓ at a clamped end (its Voronoi length is half a segment), see
+// sim/core/bending-forces.ts. Second-neighbour springs (i, i+2), a fraction of the structural
+// stiffness, remain as an option: they resist folding but add no bending stiffness about a
+// straight line.
 import { ModelBuilder } from '../core/model-builder.ts';
-import { NODE_PINNED, RELATION_BENDING, RELATION_STRUCTURAL } from '../core/model.ts';
+import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../core/model.ts';
 import type { BuiltSystem } from './built-system.ts';
 import type { ControlChannelInfo } from './control-channel.ts';
 import { dampingFromRatio } from './spring-damping.ts';
 
 export type ChainAnchor = 'top-pinned' | 'both-pinned' | 'free' | 'top-driven';
 export type Axis = 'x' | 'y' | 'z';
+/** A chain end: 'top' is node 0, 'bottom' the last node. */
+export type ChainEnd = 'top' | 'bottom';
 
 export interface ChainParameters {
   partCount: number;
@@ -19,8 +24,24 @@ export interface ChainParameters {
   totalMassKg: number;
   /** Axial rigidity EA, N. */
   axialStiffnessN: number;
-  /** Bending spring stiffness over structural spring stiffness, dimensionless (0: none). */
-  bendingStiffnessRatio: number;
+  /** Stiffness of the (i, i+2) springs over the structural one, dimensionless (0: none). */
+  secondNeighbourSpringRatio: number;
+  /** Bending rigidity EI, N·m² (0 or absent: none). */
+  bendingStiffnessNm2?: number;
+  /**
+   * Damping ratio of each hinge's middle node moving across the line of its two neighbours
+   * (a clamp's: its free node across the clamp direction), dimensionless.
+   */
+  bendingDampingRatio?: number;
+  /** Ends whose position and direction are held; needs bendingStiffnessNm2 > 0. */
+  clampedEnds?: ChainEnd[];
+  /** Further pinned nodes; negative indices count from the free end (−1: the tip). */
+  pinnedNodes?: number[];
+  /**
+   * Further nodes moved by control channels along drivenAxes, like a driven top; negative
+   * indices count from the free end. Channels "<node label>-offset-<axis>" ("tip-offset-x").
+   */
+  drivenNodes?: number[];
   /** Damping ratio of each spring's two-mass oscillator, dimensionless. */
   dampingRatio: number;
   /** Outer diameter, m: sets the fluid panel width and the displaced volume. */
@@ -34,7 +55,7 @@ export interface ChainParameters {
   forceHandles: number[];
   /** Axes along which each handle is pushed (one control channel each). */
   forceAxes: Axis[];
-  /** Axes along which a driven top follows its control channels (top-driven only). */
+  /** Axes along which a driven top and the drivenNodes follow their control channels. */
   drivenAxes: Axis[];
 }
 
@@ -62,15 +83,42 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
     builder.addSpring(i, i + 1, structuralK, c, RELATION_STRUCTURAL);
     builder.addPanel([i, i + 1]);
   }
-  const bendingK = structuralK * p.bendingStiffnessRatio;
-  if (bendingK > 0) {
+  const secondNeighbourK = structuralK * p.secondNeighbourSpringRatio;
+  if (secondNeighbourK > 0) {
     for (let i = 0; i + 2 < nodeCount; i++) {
-      const c = dampingFromRatio(p.dampingRatio, bendingK, builder.massOf(i), builder.massOf(i + 2));
-      builder.addSpring(i, i + 2, bendingK, c, RELATION_BENDING);
+      const c = dampingFromRatio(p.dampingRatio, secondNeighbourK, builder.massOf(i), builder.massOf(i + 2));
+      builder.addSpring(i, i + 2, secondNeighbourK, c, RELATION_SECOND_NEIGHBOUR);
+    }
+  }
+  const rigidityNm2 = p.bendingStiffnessNm2 ?? 0;
+  const bendingZeta = p.bendingDampingRatio ?? 0;
+  if (!(rigidityNm2 >= 0)) throw new RangeError(`bendingStiffnessNm2 must be ≥ 0 N·m², got ${rigidityNm2}`);
+  const clampedEnds = p.clampedEnds ?? [];
+  if (clampedEnds.length > 0 && !(rigidityNm2 > 0)) {
+    throw new RangeError('a clamped end needs bending rigidity: give bendingStiffnessNm2 > 0 (EI, N·m²)');
+  }
+  if (rigidityNm2 > 0) {
+    const hingeK = rigidityNm2 / segmentM;
+    for (let i = 1; i + 1 < nodeCount; i++) {
+      // η = ζ·ℓ·√(k·m): the middle node's transverse stiffness is 4k/ℓ² and damping 4η/ℓ².
+      builder.addHinge(i - 1, i, i + 1, hingeK, bendingZeta * segmentM * Math.sqrt(hingeK * builder.massOf(i)));
+    }
+    const clampK = (2 * rigidityNm2) / segmentM;
+    for (const end of clampedEnds) {
+      const held = end === 'top' ? 0 : nodeCount - 1;
+      const neighbour = end === 'top' ? 1 : nodeCount - 2;
+      // The free node's transverse stiffness is k/ℓ² and damping η/ℓ², so η = 2ζ·ℓ·√(k·m).
+      builder.addClamp(held, neighbour, clampK, 2 * bendingZeta * segmentM * Math.sqrt(clampK * builder.massOf(neighbour)));
     }
   }
   if (p.anchor === 'top-pinned' || p.anchor === 'both-pinned') builder.setFlag(0, NODE_PINNED);
   if (p.anchor === 'both-pinned') builder.setFlag(nodeCount - 1, NODE_PINNED);
+  for (const end of clampedEnds) {
+    const held = end === 'top' ? 0 : nodeCount - 1;
+    // A driven top stays driven: the clamp then holds its direction while it moves.
+    if (!(held === 0 && p.anchor === 'top-driven')) builder.setFlag(held, NODE_PINNED);
+  }
+  for (const index of p.pinnedNodes ?? []) builder.setFlag(nodeIndex(index, nodeCount, 'pinned node'), NODE_PINNED);
 
   const channels: ControlChannelInfo[] = [];
   if (p.anchor === 'top-driven') {
@@ -81,9 +129,18 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
     }
     builder.addDriven(0, axes);
   }
+  for (const index of p.drivenNodes ?? []) {
+    const node = nodeIndex(index, nodeCount, 'driven node');
+    const label = handleLabel(index);
+    const axes: [number, number, number] = [-1, -1, -1];
+    for (const axis of p.drivenAxes) {
+      axes[AXIS_INDEX[axis]] = channels.length;
+      channels.push({ index: channels.length, name: `${label}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of node ${node} (${label}) along ${axis} from its start, reached at the end of each control interval` });
+    }
+    builder.addDriven(node, axes);
+  }
   for (const handle of p.forceHandles) {
-    const node = handle < 0 ? nodeCount + handle : handle;
-    if (node < 0 || node >= nodeCount) throw new RangeError(`force handle ${handle} is outside the chain's ${nodeCount} nodes`);
+    const node = nodeIndex(handle, nodeCount, 'force handle');
     const axes: [number, number, number] = [-1, -1, -1];
     const label = handleLabel(handle);
     for (const axis of p.forceAxes) {
@@ -104,6 +161,12 @@ function handleLabel(handle: number): string {
   if (handle === -1) return 'tip';
   if (handle < -1) return `tip-${-handle - 1}`;
   return `node${handle}`;
+}
+
+function nodeIndex(index: number, nodeCount: number, what: string): number {
+  const node = index < 0 ? nodeCount + index : index;
+  if (!Number.isInteger(node) || node < 0 || node >= nodeCount) throw new RangeError(`${what} ${index} is outside the chain's ${nodeCount} nodes`);
+  return node;
 }
 
 function normalised(v: [number, number, number]): [number, number, number] {

@@ -19,6 +19,16 @@ export interface GraphLabels {
   cells: Uint32Array;
   cellMaterial: Int16Array;
   cellChannel: Int16Array;
+  /** H × 3 node indices (previous, middle, next) of the bending hinges. */
+  hinges: Uint32Array;
+  hingeStiffnessNm: Float64Array;
+  hingeDampingNms: Float64Array;
+  /** Q × 2 node indices (held end, neighbour) of the clamps. */
+  clamps: Uint32Array;
+  /** Q × 3 unit vectors. */
+  clampDirectionUnit: Float64Array;
+  clampStiffnessNm: Float64Array;
+  clampDampingNms: Float64Array;
 }
 
 export function graphLabels(model: Model): GraphLabels {
@@ -49,5 +59,12 @@ export function graphLabels(model: Model): GraphLabels {
     cells: model.cellCorners.slice(),
     cellMaterial: model.cellMaterial.slice(),
     cellChannel: model.cellChannel.slice(),
+    hinges: model.hingeNodes.slice(),
+    hingeStiffnessNm: model.hingeStiffnessNm.slice(),
+    hingeDampingNms: model.hingeDampingNms.slice(),
+    clamps: model.clampNodes.slice(),
+    clampDirectionUnit: model.clampDirectionUnit.slice(),
+    clampStiffnessNm: model.clampStiffnessNm.slice(),
+    clampDampingNms: model.clampDampingNms.slice(),
   };
 }

@@ -26,6 +26,25 @@ export interface LatticeMaterial {
 }
 
 export type LatticeBase = 'clamped' | 'free';
+export type LatticeFace = '-x' | '+x' | '-y' | '+y' | '-z' | '+z';
+type Axis = 'x' | 'y' | 'z';
+
+/**
+ * A group of nodes held in place, or moved by control channels along drivenAxes (a shaking
+ * table). Exactly one of face, cells and boxM chooses the nodes.
+ */
+export interface LatticeClamp {
+  /** Channel names start with this (e.g. "table" gives "table-offset-x"). */
+  name: string;
+  /** Every node on the body's outermost grid plane on that side. */
+  face?: LatticeFace;
+  /** Every corner node of these cells, given by grid position [x, y] or [x, y, z]. */
+  cells?: number[][];
+  /** Every node whose built position lies inside this box (both ends included), m. */
+  boxM?: { min: [number, number, number]; max: [number, number, number] };
+  /** Axes along which the group follows its channels; empty: pinned. */
+  drivenAxes: Axis[];
+}
 export type MaterialMap2D = number[][];
 export type MaterialMap3D = number[][][];
 
@@ -37,6 +56,8 @@ export interface LatticeParameters {
   base: LatticeBase;
   /** Position of the grid's minimum corner, m. */
   originM: [number, number, number];
+  /** Further held or driven node groups. */
+  clamps?: LatticeClamp[];
 }
 
 interface Grid {
@@ -167,7 +188,68 @@ export function buildLattice(p: LatticeParameters): BuiltSystem<LatticeParameter
     channels.push({ index: ch, name: `actuator-${ch}`, kind: 'actuator', unit: '1', description: `actuation level of ${names.length ? names.join(', ') : 'no'} cells: −1 contracts, +1 expands by the material's strain limit` });
     builder.useChannel(ch);
   }
+  // Driven groups take the channels after the actuators, in the order the clamps are listed.
+  const gridOf = new Map<number, [number, number, number]>();
+  for (const [k, node] of nodeIndex) {
+    const x = k % (grid.nx + 1);
+    const y = Math.floor(k / (grid.nx + 1)) % (grid.ny + 1);
+    const z = Math.floor(k / ((grid.nx + 1) * (grid.ny + 1)));
+    gridOf.set(node, [x, y, z]);
+  }
+  for (const clamp of p.clamps ?? []) {
+    const nodes = clampNodes(clamp, dim, gridOf, cellList, builder);
+    if (nodes.length === 0) throw new RangeError(`clamp "${clamp.name}" holds no node of the body; move its box or name cells and faces the body has`);
+    const axes: [number, number, number] = [-1, -1, -1];
+    for (const axis of clamp.drivenAxes) {
+      axes[AXIS_INDEX[axis]] = channels.length;
+      channels.push({ index: channels.length, name: `${clamp.name}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement along ${axis} of the ${nodes.length} nodes held by clamp "${clamp.name}" from their built positions, reached at the end of each control interval` });
+    }
+    for (const node of nodes) {
+      if (clamp.drivenAxes.length > 0) builder.addDriven(node, axes);
+      else builder.setFlag(node, NODE_PINNED);
+    }
+  }
   return { kind: 'lattice', model: builder.build(), parameters: p, controlChannels: channels };
+}
+
+const AXIS_INDEX: Record<Axis, number> = { x: 0, y: 1, z: 2 };
+
+function clampNodes(
+  clamp: LatticeClamp,
+  dimension: 2 | 3,
+  gridOf: Map<number, [number, number, number]>,
+  cells: readonly { corners: number[]; x: number; y: number; z: number }[],
+  builder: ModelBuilder,
+): number[] {
+  if (clamp.face !== undefined) {
+    const axis = AXIS_INDEX[clamp.face[1] as Axis];
+    if (dimension === 2 && axis === 2) throw new RangeError(`clamp "${clamp.name}": a 2-D lattice has no ${clamp.face} face; use -x, +x, -y or +y`);
+    let extreme = clamp.face[0] === '-' ? Infinity : -Infinity;
+    for (const g of gridOf.values()) extreme = clamp.face[0] === '-' ? Math.min(extreme, g[axis]) : Math.max(extreme, g[axis]);
+    return [...gridOf].filter(([, g]) => g[axis] === extreme).map(([node]) => node).sort((a, b) => a - b);
+  }
+  if (clamp.cells !== undefined) {
+    const chosen = new Set<number>();
+    for (const at of clamp.cells) {
+      const cell = cells.find((c) => c.x === at[0] && c.y === at[1] && c.z === (at[2] ?? 0));
+      if (!cell) throw new RangeError(`clamp "${clamp.name}" names cell [${at.join(', ')}], which the body does not have; name filled cells of the material map`);
+      for (const node of cell.corners) chosen.add(node);
+    }
+    return [...chosen].sort((a, b) => a - b);
+  }
+  const box = clamp.boxM!;
+  const nodes: number[] = [];
+  for (let node = 0; node < builder.nodeCount; node++) {
+    const x = builder.position(node);
+    // A relative allowance keeps nodes that sit exactly on a box face inside despite rounding.
+    let inside = true;
+    for (let k = 0; k < 3; k++) {
+      const slack = 1e-9 * Math.max(1, Math.abs(box.min[k]), Math.abs(box.max[k]));
+      if (x[k] < box.min[k] - slack || x[k] > box.max[k] + slack) inside = false;
+    }
+    if (inside) nodes.push(node);
+  }
+  return nodes;
 }
 
 function addSurfacePanels(builder: ModelBuilder, grid: Grid, nodeAt: (x: number, y: number, z: number) => number): void {

@@ -9,7 +9,7 @@ import { solveLeastSquares } from './grey-box-solve.ts';
 import { episodeNumber, structureOf, type GreyBoxStructure } from './grey-box-structure.ts';
 
 export interface IdentifiedParameter {
-  /** "stiffness.structural", "damping.bending", "gravity.y", "air-drag", "fluid-normal", … */
+  /** "stiffness.structural", "damping.second-neighbour", "gravity.y", "air-drag", "fluid-normal", … */
   name: string;
   unit: string;
   estimate: number | null;

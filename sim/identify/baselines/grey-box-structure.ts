@@ -5,6 +5,7 @@
 // fluid-drag.ts, ground-contact.ts). The unknown coefficients are estimated, never read here.
 import type { EpisodeRecord } from '../../dataset/dataset-manifest.ts';
 import { valueAtPointer } from '../../dataset/json-pointer-lookup.ts';
+import { BaselineInputError } from './baseline-input-error.ts';
 
 export interface GreyBoxStructure {
   airDrag: boolean;
@@ -24,6 +25,12 @@ export function episodeNumber(scenario: unknown, episode: EpisodeRecord, pointer
 }
 
 export function structureOf(scenario: unknown, episode: EpisodeRecord): GreyBoxStructure {
+  // The model's forces are springs, gravity and drag; hinge bending would be absorbed into the
+  // spring coefficients and reported as if it were theirs, so such episodes are refused.
+  const bendingNm2 = episode.systemKind === 'chain' ? episodeNumber(scenario, episode, '/system/bendingStiffnessNm2') ?? 0 : 0;
+  if (bendingNm2 > 0) {
+    throw new BaselineInputError(`episode ${episode.id} has bending rigidity (/system/bendingStiffnessNm2 = ${bendingNm2} N·m²), which the grey-box model does not include (springs, gravity and drag only); fit it on a scenario with bendingStiffnessNm2 0, such as scenarios/identification/korrin-tether-fine.json`);
+  }
   const fluid = valueAtPointer(scenario, '/world/fluid');
   const ground = valueAtPointer(scenario, '/world/ground');
   const airDragPerS = episodeNumber(scenario, episode, '/world/airDragPerS');

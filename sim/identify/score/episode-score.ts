@@ -61,6 +61,13 @@ function arrayOf(arrays: readonly NamedArray[], name: string, episodeId: string)
   return found;
 }
 
+const NO_INDICES = new Int32Array(0);
+const NO_VALUES = new Float64Array(0);
+
+function optionalArray(arrays: readonly NamedArray[], name: string): NamedArray | undefined {
+  return arrays.find((a) => a.name === name);
+}
+
 function gravityOf(episode: EpisodeRecord): [number, number, number] {
   const g = [0, 1, 2].map((k) => episode.labels[`/world/gravityMPerS2/${k}`]);
   if (!g.every((v) => typeof v === 'number')) {
@@ -119,6 +126,12 @@ export function scoreEpisode(episode: EpisodeRecord, recorded: readonly NamedArr
       restLengthM: arrayOf(recorded, 'edge_rest_length', episode.id).data as FloatData,
       stiffnessNPerM: arrayOf(recorded, 'edge_stiffness', episode.id).data as FloatData,
       gravityMPerS2: gravityOf(episode),
+      // Datasets of lattices, or written before chains had bending rigidity, have none.
+      hinges: (optionalArray(recorded, 'hinges')?.data as Int32Array | undefined) ?? NO_INDICES,
+      hingeStiffnessNm: (optionalArray(recorded, 'hinge_stiffness')?.data as FloatData | undefined) ?? NO_VALUES,
+      clamps: (optionalArray(recorded, 'clamps')?.data as Int32Array | undefined) ?? NO_INDICES,
+      clampDirection: (optionalArray(recorded, 'clamp_direction')?.data as FloatData | undefined) ?? NO_VALUES,
+      clampStiffnessNm: (optionalArray(recorded, 'clamp_stiffness')?.data as FloatData | undefined) ?? NO_VALUES,
     };
     const e = scratch.recordedEnergyJ;
     const eHat = scratch.predictedEnergyJ;

@@ -33,7 +33,7 @@ export interface ScoreDocument {
     validPredictionTimeThreshold: number;
     error: 'rmse-per-node-euclidean';
     lengthScale: 'rms-radius-at-t0';
-    energy: 'kinetic+elastic+gravitational';
+    energy: 'kinetic+elastic+gravitational+bending';
     parameterBins: number;
   };
   /** One row per scored episode, in index order. */

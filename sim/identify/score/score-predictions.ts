@@ -144,7 +144,7 @@ export async function scorePredictions(request: ScoreRequest): Promise<ScoreDocu
       validPredictionTimeThreshold: request.vptThreshold,
       error: 'rmse-per-node-euclidean',
       lengthScale: 'rms-radius-at-t0',
-      energy: 'kinetic+elastic+gravitational',
+      energy: 'kinetic+elastic+gravitational+bending',
       parameterBins: PARAMETER_BIN_COUNT,
     },
     episodes: rows,

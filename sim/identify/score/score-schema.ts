@@ -137,7 +137,7 @@ export const SCORE_SCHEMA = {
         validPredictionTimeThreshold: { type: 'number', exclusiveMinimum: 0 },
         error: { const: 'rmse-per-node-euclidean' },
         lengthScale: { const: 'rms-radius-at-t0' },
-        energy: { const: 'kinetic+elastic+gravitational' },
+        energy: { const: 'kinetic+elastic+gravitational+bending' },
         parameterBins: { type: 'integer', minimum: 1 },
       },
     },
