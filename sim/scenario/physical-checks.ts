@@ -10,6 +10,7 @@ import { cornerSystems } from './corner-systems.ts';
 import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
+import { findScenarioDesignProblems } from './design/design-checks.ts';
 import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
 import { findObservationProblems } from './observation-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
@@ -50,6 +51,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   if (problems.length > 0) return problems;
 
   problems.push(...findFrictionProblems(scenario), ...findFractionProblems(scenario), ...findHeldOutProblems(scenario.splits.heldOut, sites));
+  problems.push(...findScenarioDesignProblems(scenario, sites));
   let maxNodes: number;
   if (scenario.system.kind === 'chain') {
     problems.push(...findChainProblems(scenario.system));

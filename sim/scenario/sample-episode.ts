@@ -10,6 +10,7 @@ import type { BuiltSystem } from '../systems/built-system.ts';
 import { sampleControls } from './control-sampling.ts';
 import type { ReplayReader } from './control-sampling.ts';
 import { EpisodeDraws } from './episode-draws.ts';
+import { designCoordinates } from './design/scenario-design.ts';
 import { applyInitialStateNoise } from './initial-state-noise.ts';
 import { latticeBody } from './lattice-shape.ts';
 import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, shapeStream, splitStream } from './parameter-streams.ts';
@@ -46,7 +47,7 @@ export function sampleEpisode(scenario: Scenario, episodeIndex: number, options:
 
 function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEpisodeOptions): SampledEpisode {
   const seed = scenario.seed;
-  const draws = new EpisodeDraws(seed, episodeIndex);
+  const draws = new EpisodeDraws(seed, episodeIndex, designCoordinates(scenario, episodeIndex));
   const spec = scenario.system;
   let system: BuiltSystem;
   let dimensions: 2 | 3 = 3;

@@ -8,6 +8,7 @@ import { valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
+import { DESIGN_KINDS } from '../design/design-spec.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 
@@ -280,6 +281,24 @@ const exportSchema = closed(
   [],
 );
 
+const designSchema = closed(
+  'How the episodes are placed in the space of distributed parameters (every value given as a distribution, in the order of their JSON pointers). Leave out for independent draws per episode. The design\'s unit-cube coordinate of each parameter goes through that parameter\'s distribution (inverse CDF), so the distributions keep their meaning. Control-signal parameters are always drawn independently.',
+  {
+    kind: {
+      type: 'string',
+      enum: [...DESIGN_KINDS],
+      description: 'independent: each episode draws each parameter on its own; grid: every combination of the levels in "levels", one episode each; latin-hypercube: each parameter\'s range cut into as many equally likely strata as episodes, each used once (McKay, Beckman & Conover 1979); sobol: a scrambled Sobol sequence (Joe & Kuo 2008 direction numbers, linear matrix scramble and digital shift from the seed).',
+    },
+    levels: {
+      type: 'object',
+      description: 'Grid only: number of levels of each gridded parameter, keyed by its JSON pointer, e.g. {"/system/lengthM": 5}. The product must equal "episodes". Distributed parameters not named here are drawn independently.',
+      propertyNames: { pattern: '^/' },
+      additionalProperties: { type: 'integer', minimum: 1, maximum: MAX_EPISODES },
+    },
+  },
+  ['kind'],
+);
+
 const markersSchema: JsonSchema = {
   type: 'object',
   description: 'Which nodes the sensor sees: {"nodes": [...]} lists them, {"everyNth": k} takes nodes 0, k, 2k, ...',
@@ -344,6 +363,7 @@ export const SCENARIO_SCHEMA: JsonSchema = {
     splits: { ...splitsSchema, default: {} },
     export: { ...exportSchema, default: {} },
     observation: observationSchema,
+    design: designSchema,
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,

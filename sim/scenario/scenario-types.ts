@@ -4,6 +4,7 @@
 // NumericValueSpec: a plain number for a fixed value or a distribution drawn once per episode.
 // Defaults named in the schema are filled in by checking, so every member below is present.
 import type { ControlSpec } from '../controls/control-spec.ts';
+import type { DesignSpec } from '../design/design-spec.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import type { Axis, ChainAnchor } from '../systems/chain.ts';
 import type { LatticeBase, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
@@ -187,4 +188,6 @@ export interface Scenario {
   export: ExportSpec;
   /** Absent: the dataset holds the ground truth only. */
   observation?: ObservationSpec;
+  /** Absent: every parameter of every episode is drawn independently (as "independent"). */
+  design?: DesignSpec;
 }
