@@ -60,17 +60,31 @@ function categoryAtProbability(spec: ChoiceSpec, u: number): number {
  */
 export function truncatedStandardNormalQuantile(u: number, lower: number, upper: number): number {
   if (!(lower <= upper) || !Number.isFinite(lower) || !Number.isFinite(upper)) throw new RangeError(`truncated normal needs finite bounds lower <= upper, got [${lower}, ${upper}]`);
-  if (lower === upper) return lower;
-  if (upper <= 0) return -truncatedStandardNormalQuantile(1 - u, -upper, -lower);
-  if (lower >= 0) {
-    // Q falls from Q(lower) to Q(upper); find z with Q(lower) - Q(z) = u (Q(lower) - Q(upper)).
-    const qLower = standardNormalUpperTail(lower);
-    const target = qLower - u * (qLower - standardNormalUpperTail(upper));
-    return solveIncreasing((z) => target - standardNormalUpperTail(z), lower, upper);
-  }
+  // The lowest probability is the lower bound itself, even where Phi(lower) underflows to 0.
+  if (lower === upper || u === 0) return lower;
+  // Below zero, mirror onto the upper tail; 1 - u is passed beside u rather than recomputed
+  // from it, because for u near 0 the subtraction would lose the digits that matter there.
+  if (upper <= 0) return -upperTailQuantile(1 - u, u, -upper, -lower);
+  if (lower >= 0) return upperTailQuantile(u, 1 - u, lower, upper);
   const pLower = standardNormalCdf(lower);
-  const target = pLower + u * (standardNormalCdf(upper) - pLower);
-  return solveIncreasing((z) => standardNormalCdf(z) - target, lower, upper);
+  const mass = standardNormalCdf(upper) - pLower;
+  if (u <= 0.5) {
+    const target = pLower + u * mass;
+    return solveIncreasing((z) => standardNormalCdf(z) - target, lower, upper);
+  }
+  // Near the top Phi(z) is close to 1 and its last digits are gone; solve with Q instead.
+  const tailTarget = standardNormalUpperTail(upper) + (1 - u) * mass;
+  return solveIncreasing((z) => tailTarget - standardNormalUpperTail(z), lower, upper);
+}
+
+// 0 <= lower < upper, `below` + `above` = 1: Q falls from Q(lower) to Q(upper); find z with
+// Q(lower) - Q(z) = below (Q(lower) - Q(upper)), measured from the end whose share is smaller
+// (that share is the exact one of the two).
+function upperTailQuantile(below: number, above: number, lower: number, upper: number): number {
+  const qLower = standardNormalUpperTail(lower);
+  const qUpper = standardNormalUpperTail(upper);
+  const target = below <= above ? qLower - below * (qLower - qUpper) : qUpper + above * (qLower - qUpper);
+  return solveIncreasing((z) => target - standardNormalUpperTail(z), lower, upper);
 }
 
 // Root of an increasing g on [lo, hi] whose slope is the normal density: Newton steps kept
