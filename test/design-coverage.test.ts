@@ -6,6 +6,7 @@
 // and the floor rule for integer and categorical values.
 import { describe, expect, it } from 'vitest';
 import { centredL2DiscrepancySquared } from '../sim/design/centred-discrepancy.ts';
+import { expectedIndependentCentredDiscrepancySquared } from '../sim/design/design-coverage.ts';
 import { LatinHypercubeCoordinate } from '../sim/design/latin-hypercube.ts';
 import { scrambledSobolCoordinate, scrambledSobolDimension } from '../sim/design/sobol-scramble.ts';
 import { truncatedStandardNormalQuantile, valueAtProbability } from '../sim/random/inverse-cdf.ts';
@@ -46,6 +47,22 @@ print(json.dumps([float(qmc.discrepancy(np.array(s['points']).reshape(s['n'], s[
     const [independent, lhs, sobol] = sets.map((s) => centredL2DiscrepancySquared(Float64Array.from(s.points), s.n, s.d));
     expect(sobol).toBeLessThan(independent);
     expect(lhs).toBeLessThan(independent);
+  });
+});
+
+describe('the mean the card compares with', () => {
+  it('E[CD^2] = ((5/4)^d - (13/12)^d) / n for independent uniform points, within 4 standard errors of 3000 random sets (law of large numbers; the formula is derived in design-coverage.ts)', () => {
+    const random = new RandomStream(8, 0, StreamPurpose.preview, 1);
+    const n = 12;
+    const d = 3;
+    const values: number[] = [];
+    for (let trial = 0; trial < 3000; trial++) values.push(centredL2DiscrepancySquared(Float64Array.from({ length: n * d }, () => random.nextFloat64()), n, d));
+    const mean = values.reduce((a, b) => a + b, 0) / values.length;
+    const sd = Math.sqrt(values.reduce((a, b) => a + (b - mean) ** 2, 0) / (values.length - 1));
+    const want = expectedIndependentCentredDiscrepancySquared(n, d);
+    expect(Math.abs(mean - want)).toBeLessThan((4 * sd) / Math.sqrt(values.length));
+    // The formula is not vacuous: a wrong exponent would be far outside.
+    expect(Math.abs(((5 / 4) ** d - (13 / 12) ** (d + 1)) / n - mean)).toBeGreaterThan((4 * sd) / Math.sqrt(values.length));
   });
 });
 

@@ -13,6 +13,7 @@ import { valueAtPointer } from './json-pointer-lookup.ts';
 import { unitOfLabel } from './label-units.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
+import { designCardSection } from './design-card-section.ts';
 
 export interface CardSource extends ManifestHead {
   /** The folder's episodes, gathered in index order. */
@@ -265,6 +266,7 @@ export function renderDatasetCard(source: CardSource): string {
     '## Splits',
     '',
     ...splitSection(source),
+    ...designCardSection(source.scenario),
     '',
     '## Sampled parameters',
     '',
