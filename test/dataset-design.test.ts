@@ -1,7 +1,7 @@
 // A dataset whose episodes a design places (Latin hypercube and Sobol over the Korrin Bay
 // tether) must come out byte for byte the same from one run, from two worker threads and from
 // three array-job shards merged, as test/dataset-reproducibility.test.ts demands of independent
-// draws; and its card must report the design with a discrepancy that SciPy's
+// draws (the Latin hypercube one with exact, stratified split counts too); and its card must report the design with a discrepancy that SciPy's
 // scipy.stats.qmc.discrepancy(method="CD") (under /usr/bin/python3) confirms for the same points.
 import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -47,7 +47,10 @@ beforeAll(async () => {
   const checked = checkScenarioText(text, 'korrin-tether.json');
   if (!checked.ok) throw new Error(JSON.stringify(checked.problems));
   for (const kind of ['latin-hypercube', 'sobol'] as const) {
-    const scenario = { ...withOverrides(checked.scenario, { episodes: EPISODES, format: 'npz' }), design: { kind } };
+    const base = withOverrides(checked.scenario, { episodes: EPISODES, format: 'npz' });
+    // The Latin hypercube run also plans its splits: exact counts, stratified by length.
+    const splits = kind === 'latin-hypercube' ? { ...base.splits, counts: { validation: 2, test: 2 }, stratify: { parameters: ['/system/lengthM'], bins: 2 } } : base.splits;
+    const scenario = { ...base, design: { kind }, splits };
     scenarios[kind] = scenario;
     writeFileSync(join(work, `${kind}.json`), JSON.stringify(scenario, null, 2));
     const made = await cli(['generate', join(work, `${kind}.json`), '--out', join(work, `${kind}-one`), '--workers', '1']);
@@ -77,10 +80,12 @@ describe('a designed dataset is shard- and worker-safe', () => {
     });
   }
 
-  it('the design changes the labels: a Latin hypercube of 9 episodes has one length per ninth of its range', () => {
-    const manifest = JSON.parse(readFileSync(join(work, 'latin-hypercube-one', 'manifest.json'), 'utf8')) as { episodes: { labels: Record<string, number> }[] };
+  it('the design changes the labels: a Latin hypercube of 9 episodes has one length per ninth of its range; its planned splits have exactly 2 validation and 2 test episodes', () => {
+    const manifest = JSON.parse(readFileSync(join(work, 'latin-hypercube-one', 'manifest.json'), 'utf8')) as { episodes: { labels: Record<string, number>; split: string }[] };
     const ninths = manifest.episodes.map((e) => Math.floor((e.labels['/system/lengthM'] - 1.5) * 9)).sort();
     expect(ninths).toEqual([0, 1, 2, 3, 4, 5, 6, 7, 8]);
+    expect(manifest.episodes.filter((e) => e.split === 'validation').length).toBe(2);
+    expect(manifest.episodes.filter((e) => e.split === 'test').length).toBe(2);
   });
 });
 

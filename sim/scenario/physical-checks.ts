@@ -11,6 +11,7 @@ import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
 import { findScenarioDesignProblems } from './design/design-checks.ts';
+import { findSplitPlanProblems } from './splits/split-plan-checks.ts';
 import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
 import { findObservationProblems } from './observation-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
@@ -71,6 +72,10 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
         `${MAX_RECORDED_NODE_STATES} (about ${Math.round((MAX_RECORDED_NODE_STATES * 48) / 1e6)} MB of positions and velocities); record fewer steps or use fewer nodes`,
     });
   }
+  if (problems.length > 0) return problems;
+
+  // Counting the held-out episodes samples every episode's parameters, so only a sound scenario gets here.
+  problems.push(...findSplitPlanProblems(scenario, sites));
   if (problems.length > 0) return problems;
 
   const demanding = cornerSystems(scenario, 'demanding');

@@ -23,6 +23,7 @@ import { ScenarioProblemError } from './scenario-problem.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
 import { assignSplit } from './split-assignment.ts';
+import { plannedSplit, scenarioSplitPlan, usesPlannedSplits } from './splits/planned-splits.ts';
 
 export interface SampleEpisodeOptions {
   /** Reads a replay table (a .npy file named in a "replay" control spec). */
@@ -76,7 +77,11 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
   const parameterLabels = { ...draws.labels };
   const { recordIntervalS, recordedSteps, substeps, autoSafety } = scenario.time;
   const controls = sampleControls(scenario.controls, system.controlChannels, seed, episodeIndex, recordIntervalS, recordedSteps, draws.labels, options.replay);
-  const split = assignSplit(
+  const planned = scenarioSplitPlan(scenario);
+  if (planned === null && usesPlannedSplits(scenario.splits)) {
+    throw new ScenarioProblemError([{ pointer: '/splits/counts', message: 'cannot be met by this scenario\'s episodes; run `pliant validate` on it to see the numbers' }]);
+  }
+  const split = planned !== null ? plannedSplit(planned, episodeIndex) : assignSplit(
     scenario.splits,
     (pointer) => {
       const value = parameterLabels[pointer];

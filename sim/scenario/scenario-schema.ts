@@ -268,6 +268,22 @@ const splitsSchema = closed(
       default: { train: 0.8, validation: 0.1, test: 0.1 },
     },
     heldOut: { type: 'array', items: heldOutRuleSchema, default: [], description: 'Rules checked in order; the first match decides.' },
+    counts: {
+      ...closed('Exact numbers of episodes (other than held-out ones) per split, instead of fractions. Leave out at most one split: it takes the rest. Given all three, they must add up to the episodes left after the held-out rules.', {
+        train: { type: 'integer', minimum: 0, maximum: MAX_EPISODES, description: 'Episodes for training.' },
+        validation: { type: 'integer', minimum: 0, maximum: MAX_EPISODES, description: 'Episodes for validation.' },
+        test: { type: 'integer', minimum: 0, maximum: MAX_EPISODES, description: 'Episodes for testing.' },
+      }, []),
+      minProperties: 1,
+    },
+    stratify: closed(
+      'Deal the splits stratum by stratum so each split spans the listed parameters\' ranges: each parameter is cut into "bins" strata of equal episode counts, and within every combination of strata the splits keep their shares (counts, or the fractions rounded to whole episodes).',
+      {
+        parameters: { type: 'array', minItems: 1, uniqueItems: true, items: { type: 'string', pattern: '^/' }, description: 'JSON pointers of distributed parameters, e.g. ["/system/lengthM"].' },
+        bins: { type: 'integer', minimum: 1, maximum: 1000, description: 'Strata per parameter; 4 when left out.' },
+      },
+      ['parameters'],
+    ),
   },
   [],
 );
@@ -364,6 +380,12 @@ export const SCENARIO_SCHEMA: JsonSchema = {
     export: { ...exportSchema, default: {} },
     observation: observationSchema,
     design: designSchema,
+    maxRejectedFraction: {
+      type: 'number',
+      minimum: 0,
+      maximum: 1,
+      description: 'Largest share of the episodes of a run (or shard) that may be rejected as unstable; beyond it generation stops with exit code 2 and names the parameter ranges the rejected episodes come from. 0.5 when left out; 1 never stops.',
+    },
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,

@@ -160,10 +160,25 @@ export interface HeldOutRule {
   inside?: [number, number];
 }
 
+/** Stratified assignment: each listed parameter cut into `bins` equal-count strata. */
+export interface StratifySpec {
+  /** JSON pointers of distributed parameters. */
+  parameters: string[];
+  /** Strata per parameter; absent: 4 (DEFAULT_STRATA_BINS). */
+  bins?: number;
+}
+
 export interface SplitsSpec {
   fractions: Record<SplitName, number>;
   /** Checked in order before the fractions; the first matching rule decides. */
   heldOut: HeldOutRule[];
+  /**
+   * Exact numbers of the episodes not held out, per split; at most one split may be left out
+   * and takes the rest. Given: replaces the fractions.
+   */
+  counts?: Partial<Record<SplitName, number>>;
+  /** Given: splits are dealt stratum by stratum over these parameters (counts, or fractions rounded). */
+  stratify?: StratifySpec;
 }
 
 export interface ExportSpec {
@@ -190,4 +205,9 @@ export interface Scenario {
   observation?: ObservationSpec;
   /** Absent: every parameter of every episode is drawn independently (as "independent"). */
   design?: DesignSpec;
+  /**
+   * Largest share of a run's episodes that may be rejected before generation stops with an
+   * error naming the parameter ranges that fail; absent: DEFAULT_MAX_REJECTED_FRACTION (0.5).
+   */
+  maxRejectedFraction?: number;
 }
