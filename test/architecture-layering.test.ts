@@ -13,15 +13,17 @@ const ALLOWED: Record<string, string[]> = {
   'sim/core': [],
   'sim/systems': ['sim/core'],
   'sim/controls': ['sim/random'],
+  // Sampling designs (grid, Latin hypercube, Sobol) and their coverage measure: unit-cube maths.
+  'sim/design': ['sim/random'],
   'sim/episode': ['sim/core', 'sim/systems'],
-  'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode'],
-  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/cli/version.ts'],
+  'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design'],
+  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/cli/version.ts'],
   // Pictures of recorded episodes, drawn from the files.
   'sim/render': ['sim/core', 'sim/systems', 'sim/dataset'],
   // Scoring, baselines and calibration sit after the files: they read datasets, never the CLI.
-  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/scenario', 'sim/dataset', 'sim/cli/version.ts'],
+  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/dataset', 'sim/cli/version.ts'],
 };
-const ENVIRONMENT_FREE = ['sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/episode', 'sim/scenario'];
+const ENVIRONMENT_FREE = ['sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
 
 function sourceFiles(folder: string): string[] {
   const abs = join(ROOT, folder);

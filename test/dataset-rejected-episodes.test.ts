@@ -41,6 +41,8 @@ const scenario = {
   episodes: 10,
   seed: 5,
   export: { format: 'both', dtype: 'float32' },
+  // This sweep is about rejections themselves (6 of 10 here), so it must not stop at the default limit of 0.5.
+  maxRejectedFraction: 1,
 };
 
 async function cli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {

@@ -13,6 +13,7 @@ import { valueAtPointer } from './json-pointer-lookup.ts';
 import { unitOfLabel } from './label-units.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
+import { designCardSection } from './design-card-section.ts';
 
 export interface CardSource extends ManifestHead {
   /** The folder's episodes, gathered in index order. */
@@ -149,13 +150,24 @@ function splitSection(source: CardSource): string[] {
   for (const [split, counts] of Object.entries(source.splits)) lines.push(`| ${split} | ${counts.ok} | ${counts.rejected} |`);
   const splits = ((source.scenario as Record<string, unknown>).splits ?? {}) as Record<string, unknown>;
   const heldOut = Array.isArray(splits.heldOut) ? splits.heldOut : [];
-  if (splits.fractions !== undefined) {
+  if (splits.counts !== undefined || splits.stratify !== undefined) {
+    lines.push('', plannedSplitWords(splits));
+  } else if (splits.fractions !== undefined) {
     lines.push('', `Episodes outside every held-out range are assigned to splits with the fractions \`${JSON.stringify(splits.fractions)}\`, drawn from each episode's own random stream (so the assignment does not depend on how many episodes there are or how they are sharded).`);
   }
   for (const rule of heldOut) {
     lines.push(`- Held-out rule: \`${JSON.stringify(rule)}\` — episodes whose sampled value matches go to that split whatever the fractions say, for testing generalisation beyond the training range.`);
   }
   return lines;
+}
+
+function plannedSplitWords(splits: Record<string, unknown>): string {
+  const share = splits.counts !== undefined ? `the exact counts \`${JSON.stringify(splits.counts)}\` (a split left out takes the rest)` : `the fractions \`${JSON.stringify(splits.fractions)}\` rounded to whole episodes by largest remainders`;
+  const stratify = splits.stratify as { parameters?: string[]; bins?: number } | undefined;
+  const strata = stratify !== undefined
+    ? ` They are dealt stratum by stratum: ${(stratify.parameters ?? []).map((p) => `\`${p}\``).join(', ')} each cut into ${stratify.bins ?? 4} strata of equal episode counts, so every split spans those ranges.`
+    : '';
+  return `Episodes outside every held-out range are assigned to splits in ${share}, planned over the whole sweep from the seed (so the assignment does not depend on sharding or on which episodes were rejected; rejected ones keep their split).${strata}`;
 }
 
 function arraySection(source: CardSource): string[] {
@@ -287,6 +299,7 @@ export function renderDatasetCard(source: CardSource): string {
     '## Splits',
     '',
     ...splitSection(source),
+    ...designCardSection(source.scenario),
     '',
     '## Sampled parameters',
     '',

@@ -44,6 +44,7 @@ import { lockFolder } from './folder-lock.ts';
 import type { ShardPlan } from './shard-plan.ts';
 import { readTextIfPresent } from './text-file.ts';
 import { isUsableSplitName } from './dataset-files.ts';
+import { RejectionLimitError, rejectedEpisodeLimit, rejectionLimitMessage } from './rejection-limit.ts';
 
 export interface GenerateRequest {
   /** Checked scenario, with command-line overrides already applied. */
@@ -241,6 +242,9 @@ async function generateLocked(
     }
   }
   const todo = indices.filter((i) => !done.has(i));
+  // More rejections than this and the run stops: the sweep could no longer meet the limit.
+  const rejectedLimit = rejectedEpisodeLimit(scenario, indices.length);
+  const overLimit = (): boolean => rejected > rejectedLimit;
   request.onEvent?.({ type: 'start', total: indices.length, alreadyDone: done.size, workers: request.workers, outDir });
 
   const write = async (outcome: EpisodeOutcome): Promise<void> => {
@@ -263,7 +267,16 @@ async function generateLocked(
       ...(outcome.record.rejection ? { reason: outcome.record.rejection.message } : {}),
     });
   };
-  await computeEpisodes({ scenario, dtype: scenario.export.dtype, replay: inputs.table, workers: request.workers, indices: todo, onOutcome: write, shouldStop: request.shouldStop });
+  const shouldStop = (): boolean => overLimit() || (request.shouldStop?.() ?? false);
+  if (!overLimit()) await computeEpisodes({ scenario, dtype: scenario.export.dtype, replay: inputs.table, workers: request.workers, indices: todo, onOutcome: write, shouldStop });
+  if (overLimit()) {
+    const finishedSoFar = indices.filter((i) => done.has(i)).map((index) => {
+      const id = episodeId(index, scenario.episodes);
+      const record = readCompletion(outDir, episodeDonePath(id), id).record;
+      return { labels: record.labels, rejected: record.status === 'rejected' };
+    });
+    throw new RejectionLimitError(rejectionLimitMessage(scenario, indices.length, finishedSoFar, outDir));
+  }
   if (done.size < indices.length) {
     return { status: 'stopped', outDir, ok: done.size - rejected, rejected, listedPaths: null };
   }

@@ -18,6 +18,10 @@ export const StreamPurpose = {
   preview: 5,
   /** Sensor noise and dropouts of the observed arrays (sub-streams in sim/scenario/parameter-streams.ts). */
   observation: 6,
+  /** Per-episode draws of a design, e.g. a Latin hypercube point's place inside its stratum (sub-stream: the parameter's). */
+  designPoint: 7,
+  /** Draws shared by every episode of a design: Sobol scrambles, stratum permutations (episode index 0). */
+  designSetup: 8,
 } as const;
 
 export type StreamPurposeName = keyof typeof StreamPurpose;

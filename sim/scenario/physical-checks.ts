@@ -10,6 +10,8 @@ import { cornerSystems } from './corner-systems.ts';
 import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
+import { findScenarioDesignProblems } from './design/design-checks.ts';
+import { findSplitPlanProblems } from './splits/split-plan-checks.ts';
 import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
 import { findObservationProblems } from './observation-checks.ts';
 import { findLatticeClampProblems } from './lattice-clamp-checks.ts';
@@ -54,6 +56,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   if (problems.length > 0) return problems;
 
   problems.push(...findFrictionProblems(scenario), ...findFractionProblems(scenario), ...findHeldOutProblems(scenario.splits.heldOut, sites));
+  problems.push(...findScenarioDesignProblems(scenario, sites));
   let maxNodes: number;
   if (scenario.system.kind === 'chain') {
     problems.push(...findChainProblems(scenario.system));
@@ -77,6 +80,10 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
         `${MAX_RECORDED_NODE_STATES} (about ${Math.round((MAX_RECORDED_NODE_STATES * 48) / 1e6)} MB of positions and velocities); record fewer steps or use fewer nodes`,
     });
   }
+  if (problems.length > 0) return problems;
+
+  // Counting the held-out episodes samples every episode's parameters, so only a sound scenario gets here.
+  problems.push(...findSplitPlanProblems(scenario, sites));
   if (problems.length > 0) return problems;
 
   const demanding = cornerSystems(scenario, 'demanding');

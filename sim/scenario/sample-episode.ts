@@ -10,6 +10,7 @@ import type { BuiltSystem } from '../systems/built-system.ts';
 import { sampleControls } from './control-sampling.ts';
 import type { ReplayReader } from './control-sampling.ts';
 import { EpisodeDraws } from './episode-draws.ts';
+import { designCoordinates } from './design/scenario-design.ts';
 import { applyInitialStateNoise } from './initial-state-noise.ts';
 import { latticeBody } from './lattice-shape.ts';
 import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, shapeStream, splitStream } from './parameter-streams.ts';
@@ -25,6 +26,7 @@ import { ScenarioProblemError } from './scenario-problem.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
 import { assignSplit } from './split-assignment.ts';
+import { plannedSplit, scenarioSplitPlan, usesPlannedSplits } from './splits/planned-splits.ts';
 
 export interface SampleEpisodeOptions {
   /** Reads a replay table (a .npy file named in a "replay" control spec). */
@@ -49,7 +51,7 @@ export function sampleEpisode(scenario: Scenario, episodeIndex: number, options:
 
 function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEpisodeOptions): SampledEpisode {
   const seed = scenario.seed;
-  const draws = new EpisodeDraws(seed, episodeIndex);
+  const draws = new EpisodeDraws(seed, episodeIndex, designCoordinates(scenario, episodeIndex));
   const spec = scenario.system;
   let system: BuiltSystem;
   let dimensions: 2 | 3 = 3;
@@ -82,7 +84,11 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
   const parameterLabels = { ...draws.labels };
   const { recordIntervalS, recordedSteps, substeps, autoSafety } = scenario.time;
   const controls = sampleControls(scenario.controls, system.controlChannels, seed, episodeIndex, recordIntervalS, recordedSteps, draws.labels, options.replay);
-  const split = assignSplit(
+  const planned = scenarioSplitPlan(scenario);
+  if (planned === null && usesPlannedSplits(scenario.splits)) {
+    throw new ScenarioProblemError([{ pointer: '/splits/counts', message: 'cannot be met by this scenario\'s episodes; run `pliant validate` on it to see the numbers' }]);
+  }
+  const split = planned !== null ? plannedSplit(planned, episodeIndex) : assignSplit(
     scenario.splits,
     (pointer) => {
       const value = parameterLabels[pointer];

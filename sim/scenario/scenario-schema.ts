@@ -9,6 +9,7 @@ import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
 import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
+import { DESIGN_KINDS } from '../design/design-spec.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 
@@ -324,6 +325,22 @@ const splitsSchema = closed(
       default: { train: 0.8, validation: 0.1, test: 0.1 },
     },
     heldOut: { type: 'array', items: heldOutRuleSchema, default: [], description: 'Rules checked in order; the first match decides.' },
+    counts: {
+      ...closed('Exact numbers of episodes (other than held-out ones) per split, instead of fractions. Leave out at most one split: it takes the rest. Given all three, they must add up to the episodes left after the held-out rules.', {
+        train: { type: 'integer', minimum: 0, maximum: MAX_EPISODES, description: 'Episodes for training.' },
+        validation: { type: 'integer', minimum: 0, maximum: MAX_EPISODES, description: 'Episodes for validation.' },
+        test: { type: 'integer', minimum: 0, maximum: MAX_EPISODES, description: 'Episodes for testing.' },
+      }, []),
+      minProperties: 1,
+    },
+    stratify: closed(
+      'Deal the splits stratum by stratum so each split spans the listed parameters\' ranges: each parameter is cut into "bins" strata of equal episode counts, and within every combination of strata the splits keep their shares (counts, or the fractions rounded to whole episodes).',
+      {
+        parameters: { type: 'array', minItems: 1, uniqueItems: true, items: { type: 'string', pattern: '^/' }, description: 'JSON pointers of distributed parameters, e.g. ["/system/lengthM"].' },
+        bins: { type: 'integer', minimum: 1, maximum: 1000, description: 'Strata per parameter; 4 when left out.' },
+      },
+      ['parameters'],
+    ),
   },
   [],
 );
@@ -335,6 +352,24 @@ const exportSchema = closed(
     dtype: { type: 'string', enum: ['float32', 'float64'], default: 'float32', description: 'Floating-point type of the recorded arrays.' },
   },
   [],
+);
+
+const designSchema = closed(
+  'How the episodes are placed in the space of distributed parameters (every value given as a distribution, in the order of their JSON pointers). Leave out for independent draws per episode. The design\'s unit-cube coordinate of each parameter goes through that parameter\'s distribution (inverse CDF), so the distributions keep their meaning. Control-signal parameters are always drawn independently.',
+  {
+    kind: {
+      type: 'string',
+      enum: [...DESIGN_KINDS],
+      description: 'independent: each episode draws each parameter on its own; grid: every combination of the levels in "levels", one episode each; latin-hypercube: each parameter\'s range cut into as many equally likely strata as episodes, each used once (McKay, Beckman & Conover 1979); sobol: a scrambled Sobol sequence (Joe & Kuo 2008 direction numbers, linear matrix scramble and digital shift from the seed).',
+    },
+    levels: {
+      type: 'object',
+      description: 'Grid only: number of levels of each gridded parameter, keyed by its JSON pointer, e.g. {"/system/lengthM": 5}. The product must equal "episodes". Distributed parameters not named here are drawn independently.',
+      propertyNames: { pattern: '^/' },
+      additionalProperties: { type: 'integer', minimum: 1, maximum: MAX_EPISODES },
+    },
+  },
+  ['kind'],
 );
 
 const markersSchema: JsonSchema = {
@@ -401,6 +436,13 @@ export const SCENARIO_SCHEMA: JsonSchema = {
     splits: { ...splitsSchema, default: {} },
     export: { ...exportSchema, default: {} },
     observation: observationSchema,
+    design: designSchema,
+    maxRejectedFraction: {
+      type: 'number',
+      minimum: 0,
+      maximum: 1,
+      description: 'Largest share of the episodes of a run (or shard) that may be rejected as unstable; beyond it generation stops with exit code 2 and names the parameter ranges the rejected episodes come from. 0.5 when left out; 1 never stops.',
+    },
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,

@@ -4,6 +4,7 @@
 // NumericValueSpec: a plain number for a fixed value or a distribution drawn once per episode.
 // Defaults named in the schema are filled in by checking, so every member below is present.
 import type { ControlSpec } from '../controls/control-spec.ts';
+import type { DesignSpec } from '../design/design-spec.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import type { Axis, ChainAnchor, ChainEnd } from '../systems/chain.ts';
 import type { LatticeBase, LatticeFace, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
@@ -184,10 +185,25 @@ export interface HeldOutRule {
   inside?: [number, number];
 }
 
+/** Stratified assignment: each listed parameter cut into `bins` equal-count strata. */
+export interface StratifySpec {
+  /** JSON pointers of distributed parameters. */
+  parameters: string[];
+  /** Strata per parameter; absent: 4 (DEFAULT_STRATA_BINS). */
+  bins?: number;
+}
+
 export interface SplitsSpec {
   fractions: Record<SplitName, number>;
   /** Checked in order before the fractions; the first matching rule decides. */
   heldOut: HeldOutRule[];
+  /**
+   * Exact numbers of the episodes not held out, per split; at most one split may be left out
+   * and takes the rest. Given: replaces the fractions.
+   */
+  counts?: Partial<Record<SplitName, number>>;
+  /** Given: splits are dealt stratum by stratum over these parameters (counts, or fractions rounded). */
+  stratify?: StratifySpec;
 }
 
 export interface ExportSpec {
@@ -212,4 +228,11 @@ export interface Scenario {
   export: ExportSpec;
   /** Absent: the dataset holds the ground truth only. */
   observation?: ObservationSpec;
+  /** Absent: every parameter of every episode is drawn independently (as "independent"). */
+  design?: DesignSpec;
+  /**
+   * Largest share of a run's episodes that may be rejected before generation stops with an
+   * error naming the parameter ranges that fail; absent: DEFAULT_MAX_REJECTED_FRACTION (0.5).
+   */
+  maxRejectedFraction?: number;
 }
