@@ -1,9 +1,13 @@
 // Regenerates a dataset from its seed.json into a new folder and compares the two file by file
 // (bytes, by SHA-256): the proof that a dataset is what its seed file says it is.
-import { readFile, stat } from 'node:fs/promises';
+import { stat } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { parseSeedFile } from './seed-file.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
+import { MiB, readBoundedText } from './bounded-text-file.ts';
+
+/** A seed file holds the resolved scenario and the run's settings, never the episodes. */
+const MAX_SEED_FILE_BYTES = 64 * MiB;
 import { generateDataset } from './generate-dataset.ts';
 import type { GenerateResult } from './generate-dataset.ts';
 import type { GenerationListener } from './generation-progress.ts';
@@ -45,8 +49,9 @@ export async function reproduceDataset(request: ReproduceRequest): Promise<Repro
   const seedPath = resolve(request.seedPath);
   let seedText: string;
   try {
-    seedText = await readFile(seedPath, 'utf8');
-  } catch {
+    seedText = readBoundedText(seedPath, MAX_SEED_FILE_BYTES, request.seedPath);
+  } catch (error) {
+    if (error instanceof DatasetRequestError) throw error;
     throw new DatasetRequestError(`cannot read ${request.seedPath}; give the seed.json of a dataset folder`);
   }
   const seed = parseSeedFile(seedText, request.seedPath);
