@@ -122,6 +122,24 @@ describe('pliant reproduce', () => {
   });
 });
 
+describe('pliant reproduce with an edited seed file', () => {
+  it.skipIf(!python.available)('says the seed file no longer matches the SHA-256 the manifest recorded (hashlib), not only that files differ', async () => {
+    const dir = copyOf('edited-seed');
+    const seedPath = join(dir, 'seed.json');
+    const recorded = runReferencePython<string>('import hashlib, json, sys\nprint(json.dumps(hashlib.sha256(open(json.load(sys.stdin), "rb").read()).hexdigest()))', seedPath);
+    // A valid edit that changes the recipe: one more recorded step per episode.
+    const seed = JSON.parse(readFileSync(seedPath, 'utf8'));
+    seed.scenario.time.recordedSteps += 1;
+    writeFileSync(seedPath, `${JSON.stringify(seed, null, 2)}\n`);
+    const now = runReferencePython<string>('import hashlib, json, sys\nprint(json.dumps(hashlib.sha256(open(json.load(sys.stdin), "rb").read()).hexdigest()))', seedPath);
+    const outcome = await cli(['reproduce', seedPath, '--out', join(work, 'edited-seed-again'), '--workers', '1', '--progress', 'none']);
+    expect(outcome.code).toBe(1);
+    expect(outcome.stdout).toContain(`seed.json does not match the SHA-256 the dataset's manifest.json recorded for it (recorded ${recorded.slice(0, 12)}…, now ${now.slice(0, 12)}…)`);
+    expect(outcome.stdout).toContain('restore the seed.json the run wrote');
+    expect(outcome.stdout.trim().split('\n').at(-1)).toMatch(/files differ \(the seed file was edited: see above\)$/);
+  });
+});
+
 describe('pliant inspect', () => {
   it('reports the split counts, parameter ranges, sizes and rejected episodes the manifest holds', async () => {
     const m = manifestOf(dataset);
