@@ -1,0 +1,495 @@
+// AssemblyScript source of the WebAssembly step kernel: the passes of one semi-implicit Euler
+// step, written as the JavaScript kernel writes them (same operations, same order, IEEE f64,
+// no fused multiply-add: WebAssembly has none implicitly and Binaryen does not reassociate
+// floating point), so both paths round alike and end on the same bits.
+// Compiled by `npm run build:wasm` (build/build-step-kernel.mjs); not type-checked by tsc.
+//
+// Mirrors, one function per JavaScript function (keep this list current):
+//   writeBodyForces               sim/core/body-forces.ts       writeBodyForces
+//   accumulateSpringForces        sim/core/spring-forces.ts     accumulateSpringForces
+//   accumulateFluidDrag           sim/core/fluid-drag.ts        accumulateFluidDrag
+//   accumulateSegmentDrag         sim/core/fluid-drag.ts        accumulateSegmentDrag
+//   accumulateQuadDrag            sim/core/fluid-drag.ts        accumulateQuadDrag
+//   projectGroundContact          sim/core/ground-contact.ts    projectGroundContact
+//   updateVelocities              sim/core/simulator.ts         updateVelocities
+//   updatePositions               sim/core/simulator.ts         updatePositions
+//   updateVelocitiesAndPositions  sim/core/simulator.ts         updateVelocitiesAndPositions
+//   step                          sim/core/simulator.ts         Simulator.step (handle forces inline, as there)
+//   advanceInterval               sim/core/simulator.ts         Simulator.advanceInterval
+//   placeDrivenNodes              sim/core/simulator.ts         Simulator.placeDrivenNodes
+//   advanceSteps                  sim/core/simulator.ts         Simulator.advanceSteps
+// Not mirrored (they run in JavaScript once per control interval and write into this module's
+// memory): applyActuation, writeHandleForces, writeDrivenTargets (control-application.ts).
+//
+// Memory: the host imports one linear memory sized for the model and never grown, lays the
+// arrays out in it and passes their byte offsets once through the set*Layout functions. Every
+// index below is a byte offset; a node's xyz doubles sit at 24·node.
+
+// Node arrays.
+let nodeCount: i32 = 0;
+let positionM: usize = 0;
+let velocityMPerS: usize = 0;
+let massKg: usize = 0;
+let inverseMassPerKg: usize = 0;
+let nodeVolumeM3: usize = 0;
+let forceN: usize = 0;
+// Springs.
+let springCount: i32 = 0;
+let springNodeA: usize = 0;
+let springNodeB: usize = 0;
+let restLengthM: usize = 0;
+let stiffnessNPerM: usize = 0;
+let dampingNsPerM: usize = 0;
+// Fluid panels.
+let panelCount: i32 = 0;
+let panelNodeCount: i32 = 0;
+let panelNodes: usize = 0;
+let panelWidthM: f64 = 0;
+// Handles and driven nodes.
+let handleCount: i32 = 0;
+let handleNodes: usize = 0;
+let handleForceN: usize = 0;
+let drivenCount: i32 = 0;
+let drivenNodes: usize = 0;
+let drivenStartM: usize = 0;
+let drivenTargetM: usize = 0;
+let drivenVelocityMPerS: usize = 0;
+// World.
+let gravityX: f64 = 0;
+let gravityY: f64 = 0;
+let gravityZ: f64 = 0;
+let airDragPerS: f64 = 0;
+let buoyantDensityKgPerM3: f64 = 0;
+let groundEnabled: bool = false;
+let groundHeightM: f64 = 0;
+let staticFriction: f64 = 0;
+let kineticFriction: f64 = 0;
+let fluidEnabled: bool = false;
+let normalDragNsPerM3: f64 = 0;
+let tangentialDragNsPerM3: f64 = 0;
+let flowX: f64 = 0;
+let flowY: f64 = 0;
+let flowZ: f64 = 0;
+
+export function setNodeLayout(count: i32, x: usize, v: usize, m: usize, invM: usize, volume: usize, f: usize): void {
+  nodeCount = count;
+  positionM = x;
+  velocityMPerS = v;
+  massKg = m;
+  inverseMassPerKg = invM;
+  nodeVolumeM3 = volume;
+  forceN = f;
+}
+
+export function setSpringLayout(count: i32, a: usize, b: usize, rest: usize, k: usize, c: usize): void {
+  springCount = count;
+  springNodeA = a;
+  springNodeB = b;
+  restLengthM = rest;
+  stiffnessNPerM = k;
+  dampingNsPerM = c;
+}
+
+export function setPanelLayout(count: i32, nodesPerPanel: i32, nodes: usize, widthM: f64): void {
+  panelCount = count;
+  panelNodeCount = nodesPerPanel;
+  panelNodes = nodes;
+  panelWidthM = widthM;
+}
+
+export function setHandleLayout(count: i32, nodes: usize, forces: usize): void {
+  handleCount = count;
+  handleNodes = nodes;
+  handleForceN = forces;
+}
+
+export function setDrivenLayout(count: i32, nodes: usize, start: usize, target: usize, velocity: usize): void {
+  drivenCount = count;
+  drivenNodes = nodes;
+  drivenStartM = start;
+  drivenTargetM = target;
+  drivenVelocityMPerS = velocity;
+}
+
+/** The world as the JavaScript step reads it; buoyantDensity is already 0 when buoyancy is off. */
+export function setWorld(
+  gx: f64, gy: f64, gz: f64, drag: f64, buoyantDensity: f64,
+  ground: bool, heightM: f64, muS: f64, muK: f64,
+  fluid: bool, cn: f64, ct: f64, fx: f64, fy: f64, fz: f64,
+): void {
+  gravityX = gx;
+  gravityY = gy;
+  gravityZ = gz;
+  airDragPerS = drag;
+  buoyantDensityKgPerM3 = buoyantDensity;
+  groundEnabled = ground;
+  groundHeightM = heightM;
+  staticFriction = muS;
+  kineticFriction = muK;
+  fluidEnabled = fluid;
+  normalDragNsPerM3 = cn;
+  tangentialDragNsPerM3 = ct;
+  flowX = fx;
+  flowY = fy;
+  flowZ = fz;
+}
+
+/** Byte offset of node i's xyz triple. */
+// @ts-ignore: decorator
+@inline function xyz(i: u32): usize {
+  return <usize>i * 24;
+}
+
+export function writeBodyForces(): void {
+  const m = massKg;
+  const invM = inverseMassPerKg;
+  const v = velocityMPerS;
+  const volume = nodeVolumeM3;
+  const f = forceN;
+  const gx = gravityX;
+  const gy = gravityY;
+  const gz = gravityZ;
+  const drag = airDragPerS;
+  const buoyantDensity = buoyantDensityKgPerM3;
+  const n = nodeCount;
+  for (let i: i32 = 0; i < n; i++) {
+    const o = xyz(<u32>i);
+    const fo = f + o;
+    const mi = load<f64>(m + (<usize>i << 3));
+    if (load<f64>(invM + (<usize>i << 3)) == 0) {
+      store<f64>(fo, 0, 0);
+      store<f64>(fo, 0, 8);
+      store<f64>(fo, 0, 16);
+      continue;
+    }
+    const weightMass = mi - buoyantDensity * load<f64>(volume + (<usize>i << 3));
+    const dragMass = mi * drag;
+    const vo = v + o;
+    store<f64>(fo, weightMass * gx - dragMass * load<f64>(vo), 0);
+    store<f64>(fo, weightMass * gy - dragMass * load<f64>(vo, 8), 8);
+    store<f64>(fo, weightMass * gz - dragMass * load<f64>(vo, 16), 16);
+  }
+}
+
+export function accumulateSpringForces(): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const a = springNodeA;
+  const b = springNodeB;
+  const rest = restLengthM;
+  const k = stiffnessNPerM;
+  const c = dampingNsPerM;
+  const f = forceN;
+  const count = springCount;
+  for (let s: i32 = 0; s < count; s++) {
+    const s4 = <usize>s << 2;
+    const s8 = <usize>s << 3;
+    const ia = xyz(load<u32>(a + s4));
+    const ib = xyz(load<u32>(b + s4));
+    const xa = x + ia;
+    const xb = x + ib;
+    const dx = load<f64>(xb) - load<f64>(xa);
+    const dy = load<f64>(xb, 8) - load<f64>(xa, 8);
+    const dz = load<f64>(xb, 16) - load<f64>(xa, 16);
+    const length = sqrt<f64>(dx * dx + dy * dy + dz * dz);
+    if (length == 0) continue;
+    const inv = 1 / length;
+    const nx = dx * inv;
+    const ny = dy * inv;
+    const nz = dz * inv;
+    const va = v + ia;
+    const vb = v + ib;
+    const dvn = (load<f64>(vb) - load<f64>(va)) * nx + (load<f64>(vb, 8) - load<f64>(va, 8)) * ny + (load<f64>(vb, 16) - load<f64>(va, 16)) * nz;
+    const force = load<f64>(k + s8) * (length - load<f64>(rest + s8)) + load<f64>(c + s8) * dvn;
+    const fx = force * nx;
+    const fy = force * ny;
+    const fz = force * nz;
+    const fa = f + ia;
+    const fb = f + ib;
+    store<f64>(fa, load<f64>(fa) + fx);
+    store<f64>(fa, load<f64>(fa, 8) + fy, 8);
+    store<f64>(fa, load<f64>(fa, 16) + fz, 16);
+    store<f64>(fb, load<f64>(fb) - fx);
+    store<f64>(fb, load<f64>(fb, 8) - fy, 8);
+    store<f64>(fb, load<f64>(fb, 16) - fz, 16);
+  }
+}
+
+export function accumulateFluidDrag(): void {
+  if (panelNodeCount == 2) accumulateSegmentDrag();
+  else accumulateQuadDrag();
+}
+
+export function accumulateSegmentDrag(): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const p = panelNodes;
+  const f = forceN;
+  const cn = normalDragNsPerM3;
+  const ct = tangentialDragNsPerM3;
+  const fx0 = flowX;
+  const fy0 = flowY;
+  const fz0 = flowZ;
+  const width = panelWidthM;
+  const count = panelCount;
+  for (let q: i32 = 0; q < count; q++) {
+    const pq = p + (<usize>q << 3);
+    const ia = xyz(load<u32>(pq));
+    const ib = xyz(load<u32>(pq, 4));
+    const xa = x + ia;
+    const xb = x + ib;
+    const dx = load<f64>(xb) - load<f64>(xa);
+    const dy = load<f64>(xb, 8) - load<f64>(xa, 8);
+    const dz = load<f64>(xb, 16) - load<f64>(xa, 16);
+    const length = sqrt<f64>(dx * dx + dy * dy + dz * dz);
+    if (length == 0) continue;
+    const tx = dx / length;
+    const ty = dy / length;
+    const tz = dz / length;
+    const va = v + ia;
+    const vb = v + ib;
+    const ux = 0.5 * (load<f64>(va) + load<f64>(vb)) - fx0;
+    const uy = 0.5 * (load<f64>(va, 8) + load<f64>(vb, 8)) - fy0;
+    const uz = 0.5 * (load<f64>(va, 16) + load<f64>(vb, 16)) - fz0;
+    const ut = ux * tx + uy * ty + uz * tz;
+    const area = length * width;
+    const half = 0.5 * area;
+    const fx = -half * (ct * ut * tx + cn * (ux - ut * tx));
+    const fy = -half * (ct * ut * ty + cn * (uy - ut * ty));
+    const fz = -half * (ct * ut * tz + cn * (uz - ut * tz));
+    const fa = f + ia;
+    const fb = f + ib;
+    store<f64>(fa, load<f64>(fa) + fx);
+    store<f64>(fa, load<f64>(fa, 8) + fy, 8);
+    store<f64>(fa, load<f64>(fa, 16) + fz, 16);
+    store<f64>(fb, load<f64>(fb) + fx);
+    store<f64>(fb, load<f64>(fb, 8) + fy, 8);
+    store<f64>(fb, load<f64>(fb, 16) + fz, 16);
+  }
+}
+
+export function accumulateQuadDrag(): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const p = panelNodes;
+  const f = forceN;
+  const cn = normalDragNsPerM3;
+  const ct = tangentialDragNsPerM3;
+  const fx0 = flowX;
+  const fy0 = flowY;
+  const fz0 = flowZ;
+  const count = panelCount;
+  for (let q: i32 = 0; q < count; q++) {
+    const pq = p + (<usize>q << 4);
+    const i0 = xyz(load<u32>(pq));
+    const i1 = xyz(load<u32>(pq, 4));
+    const i2 = xyz(load<u32>(pq, 8));
+    const i3 = xyz(load<u32>(pq, 12));
+    const x0 = x + i0;
+    const x1 = x + i1;
+    const x2 = x + i2;
+    const x3 = x + i3;
+    const ax = load<f64>(x2) - load<f64>(x0);
+    const ay = load<f64>(x2, 8) - load<f64>(x0, 8);
+    const az = load<f64>(x2, 16) - load<f64>(x0, 16);
+    const bx = load<f64>(x3) - load<f64>(x1);
+    const by = load<f64>(x3, 8) - load<f64>(x1, 8);
+    const bz = load<f64>(x3, 16) - load<f64>(x1, 16);
+    const cx = ay * bz - az * by;
+    const cy = az * bx - ax * bz;
+    const cz = ax * by - ay * bx;
+    const cross = sqrt<f64>(cx * cx + cy * cy + cz * cz);
+    if (cross == 0) continue;
+    const area = 0.5 * cross;
+    const nx = cx / cross;
+    const ny = cy / cross;
+    const nz = cz / cross;
+    const v0 = v + i0;
+    const v1 = v + i1;
+    const v2 = v + i2;
+    const v3 = v + i3;
+    const ux = 0.25 * (load<f64>(v0) + load<f64>(v1) + load<f64>(v2) + load<f64>(v3)) - fx0;
+    const uy = 0.25 * (load<f64>(v0, 8) + load<f64>(v1, 8) + load<f64>(v2, 8) + load<f64>(v3, 8)) - fy0;
+    const uz = 0.25 * (load<f64>(v0, 16) + load<f64>(v1, 16) + load<f64>(v2, 16) + load<f64>(v3, 16)) - fz0;
+    const un = ux * nx + uy * ny + uz * nz;
+    const quarter = 0.25 * area;
+    const fx = -quarter * (cn * un * nx + ct * (ux - un * nx));
+    const fy = -quarter * (cn * un * ny + ct * (uy - un * ny));
+    const fz = -quarter * (cn * un * nz + ct * (uz - un * nz));
+    const f0 = f + i0;
+    store<f64>(f0, load<f64>(f0) + fx);
+    store<f64>(f0, load<f64>(f0, 8) + fy, 8);
+    store<f64>(f0, load<f64>(f0, 16) + fz, 16);
+    const f1 = f + i1;
+    store<f64>(f1, load<f64>(f1) + fx);
+    store<f64>(f1, load<f64>(f1, 8) + fy, 8);
+    store<f64>(f1, load<f64>(f1, 16) + fz, 16);
+    const f2 = f + i2;
+    store<f64>(f2, load<f64>(f2) + fx);
+    store<f64>(f2, load<f64>(f2, 8) + fy, 8);
+    store<f64>(f2, load<f64>(f2, 16) + fz, 16);
+    const f3 = f + i3;
+    store<f64>(f3, load<f64>(f3) + fx);
+    store<f64>(f3, load<f64>(f3, 8) + fy, 8);
+    store<f64>(f3, load<f64>(f3, 16) + fz, 16);
+  }
+}
+
+export function projectGroundContact(dtS: f64): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const invM = inverseMassPerKg;
+  const h = groundHeightM;
+  const muS = staticFriction;
+  const muK = kineticFriction;
+  const n = nodeCount;
+  for (let i: i32 = 0; i < n; i++) {
+    if (load<f64>(invM + (<usize>i << 3)) == 0) continue;
+    const o = xyz(<u32>i);
+    const xo = x + o;
+    const vo = v + o;
+    const y = load<f64>(xo, 8);
+    const vy = load<f64>(vo, 8);
+    if (y + dtS * vy >= h) continue;
+    const landing = y < h ? 0 : (h - y) / dtS;
+    const dvn = landing - vy;
+    store<f64>(vo, landing, 8);
+    const vx = load<f64>(vo);
+    const vz = load<f64>(vo, 16);
+    const speed = sqrt<f64>(vx * vx + vz * vz);
+    if (speed <= muS * dvn) {
+      store<f64>(vo, 0);
+      store<f64>(vo, 0, 16);
+    } else {
+      // f64.max, like Math.max, returns +0 for (0, −0); the two differ only in NaN payloads,
+      // and a NaN state is rejected by the blow-up check either way.
+      const scale = max<f64>(0, 1 - (muK * dvn) / speed);
+      store<f64>(vo, vx * scale);
+      store<f64>(vo, vz * scale, 16);
+    }
+    if (y < h) store<f64>(xo, h, 8);
+  }
+}
+
+export function updateVelocities(dtS: f64): void {
+  const v = velocityMPerS;
+  const invM = inverseMassPerKg;
+  const f = forceN;
+  const n = nodeCount;
+  for (let i: i32 = 0; i < n; i++) {
+    const w = load<f64>(invM + (<usize>i << 3)) * dtS;
+    const o = xyz(<u32>i);
+    const vo = v + o;
+    const fo = f + o;
+    store<f64>(vo, load<f64>(vo) + w * load<f64>(fo));
+    store<f64>(vo, load<f64>(vo, 8) + w * load<f64>(fo, 8), 8);
+    store<f64>(vo, load<f64>(vo, 16) + w * load<f64>(fo, 16), 16);
+  }
+}
+
+export function updatePositions(dtS: f64): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const invM = inverseMassPerKg;
+  const n = nodeCount;
+  for (let i: i32 = 0; i < n; i++) {
+    if (load<f64>(invM + (<usize>i << 3)) == 0) continue;
+    const o = xyz(<u32>i);
+    const xo = x + o;
+    const vo = v + o;
+    store<f64>(xo, load<f64>(xo) + dtS * load<f64>(vo));
+    store<f64>(xo, load<f64>(xo, 8) + dtS * load<f64>(vo, 8), 8);
+    store<f64>(xo, load<f64>(xo, 16) + dtS * load<f64>(vo, 16), 16);
+  }
+}
+
+export function updateVelocitiesAndPositions(dtS: f64): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const invM = inverseMassPerKg;
+  const f = forceN;
+  const n = nodeCount;
+  for (let i: i32 = 0; i < n; i++) {
+    const im = load<f64>(invM + (<usize>i << 3));
+    const w = im * dtS;
+    const o = xyz(<u32>i);
+    const vo = v + o;
+    const fo = f + o;
+    const vx = load<f64>(vo) + w * load<f64>(fo);
+    const vy = load<f64>(vo, 8) + w * load<f64>(fo, 8);
+    const vz = load<f64>(vo, 16) + w * load<f64>(fo, 16);
+    store<f64>(vo, vx);
+    store<f64>(vo, vy, 8);
+    store<f64>(vo, vz, 16);
+    if (im == 0) continue;
+    const xo = x + o;
+    store<f64>(xo, load<f64>(xo) + dtS * vx);
+    store<f64>(xo, load<f64>(xo, 8) + dtS * vy, 8);
+    store<f64>(xo, load<f64>(xo, 16) + dtS * vz, 16);
+  }
+}
+
+export function step(dtS: f64): void {
+  writeBodyForces();
+  accumulateSpringForces();
+  if (fluidEnabled && panelCount > 0) accumulateFluidDrag();
+  const f = forceN;
+  const nodes = handleNodes;
+  const hf = handleForceN;
+  const handles = handleCount;
+  for (let h: i32 = 0; h < handles; h++) {
+    const fo = f + xyz(load<u32>(nodes + (<usize>h << 2)));
+    const ho = hf + <usize>h * 24;
+    store<f64>(fo, load<f64>(fo) + load<f64>(ho));
+    store<f64>(fo, load<f64>(fo, 8) + load<f64>(ho, 8), 8);
+    store<f64>(fo, load<f64>(fo, 16) + load<f64>(ho, 16), 16);
+  }
+  if (groundEnabled) {
+    updateVelocities(dtS);
+    projectGroundContact(dtS);
+    updatePositions(dtS);
+  } else {
+    updateVelocitiesAndPositions(dtS);
+  }
+}
+
+/** Fixed-length steps with no control changes in between (the reference bench cases). */
+export function advanceSteps(dtS: f64, count: i32): void {
+  for (let s: i32 = 0; s < count; s++) step(dtS);
+}
+
+export function advanceInterval(intervalS: f64, substeps: i32): void {
+  const dtS = intervalS / <f64>substeps;
+  const x = positionM;
+  const driven = drivenCount;
+  if (driven > 0) {
+    for (let d: i32 = 0; d < driven; d++) {
+      const o = xyz(load<u32>(drivenNodes + (<usize>d << 2)));
+      const od = <usize>d * 24;
+      for (let k: usize = 0; k < 24; k += 8) {
+        const xk = load<f64>(x + o + k);
+        store<f64>(drivenStartM + od + k, xk);
+        store<f64>(drivenVelocityMPerS + od + k, (load<f64>(drivenTargetM + od + k) - xk) / intervalS);
+      }
+    }
+  }
+  for (let s: i32 = 0; s < substeps; s++) {
+    step(dtS);
+    if (driven > 0) placeDrivenNodes(<f64>(s + 1) / <f64>substeps);
+  }
+}
+
+export function placeDrivenNodes(fraction: f64): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const driven = drivenCount;
+  for (let d: i32 = 0; d < driven; d++) {
+    const o = xyz(load<u32>(drivenNodes + (<usize>d << 2)));
+    const od = <usize>d * 24;
+    for (let k: usize = 0; k < 24; k += 8) {
+      const start = load<f64>(drivenStartM + od + k);
+      store<f64>(x + o + k, start + fraction * (load<f64>(drivenTargetM + od + k) - start));
+      store<f64>(v + o + k, load<f64>(drivenVelocityMPerS + od + k));
+    }
+  }
+}
