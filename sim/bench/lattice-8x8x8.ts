@@ -5,6 +5,7 @@
 // friction act on its base. Fixed by definition; sub-steps come from the stability bound of
 // the built model (a deterministic function of it), so the checksum is reproducible.
 import { Simulator } from '../core/simulator.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import { defaultWorld } from '../core/world.ts';
 import type { World } from '../core/world.ts';
@@ -50,17 +51,26 @@ export interface LatticeRun {
   lowestYM: number;
 }
 
-/** Runs `intervals` control intervals (default: the case's two periods). */
-export function runLattice8x8x8(intervals = LATTICE_INTERVALS): LatticeRun {
+/** The case's sub-steps per control interval, from the stability bound of the built model. */
+export function latticeSubsteps(model: Model, world: World): number {
+  return autoSubsteps(LATTICE_CONTROL_INTERVAL_S, stabilityBound(model, world.airDragPerS));
+}
+
+/** The actuation of interval t: a zero-order hold of the sinusoid sampled at the interval's middle. */
+export function latticeControl(t: number): number {
+  return Math.sin(2 * Math.PI * LATTICE_ACTUATION_HZ * (t + 0.5) * LATTICE_CONTROL_INTERVAL_S);
+}
+
+/** Runs `intervals` control intervals (default: the case's two periods) with the given kernel (default js). */
+export function runLattice8x8x8(intervals = LATTICE_INTERVALS, kernel: StepKernel = 'js'): LatticeRun {
   const model = buildLattice8x8x8();
   const world = latticeWorld();
-  const substeps = autoSubsteps(LATTICE_CONTROL_INTERVAL_S, stabilityBound(model, world.airDragPerS));
-  const simulator = new Simulator(model, world);
+  const substeps = latticeSubsteps(model, world);
+  const simulator = new Simulator(model, world, { kernel });
   const controls = new Float64Array(model.controlChannelCount);
   const start = performance.now();
   for (let t = 0; t < intervals; t++) {
-    // Zero-order hold of the sinusoid sampled at the middle of each interval.
-    controls[0] = Math.sin(2 * Math.PI * LATTICE_ACTUATION_HZ * (t + 0.5) * LATTICE_CONTROL_INTERVAL_S);
+    controls[0] = latticeControl(t);
     simulator.setControls(controls);
     simulator.advanceInterval(LATTICE_CONTROL_INTERVAL_S, substeps);
   }
@@ -75,9 +85,11 @@ export function runLattice8x8x8(intervals = LATTICE_INTERVALS): LatticeRun {
 
 export const lattice8x8x8Case: BenchmarkCase = {
   name: 'lattice-8x8x8',
-  async run() {
-    const run = runLattice8x8x8();
+  async run(options = {}) {
+    const kernel = options.kernel ?? 'js';
+    const run = runLattice8x8x8(LATTICE_INTERVALS, kernel);
     return {
+      kernel,
       spring_updates_per_s: Math.round((run.springs * run.steps) / run.seconds),
       seconds: Number(run.seconds.toFixed(4)),
       nodes: run.nodes,
