@@ -57,18 +57,23 @@ describe('WebAssembly bench lines', () => {
     const line = await lattice8x8x8WasmVsNativeCase.run();
     expect(line.same_checksum).toBe('yes');
     expect(line.statistic).toBe('median');
-    for (const key of ['js_spring_updates_per_s', 'wasm_spring_updates_per_s', 'wasm_over_js']) expect(line[key] as number).toBeGreaterThan(0);
+    for (const key of ['js_spring_updates_per_s', 'wasm_spring_updates_per_s', 'wasm_over_js', 'cpu_wasm_over_js']) expect(line[key] as number).toBeGreaterThan(0);
     if (line.native_skipped === undefined) {
-      for (const key of ['native_spring_updates_per_s', 'wasm_over_native', 'js_over_native']) expect(line[key] as number).toBeGreaterThan(0);
+      for (const key of ['native_spring_updates_per_s', 'wasm_over_native', 'js_over_native', 'cpu_wasm_over_native']) expect(line[key] as number).toBeGreaterThan(0);
     }
   });
 
   it('the alternating comparison takes medians per build and ratios of the medians (arithmetic, no source needed)', () => {
     const rates = { a: [3, 1, 2], b: [10, 30, 20] };
     const calls = { a: 0, b: 0 };
-    const build = (name: 'a' | 'b', checksum: number) => ({ name, run: () => ({ springUpdatesPerS: rates[name][calls[name]++], checksum }) });
+    // Each run: 1 s of wall time, of which the process had the CPU for 0.5 s (a) or 0.25 s (b).
+    const build = (name: 'a' | 'b', checksum: number) => ({ name, run: () => ({ springUpdatesPerS: rates[name][calls[name]++], seconds: 1, cpuSeconds: name === 'a' ? 0.5 : 0.25, checksum }) });
     const line = compareAlternately([build('a', 1), build('b', 1)], [['a', 'b']], 3);
-    expect(line).toEqual({ a_spring_updates_per_s: 2, b_spring_updates_per_s: 20, a_over_b: 0.1, runs: 3, statistic: 'median', same_checksum: 'yes' });
+    expect(line).toEqual({
+      a_spring_updates_per_s: 2, b_spring_updates_per_s: 20, a_over_b: 0.1,
+      a_cpu_spring_updates_per_s: 4, b_cpu_spring_updates_per_s: 80, cpu_a_over_b: 0.05,
+      runs: 3, statistic: 'median', same_checksum: 'yes',
+    });
     calls.a = 0;
     calls.b = 0;
     expect(compareAlternately([build('a', 1), build('b', 2)], [], 3).same_checksum).toBe('no');

@@ -30,15 +30,26 @@ export function buildChain1024(): Model {
 }
 
 /** Runs the case with the given kernel (default js) and returns the checksum and timing. */
-export function runChain1024(kernel: StepKernel = 'js'): { checksum: number; seconds: number; springUpdates: number } {
+export function runChain1024(kernel: StepKernel = 'js'): { checksum: number; seconds: number; cpuSeconds: number; springUpdates: number } {
   const model = buildChain1024();
   const simulator = new Simulator(model, defaultWorld(), { kernel });
+  const cpuStart = process.cpuUsage();
   const start = performance.now();
   simulator.advanceSteps(CHAIN_1024_DT_S, CHAIN_1024_STEPS);
   const seconds = (performance.now() - start) / 1000;
+  const cpuSeconds = cpuSecondsSince(cpuStart);
   let checksum = 0;
   for (let i = 0; i < model.positionM.length; i++) checksum += model.positionM[i];
-  return { checksum, seconds, springUpdates: model.springCount * CHAIN_1024_STEPS };
+  return { checksum, seconds, cpuSeconds, springUpdates: model.springCount * CHAIN_1024_STEPS };
+}
+
+/**
+ * CPU seconds of this process (user + system, all its threads) since `start`. On a shared
+ * machine wall time includes the time other work held the core; CPU time does not.
+ */
+export function cpuSecondsSince(start: NodeJS.CpuUsage): number {
+  const used = process.cpuUsage(start);
+  return (used.user + used.system) / 1e6;
 }
 
 export const chain1024Case: BenchmarkCase = {

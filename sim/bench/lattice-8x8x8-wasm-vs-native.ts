@@ -1,7 +1,8 @@
 // lattice-8x8x8-wasm-vs-native: the lattice-8x8x8 case run by the JavaScript kernel, the
 // WebAssembly kernel and the C build of the same lattice kernel (native/lattice_kernel.c, the
-// flags of the chain kernel) alternately, five times each; medians and their ratios. Without
-// gcc the line carries the JavaScript and WebAssembly throughputs and the reason.
+// flags of the chain kernel) alternately, five times each; medians and their ratios, per wall
+// and per CPU second (alternating-comparison.ts). Without gcc the line carries the JavaScript
+// and WebAssembly throughputs and the reason.
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { compareAlternately } from './alternating-comparison.ts';
 import type { ComparedBuild } from './alternating-comparison.ts';
@@ -14,7 +15,7 @@ function kernelBuild(kernel: 'js' | 'wasm'): ComparedBuild {
     name: kernel,
     run() {
       const r = runLattice8x8x8(LATTICE_INTERVALS, kernel);
-      return { springUpdatesPerS: (r.springs * r.steps) / r.seconds, checksum: r.checksum };
+      return { springUpdatesPerS: (r.springs * r.steps) / r.seconds, seconds: r.seconds, cpuSeconds: r.cpuSeconds, checksum: r.checksum };
     },
   };
 }

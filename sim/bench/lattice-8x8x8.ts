@@ -13,6 +13,7 @@ import { buildLattice } from '../systems/lattice.ts';
 import type { LatticeMaterial, MaterialMap3D } from '../systems/lattice.ts';
 import type { Model } from '../core/model.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';
+import { cpuSecondsSince } from './chain-1024.ts';
 
 export const LATTICE_CELLS_PER_SIDE = 8;
 export const LATTICE_CELL_M = 0.01;
@@ -46,6 +47,8 @@ export interface LatticeRun {
   steps: number;
   dtS: number;
   seconds: number;
+  /** CPU seconds of the process over the run (see cpuSecondsSince). */
+  cpuSeconds: number;
   checksum: number;
   /** Lowest node height at the end, m (the ground plane is at 0). */
   lowestYM: number;
@@ -68,6 +71,7 @@ export function runLattice8x8x8(intervals = LATTICE_INTERVALS, kernel: StepKerne
   const substeps = latticeSubsteps(model, world);
   const simulator = new Simulator(model, world, { kernel });
   const controls = new Float64Array(model.controlChannelCount);
+  const cpuStart = process.cpuUsage();
   const start = performance.now();
   for (let t = 0; t < intervals; t++) {
     controls[0] = latticeControl(t);
@@ -75,12 +79,13 @@ export function runLattice8x8x8(intervals = LATTICE_INTERVALS, kernel: StepKerne
     simulator.advanceInterval(LATTICE_CONTROL_INTERVAL_S, substeps);
   }
   const seconds = (performance.now() - start) / 1000;
+  const cpuSeconds = cpuSecondsSince(cpuStart);
   let checksum = 0;
   let lowestYM = Infinity;
   const x = model.positionM;
   for (let i = 0; i < x.length; i++) checksum += x[i];
   for (let i = 1; i < x.length; i += 3) lowestYM = Math.min(lowestYM, x[i]);
-  return { nodes: model.nodeCount, springs: model.springCount, steps: intervals * substeps, dtS: LATTICE_CONTROL_INTERVAL_S / substeps, seconds, checksum, lowestYM };
+  return { nodes: model.nodeCount, springs: model.springCount, steps: intervals * substeps, dtS: LATTICE_CONTROL_INTERVAL_S / substeps, seconds, cpuSeconds, checksum, lowestYM };
 }
 
 export const lattice8x8x8Case: BenchmarkCase = {

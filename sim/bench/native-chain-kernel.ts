@@ -20,6 +20,8 @@ const SOURCE_PATH = fileURLToPath(new URL('./native/chain_kernel.c', import.meta
 export interface NativeRun {
   springUpdatesPerS: number;
   seconds: number;
+  /** CPU seconds of the C process over the run. */
+  cpuSeconds: number;
   checksum: number;
 }
 
@@ -57,8 +59,13 @@ export function runNativeChainKernel(binaryPath: string, steps: number): NativeR
   if (run.status !== 0) {
     throw new Error(`the C build of chain-1024 (${binaryPath}) exited with ${run.status}: ${run.stderr.trim()}`);
   }
-  const line = JSON.parse(run.stdout) as { spring_updates_per_s: number; seconds: number; checksum: number };
-  return { springUpdatesPerS: line.spring_updates_per_s, seconds: line.seconds, checksum: line.checksum };
+  return parseNativeLine(run.stdout);
+}
+
+/** The one JSON line a C kernel prints. */
+export function parseNativeLine(stdout: string): NativeRun {
+  const line = JSON.parse(stdout) as { spring_updates_per_s: number; seconds: number; cpu_seconds: number; checksum: number };
+  return { springUpdatesPerS: line.spring_updates_per_s, seconds: line.seconds, cpuSeconds: line.cpu_seconds, checksum: line.checksum };
 }
 
 export type BenchLine = Record<string, number | string>;

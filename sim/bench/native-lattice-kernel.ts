@@ -6,7 +6,7 @@ import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { buildNativeKernel, withNativeKernel } from './native-chain-kernel.ts';
+import { buildNativeKernel, parseNativeLine, withNativeKernel } from './native-chain-kernel.ts';
 import type { BenchLine, NativeRun } from './native-chain-kernel.ts';
 import { buildLattice8x8x8, latticeControl, latticeSubsteps, latticeWorld, LATTICE_CONTROL_INTERVAL_S } from './lattice-8x8x8.ts';
 
@@ -48,8 +48,7 @@ export function latticeModelFile(intervals: number): Uint8Array {
 export function runNativeLatticeKernel(binaryPath: string, modelPath: string): NativeRun {
   const run = spawnSync(binaryPath, [modelPath], { encoding: 'utf8' });
   if (run.status !== 0) throw new Error(`the C build of lattice-8x8x8 (${binaryPath}) exited with ${run.status}: ${run.stderr.trim()}`);
-  const line = JSON.parse(run.stdout) as { spring_updates_per_s: number; seconds: number; checksum: number };
-  return { springUpdatesPerS: line.spring_updates_per_s, seconds: line.seconds, checksum: line.checksum };
+  return parseNativeLine(run.stdout);
 }
 
 /** Builds the C kernel and the model file, hands both paths to `measure`, removes them again. */

@@ -61,8 +61,13 @@ export class WasmStepper {
     f64(at.m, n).set(model.massKg);
     f64(at.invM, n).set(model.inverseMassPerKg);
     f64(at.volume, n).set(model.nodeVolumeM3);
-    u32(at.a, s).set(model.springNodeA);
-    u32(at.b, s).set(model.springNodeB);
+    // The kernel reads spring ends as byte offsets of the nodes' xyz triples.
+    const endA = u32(at.a, s);
+    const endB = u32(at.b, s);
+    for (let i = 0; i < s; i++) {
+      endA[i] = 24 * model.springNodeA[i];
+      endB[i] = 24 * model.springNodeB[i];
+    }
     this.restLengthM.set(model.restLengthM);
     f64(at.k, s).set(model.stiffnessNPerM);
     f64(at.c, s).set(model.dampingNsPerM);
