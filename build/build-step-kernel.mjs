@@ -18,7 +18,7 @@ const GENERATED_NAME = 'step-kernel-bytes.ts';
 
 // Scalar f64 code, speed-optimised; no runtime beyond the stub (the kernel allocates nothing),
 // no assertions, no abort import; the host provides the memory, sized once for the model.
-export const KERNEL_FLAGS = ['-O3', '--noAssert', '--runtime', 'stub', '--importMemory', '--use', 'abort=', '--noColors'];
+export const KERNEL_FLAGS = ['-O3', '--enable', 'simd', '--noAssert', '--runtime', 'stub', '--importMemory', '--use', 'abort=', '--noColors'];
 
 function compilerVersion() {
   return JSON.parse(readFileSync(join(ROOT, 'node_modules/assemblyscript/package.json'), 'utf8')).version;

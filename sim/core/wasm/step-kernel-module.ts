@@ -16,7 +16,7 @@ export interface WasmMemoryLike {
 /** The exports of the kernel (sim/core/wasm/assembly/step-kernel.ts); offsets are bytes. */
 export interface StepKernelExports {
   setNodeLayout(count: number, x: number, v: number, m: number, invM: number, volume: number, f: number): void;
-  setSpringLayout(count: number, a: number, b: number, rest: number, k: number, c: number): void;
+  setSpringLayout(count: number, table: number): void;
   setPanelLayout(count: number, nodesPerPanel: number, nodes: number, widthM: number): void;
   setHandleLayout(count: number, nodes: number, forces: number): void;
   setDrivenLayout(count: number, nodes: number, start: number, target: number, velocity: number): void;

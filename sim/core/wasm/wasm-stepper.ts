@@ -29,7 +29,8 @@ export class WasmStepper {
   readonly drivenTargetM: Float64Array;
   private readonly positionM: Float64Array;
   private readonly velocityMPerS: Float64Array;
-  private readonly restLengthM: Float64Array;
+  /** The spring table as doubles: rest length at 4s + 1, stiffness 4s + 2, damping 4s + 3. */
+  private readonly springTable: Float64Array;
   private readonly kernel: StepKernelExports;
 
   constructor(private readonly model: Model) {
@@ -41,7 +42,7 @@ export class WasmStepper {
     const plan = new MemoryPlan();
     const at = {
       x: plan.take(8 * n3), v: plan.take(8 * n3), m: plan.take(8 * n), invM: plan.take(8 * n), volume: plan.take(8 * n), f: plan.take(8 * n3),
-      a: plan.take(4 * s), b: plan.take(4 * s), rest: plan.take(8 * s), k: plan.take(8 * s), c: plan.take(8 * s),
+      springs: plan.take(32 * s),
       panels: plan.take(4 * model.panelNodes.length),
       handles: plan.take(4 * handles), handleForce: plan.take(8 * 3 * handles),
       driven: plan.take(4 * driven), drivenStart: plan.take(8 * 3 * driven), drivenTarget: plan.take(8 * 3 * driven), drivenVelocity: plan.take(8 * 3 * driven),
@@ -55,28 +56,27 @@ export class WasmStepper {
     this.positionM = f64(at.x, n3);
     this.velocityMPerS = f64(at.v, n3);
     this.forceN = f64(at.f, n3);
-    this.restLengthM = f64(at.rest, s);
+    this.springTable = f64(at.springs, 4 * s);
     this.handleForceN = f64(at.handleForce, 3 * handles);
     this.drivenTargetM = f64(at.drivenTarget, 3 * driven);
     f64(at.m, n).set(model.massKg);
     f64(at.invM, n).set(model.inverseMassPerKg);
     f64(at.volume, n).set(model.nodeVolumeM3);
-    // The kernel reads spring ends as byte offsets of the nodes' xyz triples.
-    const endA = u32(at.a, s);
-    const endB = u32(at.b, s);
+    // Spring records (layout in the kernel source): ends as byte offsets of the nodes' triples.
+    const ends = u32(at.springs, 8 * s);
     for (let i = 0; i < s; i++) {
-      endA[i] = 24 * model.springNodeA[i];
-      endB[i] = 24 * model.springNodeB[i];
+      ends[8 * i] = 24 * model.springNodeA[i];
+      ends[8 * i + 1] = 24 * model.springNodeB[i];
+      this.springTable[4 * i + 2] = model.stiffnessNPerM[i];
+      this.springTable[4 * i + 3] = model.dampingNsPerM[i];
     }
-    this.restLengthM.set(model.restLengthM);
-    f64(at.k, s).set(model.stiffnessNPerM);
-    f64(at.c, s).set(model.dampingNsPerM);
+    this.syncRestLengths();
     u32(at.panels, model.panelNodes.length).set(model.panelNodes);
     u32(at.handles, handles).set(model.handleNodes);
     u32(at.driven, driven).set(model.drivenNodes);
     this.drivenTargetM.set(model.drivenOriginM);
     kernel.setNodeLayout(n, at.x, at.v, at.m, at.invM, at.volume, at.f);
-    kernel.setSpringLayout(s, at.a, at.b, at.rest, at.k, at.c);
+    kernel.setSpringLayout(s, at.springs);
     kernel.setPanelLayout(model.panelCount, model.panelNodeCount, at.panels, model.panelWidthM);
     kernel.setHandleLayout(handles, at.handles, at.handleForce);
     kernel.setDrivenLayout(driven, at.driven, at.drivenStart, at.drivenTarget, at.drivenVelocity);
@@ -84,7 +84,9 @@ export class WasmStepper {
 
   /** After the actuation has rewritten the model's rest lengths. */
   syncRestLengths(): void {
-    this.restLengthM.set(this.model.restLengthM);
+    const rest = this.model.restLengthM;
+    const table = this.springTable;
+    for (let i = 0; i < rest.length; i++) table[4 * i + 1] = rest[i];
   }
 
   step(dtS: number, world: World): void {

@@ -25,7 +25,7 @@
 // arrays out in it and passes their byte offsets once through the set*Layout functions. Every
 // index below is a byte offset; a node's xyz doubles sit at 24·node. The springs' end nodes are
 // stored as those byte offsets (24·node, written by the host) rather than node indices, which
-// saves two multiplications per spring in the hottest loop and changes no arithmetic.
+// saves two multiplications per spring in the hottest loop; layout changes no arithmetic.
 
 // Node arrays.
 let nodeCount: i32 = 0;
@@ -35,13 +35,11 @@ let massKg: usize = 0;
 let inverseMassPerKg: usize = 0;
 let nodeVolumeM3: usize = 0;
 let forceN: usize = 0;
-// Springs; end nodes as byte offsets 24·node.
+// Springs: one 32-byte record each, {u32 24·nodeA, u32 24·nodeB, f64 rest length m,
+// f64 stiffness N/m, f64 damping N·s/m}, so a spring's data is one cache line's worth of
+// neighbours instead of five streams.
 let springCount: i32 = 0;
-let springNodeA: usize = 0;
-let springNodeB: usize = 0;
-let restLengthM: usize = 0;
-let stiffnessNPerM: usize = 0;
-let dampingNsPerM: usize = 0;
+let springTable: usize = 0;
 // Fluid panels.
 let panelCount: i32 = 0;
 let panelNodeCount: i32 = 0;
@@ -83,13 +81,9 @@ export function setNodeLayout(count: i32, x: usize, v: usize, m: usize, invM: us
   forceN = f;
 }
 
-export function setSpringLayout(count: i32, a: usize, b: usize, rest: usize, k: usize, c: usize): void {
+export function setSpringLayout(count: i32, table: usize): void {
   springCount = count;
-  springNodeA = a;
-  springNodeB = b;
-  restLengthM = rest;
-  stiffnessNPerM = k;
-  dampingNsPerM = c;
+  springTable = table;
 }
 
 export function setPanelLayout(count: i32, nodesPerPanel: i32, nodes: usize, widthM: f64): void {
@@ -148,8 +142,7 @@ export function writeBodyForces(): void {
   const v = velocityMPerS;
   const volume = nodeVolumeM3;
   const f = forceN;
-  const gx = gravityX;
-  const gy = gravityY;
+  const gxy = f64x2(gravityX, gravityY);
   const gz = gravityZ;
   const drag = airDragPerS;
   const buoyantDensity = buoyantDensityKgPerM3;
@@ -159,16 +152,14 @@ export function writeBodyForces(): void {
     const fo = f + o;
     const mi = load<f64>(m + (<usize>i << 3));
     if (load<f64>(invM + (<usize>i << 3)) == 0) {
-      store<f64>(fo, 0, 0);
-      store<f64>(fo, 0, 8);
+      v128.store(fo, f64x2.splat(0));
       store<f64>(fo, 0, 16);
       continue;
     }
     const weightMass = mi - buoyantDensity * load<f64>(volume + (<usize>i << 3));
     const dragMass = mi * drag;
     const vo = v + o;
-    store<f64>(fo, weightMass * gx - dragMass * load<f64>(vo), 0);
-    store<f64>(fo, weightMass * gy - dragMass * load<f64>(vo, 8), 8);
+    v128.store(fo, f64x2.sub(f64x2.mul(f64x2.splat(weightMass), gxy), f64x2.mul(f64x2.splat(dragMass), v128.load(vo))));
     store<f64>(fo, weightMass * gz - dragMass * load<f64>(vo, 16), 16);
   }
 }
@@ -176,43 +167,35 @@ export function writeBodyForces(): void {
 export function accumulateSpringForces(): void {
   const x = positionM;
   const v = velocityMPerS;
-  const a = springNodeA;
-  const b = springNodeB;
-  const rest = restLengthM;
-  const k = stiffnessNPerM;
-  const c = dampingNsPerM;
   const f = forceN;
-  const count = springCount;
-  for (let s: i32 = 0; s < count; s++) {
-    const s4 = <usize>s << 2;
-    const s8 = <usize>s << 3;
-    const ia = <usize>load<u32>(a + s4);
-    const ib = <usize>load<u32>(b + s4);
+  const end = springTable + (<usize>springCount << 5);
+  for (let sp = springTable; sp < end; sp += 32) {
+    const ia = <usize>load<u32>(sp);
+    const ib = <usize>load<u32>(sp, 4);
     const xa = x + ia;
     const xb = x + ib;
-    const dx = load<f64>(xb) - load<f64>(xa);
-    const dy = load<f64>(xb, 8) - load<f64>(xa, 8);
+    // x and y in the two lanes of one f64x2, z alone: lane-wise the same IEEE operations, and
+    // every sum across lanes is taken in the scalar order (x + y) + z.
+    const dxy = f64x2.sub(v128.load(xb), v128.load(xa));
     const dz = load<f64>(xb, 16) - load<f64>(xa, 16);
-    const length = sqrt<f64>(dx * dx + dy * dy + dz * dz);
+    const dxy2 = f64x2.mul(dxy, dxy);
+    const length = sqrt<f64>(f64x2.extract_lane(dxy2, 0) + f64x2.extract_lane(dxy2, 1) + dz * dz);
     if (length == 0) continue;
     const inv = 1 / length;
-    const nx = dx * inv;
-    const ny = dy * inv;
+    const nxy = f64x2.mul(dxy, f64x2.splat(inv));
     const nz = dz * inv;
     const va = v + ia;
     const vb = v + ib;
-    const dvn = (load<f64>(vb) - load<f64>(va)) * nx + (load<f64>(vb, 8) - load<f64>(va, 8)) * ny + (load<f64>(vb, 16) - load<f64>(va, 16)) * nz;
-    const force = load<f64>(k + s8) * (length - load<f64>(rest + s8)) + load<f64>(c + s8) * dvn;
-    const fx = force * nx;
-    const fy = force * ny;
+    const dvxy = f64x2.mul(f64x2.sub(v128.load(vb), v128.load(va)), nxy);
+    const dvn = f64x2.extract_lane(dvxy, 0) + f64x2.extract_lane(dvxy, 1) + (load<f64>(vb, 16) - load<f64>(va, 16)) * nz;
+    const force = load<f64>(sp, 16) * (length - load<f64>(sp, 8)) + load<f64>(sp, 24) * dvn;
+    const fxy = f64x2.mul(f64x2.splat(force), nxy);
     const fz = force * nz;
     const fa = f + ia;
     const fb = f + ib;
-    store<f64>(fa, load<f64>(fa) + fx);
-    store<f64>(fa, load<f64>(fa, 8) + fy, 8);
+    v128.store(fa, f64x2.add(v128.load(fa), fxy));
     store<f64>(fa, load<f64>(fa, 16) + fz, 16);
-    store<f64>(fb, load<f64>(fb) - fx);
-    store<f64>(fb, load<f64>(fb, 8) - fy, 8);
+    v128.store(fb, f64x2.sub(v128.load(fb), fxy));
     store<f64>(fb, load<f64>(fb, 16) - fz, 16);
   }
 }
@@ -383,8 +366,7 @@ export function updateVelocities(dtS: f64): void {
     const o = xyz(<u32>i);
     const vo = v + o;
     const fo = f + o;
-    store<f64>(vo, load<f64>(vo) + w * load<f64>(fo));
-    store<f64>(vo, load<f64>(vo, 8) + w * load<f64>(fo, 8), 8);
+    v128.store(vo, f64x2.add(v128.load(vo), f64x2.mul(f64x2.splat(w), v128.load(fo))));
     store<f64>(vo, load<f64>(vo, 16) + w * load<f64>(fo, 16), 16);
   }
 }
@@ -393,14 +375,14 @@ export function updatePositions(dtS: f64): void {
   const x = positionM;
   const v = velocityMPerS;
   const invM = inverseMassPerKg;
+  const dt2 = f64x2.splat(dtS);
   const n = nodeCount;
   for (let i: i32 = 0; i < n; i++) {
     if (load<f64>(invM + (<usize>i << 3)) == 0) continue;
     const o = xyz(<u32>i);
     const xo = x + o;
     const vo = v + o;
-    store<f64>(xo, load<f64>(xo) + dtS * load<f64>(vo));
-    store<f64>(xo, load<f64>(xo, 8) + dtS * load<f64>(vo, 8), 8);
+    v128.store(xo, f64x2.add(v128.load(xo), f64x2.mul(dt2, v128.load(vo))));
     store<f64>(xo, load<f64>(xo, 16) + dtS * load<f64>(vo, 16), 16);
   }
 }
@@ -410,6 +392,7 @@ export function updateVelocitiesAndPositions(dtS: f64): void {
   const v = velocityMPerS;
   const invM = inverseMassPerKg;
   const f = forceN;
+  const dt2 = f64x2.splat(dtS);
   const n = nodeCount;
   for (let i: i32 = 0; i < n; i++) {
     const im = load<f64>(invM + (<usize>i << 3));
@@ -417,16 +400,13 @@ export function updateVelocitiesAndPositions(dtS: f64): void {
     const o = xyz(<u32>i);
     const vo = v + o;
     const fo = f + o;
-    const vx = load<f64>(vo) + w * load<f64>(fo);
-    const vy = load<f64>(vo, 8) + w * load<f64>(fo, 8);
+    const vxy = f64x2.add(v128.load(vo), f64x2.mul(f64x2.splat(w), v128.load(fo)));
     const vz = load<f64>(vo, 16) + w * load<f64>(fo, 16);
-    store<f64>(vo, vx);
-    store<f64>(vo, vy, 8);
+    v128.store(vo, vxy);
     store<f64>(vo, vz, 16);
     if (im == 0) continue;
     const xo = x + o;
-    store<f64>(xo, load<f64>(xo) + dtS * vx);
-    store<f64>(xo, load<f64>(xo, 8) + dtS * vy, 8);
+    v128.store(xo, f64x2.add(v128.load(xo), f64x2.mul(dt2, vxy)));
     store<f64>(xo, load<f64>(xo, 16) + dtS * vz, 16);
   }
 }
