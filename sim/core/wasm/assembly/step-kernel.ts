@@ -168,36 +168,97 @@ export function accumulateSpringForces(): void {
   const x = positionM;
   const v = velocityMPerS;
   const f = forceN;
-  const end = springTable + (<usize>springCount << 5);
-  for (let sp = springTable; sp < end; sp += 32) {
-    const ia = <usize>load<u32>(sp);
-    const ib = <usize>load<u32>(sp, 4);
-    const xa = x + ia;
-    const xb = x + ib;
-    // x and y in the two lanes of one f64x2, z alone: lane-wise the same IEEE operations, and
-    // every sum across lanes is taken in the scalar order (x + y) + z.
-    const dxy = f64x2.sub(v128.load(xb), v128.load(xa));
-    const dz = load<f64>(xb, 16) - load<f64>(xa, 16);
-    const dxy2 = f64x2.mul(dxy, dxy);
-    const length = sqrt<f64>(f64x2.extract_lane(dxy2, 0) + f64x2.extract_lane(dxy2, 1) + dz * dz);
-    if (length == 0) continue;
-    const inv = 1 / length;
-    const nxy = f64x2.mul(dxy, f64x2.splat(inv));
-    const nz = dz * inv;
-    const va = v + ia;
-    const vb = v + ib;
-    const dvxy = f64x2.mul(f64x2.sub(v128.load(vb), v128.load(va)), nxy);
-    const dvn = f64x2.extract_lane(dvxy, 0) + f64x2.extract_lane(dvxy, 1) + (load<f64>(vb, 16) - load<f64>(va, 16)) * nz;
-    const force = load<f64>(sp, 16) * (length - load<f64>(sp, 8)) + load<f64>(sp, 24) * dvn;
-    const fxy = f64x2.mul(f64x2.splat(force), nxy);
-    const fz = force * nz;
-    const fa = f + ia;
-    const fb = f + ib;
-    v128.store(fa, f64x2.add(v128.load(fa), fxy));
-    store<f64>(fa, load<f64>(fa, 16) + fz, 16);
-    v128.store(fb, f64x2.sub(v128.load(fb), fxy));
-    store<f64>(fb, load<f64>(fb, 16) - fz, 16);
+  const count = springCount;
+  const pairsEnd = springTable + (<usize>(count & ~1) << 5);
+  let sp = springTable;
+  // Two springs at a time, one per f64x2 lane: each lane performs exactly the scalar operations
+  // of its spring, and the forces are then added in spring order, so every node's sum is taken
+  // in the order of the JavaScript loop. A pair with a zero-length spring goes the scalar way.
+  for (; sp < pairsEnd; sp += 64) {
+    const xa0 = x + <usize>load<u32>(sp);
+    const xb0 = x + <usize>load<u32>(sp, 4);
+    const xa1 = x + <usize>load<u32>(sp, 32);
+    const xb1 = x + <usize>load<u32>(sp, 36);
+    const dx = f64x2.sub(lanes(xb0, xb1, 0), lanes(xa0, xa1, 0));
+    const dy = f64x2.sub(lanes(xb0, xb1, 8), lanes(xa0, xa1, 8));
+    const dz = f64x2.sub(lanes(xb0, xb1, 16), lanes(xa0, xa1, 16));
+    const length = f64x2.sqrt(f64x2.add(f64x2.add(f64x2.mul(dx, dx), f64x2.mul(dy, dy)), f64x2.mul(dz, dz)));
+    if (f64x2.extract_lane(length, 0) == 0 || f64x2.extract_lane(length, 1) == 0) {
+      accumulateOneSpring(sp, x, v, f);
+      accumulateOneSpring(sp + 32, x, v, f);
+      continue;
+    }
+    const inv = f64x2.div(f64x2.splat(1), length);
+    const nx = f64x2.mul(dx, inv);
+    const ny = f64x2.mul(dy, inv);
+    const nz = f64x2.mul(dz, inv);
+    const va0 = v + (xa0 - x);
+    const vb0 = v + (xb0 - x);
+    const va1 = v + (xa1 - x);
+    const vb1 = v + (xb1 - x);
+    const dvn = f64x2.add(f64x2.add(
+      f64x2.mul(f64x2.sub(lanes(vb0, vb1, 0), lanes(va0, va1, 0)), nx),
+      f64x2.mul(f64x2.sub(lanes(vb0, vb1, 8), lanes(va0, va1, 8)), ny)),
+      f64x2.mul(f64x2.sub(lanes(vb0, vb1, 16), lanes(va0, va1, 16)), nz));
+    const rest = lanes(sp, sp + 32, 8);
+    const k = lanes(sp, sp + 32, 16);
+    const c = lanes(sp, sp + 32, 24);
+    const force = f64x2.add(f64x2.mul(k, f64x2.sub(length, rest)), f64x2.mul(c, dvn));
+    const fx = f64x2.mul(force, nx);
+    const fy = f64x2.mul(force, ny);
+    const fz = f64x2.mul(force, nz);
+    const fxy0 = v128.shuffle<f64>(fx, fy, 0, 2);
+    const fxy1 = v128.shuffle<f64>(fx, fy, 1, 3);
+    const fa0 = f + (xa0 - x);
+    const fb0 = f + (xb0 - x);
+    v128.store(fa0, f64x2.add(v128.load(fa0), fxy0));
+    store<f64>(fa0, load<f64>(fa0, 16) + f64x2.extract_lane(fz, 0), 16);
+    v128.store(fb0, f64x2.sub(v128.load(fb0), fxy0));
+    store<f64>(fb0, load<f64>(fb0, 16) - f64x2.extract_lane(fz, 0), 16);
+    const fa1 = f + (xa1 - x);
+    const fb1 = f + (xb1 - x);
+    v128.store(fa1, f64x2.add(v128.load(fa1), fxy1));
+    store<f64>(fa1, load<f64>(fa1, 16) + f64x2.extract_lane(fz, 1), 16);
+    v128.store(fb1, f64x2.sub(v128.load(fb1), fxy1));
+    store<f64>(fb1, load<f64>(fb1, 16) - f64x2.extract_lane(fz, 1), 16);
   }
+  if (count & 1) accumulateOneSpring(sp, x, v, f);
+}
+
+/** The doubles at p0 + offset and p1 + offset as the two lanes of one f64x2. */
+// @ts-ignore: decorator
+@inline function lanes(p0: usize, p1: usize, offset: usize): v128 {
+  return f64x2.replace_lane(f64x2.splat(load<f64>(p0 + offset)), 1, load<f64>(p1 + offset));
+}
+
+/** One spring of accumulateSpringForces, the x and y lanes in one f64x2 and z alone. */
+// @ts-ignore: decorator
+@inline function accumulateOneSpring(sp: usize, x: usize, v: usize, f: usize): void {
+  const ia = <usize>load<u32>(sp);
+  const ib = <usize>load<u32>(sp, 4);
+  const xa = x + ia;
+  const xb = x + ib;
+  const dxy = f64x2.sub(v128.load(xb), v128.load(xa));
+  const dz = load<f64>(xb, 16) - load<f64>(xa, 16);
+  const dxy2 = f64x2.mul(dxy, dxy);
+  const length = sqrt<f64>(f64x2.extract_lane(dxy2, 0) + f64x2.extract_lane(dxy2, 1) + dz * dz);
+  if (length == 0) return;
+  const inv = 1 / length;
+  const nxy = f64x2.mul(dxy, f64x2.splat(inv));
+  const nz = dz * inv;
+  const va = v + ia;
+  const vb = v + ib;
+  const dvxy = f64x2.mul(f64x2.sub(v128.load(vb), v128.load(va)), nxy);
+  const dvn = f64x2.extract_lane(dvxy, 0) + f64x2.extract_lane(dvxy, 1) + (load<f64>(vb, 16) - load<f64>(va, 16)) * nz;
+  const force = load<f64>(sp, 16) * (length - load<f64>(sp, 8)) + load<f64>(sp, 24) * dvn;
+  const fxy = f64x2.mul(f64x2.splat(force), nxy);
+  const fz = force * nz;
+  const fa = f + ia;
+  const fb = f + ib;
+  v128.store(fa, f64x2.add(v128.load(fa), fxy));
+  store<f64>(fa, load<f64>(fa, 16) + fz, 16);
+  v128.store(fb, f64x2.sub(v128.load(fb), fxy));
+  store<f64>(fb, load<f64>(fb, 16) - fz, 16);
 }
 
 export function accumulateFluidDrag(): void {
