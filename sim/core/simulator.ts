@@ -4,7 +4,9 @@
 // actuators; driven nodes move linearly to their new target over the interval) and then
 // advances a number of equal sub-steps. All buffers are allocated in the constructor.
 // The step runs in JavaScript (below, the specification) or in its WebAssembly build
-// (wasm/wasm-stepper.ts), chosen once per Simulator; both give the same bits.
+// (wasm/wasm-stepper.ts), chosen once per Simulator; both give the same bits. WebAssembly runs
+// only where it implements every pass this model and world need (wasm/wasm-kernel-coverage.ts):
+// a pass added here must be registered there, or the kernel stands aside for everything.
 import type { Model } from './model.ts';
 import type { World } from './world.ts';
 import { writeBodyForces } from './body-forces.ts';
@@ -16,9 +18,14 @@ import { applyActuation, writeDrivenTargets, writeHandleForces } from './control
 import { resolveStepKernel } from './step-kernel-choice.ts';
 import type { StepKernel } from './step-kernel-choice.ts';
 import { WasmStepper } from './wasm/wasm-stepper.ts';
+import { wasmKernelCoverage } from './wasm/wasm-kernel-coverage.ts';
 
 export interface SimulatorOptions {
-  /** Default: 'wasm' where WebAssembly can run, else 'js'. Never changes a result. */
+  /**
+   * Default: 'wasm' where WebAssembly can run, else 'js'. 'wasm' is a preference: where the
+   * WebAssembly kernel lacks a pass this model or world needs, the JavaScript kernel runs
+   * (see kernelFallbackReason). Never changes a result.
+   */
   kernel?: StepKernel;
 }
 
@@ -30,11 +37,16 @@ export class Simulator {
   private readonly drivenVelocityMPerS: Float64Array;
   /** The kernel this simulator steps with. */
   readonly kernel: StepKernel;
+  /** Why WebAssembly was preferred but JavaScript runs; null otherwise. */
+  readonly kernelFallbackReason: string | null;
   private readonly wasm: WasmStepper | null;
   timeS = 0;
 
   constructor(readonly model: Model, readonly world: World, options: SimulatorOptions = {}) {
-    this.kernel = resolveStepKernel(options.kernel);
+    const preferred = resolveStepKernel(options.kernel);
+    const coverage = preferred === 'wasm' ? wasmKernelCoverage(model, world, options as Readonly<Record<string, unknown>>) : null;
+    this.kernel = coverage === null || coverage.ok ? preferred : 'js';
+    this.kernelFallbackReason = coverage !== null && !coverage.ok ? coverage.reason : null;
     this.wasm = this.kernel === 'wasm' ? new WasmStepper(model) : null;
     // With WebAssembly the control code writes handle forces and driven targets into its memory.
     this.forceN = this.wasm?.forceN ?? new Float64Array(3 * model.nodeCount);
