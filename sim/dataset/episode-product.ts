@@ -51,7 +51,7 @@ function rejectionOf(error: SimulationBlowUpError): EpisodeRejection {
 export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable, kernel?: StepKernel): EpisodeProduct {
   let sampled;
   try {
-    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file) });
+    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file), kernel });
   } catch (error) {
     throw EpisodeBuildError.of(index, error);
   }

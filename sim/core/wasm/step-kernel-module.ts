@@ -17,6 +17,8 @@ export interface WasmMemoryLike {
 export interface StepKernelExports {
   setNodeLayout(count: number, x: number, v: number, m: number, invM: number, volume: number, f: number): void;
   setSpringLayout(count: number, table: number): void;
+  setHingeLayout(count: number, table: number): void;
+  setClampLayout(count: number, table: number): void;
   setPanelLayout(count: number, nodesPerPanel: number, nodes: number, widthM: number): void;
   setHandleLayout(count: number, nodes: number, forces: number): void;
   setDrivenLayout(count: number, nodes: number, start: number, target: number, velocity: number): void;

@@ -57,11 +57,11 @@ export const STEP_PASSES: readonly StepPass[] = [
     modelFields: ['actuationEntryCount', 'actuationSpring', 'actuationChannel', 'actuationGain', 'baseRestLengthM', 'controlChannelCount'], usedBy: () => true,
   },
   {
-    name: 'hinge bending (elastic and damping)', jsFunction: 'bending-forces.ts accumulateBendingForces', inWasmKernel: false,
+    name: 'hinge bending (elastic and damping)', jsFunction: 'bending-forces.ts accumulateBendingForces', inWasmKernel: true,
     modelFields: ['hingeCount', 'hingeNodes', 'hingeStiffnessNm', 'hingeDampingNms'], usedBy: (m) => m.hingeCount > 0,
   },
   {
-    name: 'clamps (elastic and damping)', jsFunction: 'bending-forces.ts accumulateClampForces', inWasmKernel: false,
+    name: 'clamps (elastic and damping)', jsFunction: 'bending-forces.ts accumulateClampForces', inWasmKernel: true,
     modelFields: ['clampCount', 'clampNodes', 'clampDirectionUnit', 'clampStiffnessNm', 'clampDampingNms'], usedBy: (m) => m.clampCount > 0,
   },
   {

@@ -6,7 +6,8 @@
 // sub-steps, and callers may set a model's state between calls as with the JavaScript kernel.
 // Rest lengths are copied in after each actuation (syncRestLengths); handle forces and driven
 // targets are written by the JavaScript control code straight into views of this memory.
-// Topology, masses, volumes, stiffness and damping are read once, here.
+// Topology, masses, volumes, stiffness and damping (springs, hinges, clamps, clamp directions)
+// are read once, here.
 import type { Model } from '../model.ts';
 import type { World } from '../world.ts';
 import { instantiateStepKernel, WASM_PAGE_BYTES } from './step-kernel-module.ts';
@@ -43,6 +44,8 @@ export class WasmStepper {
     const at = {
       x: plan.take(8 * n3), v: plan.take(8 * n3), m: plan.take(8 * n), invM: plan.take(8 * n), volume: plan.take(8 * n), f: plan.take(8 * n3),
       springs: plan.take(32 * s),
+      hinges: plan.take(32 * model.hingeCount),
+      clamps: plan.take(48 * model.clampCount),
       panels: plan.take(4 * model.panelNodes.length),
       handles: plan.take(4 * handles), handleForce: plan.take(8 * 3 * handles),
       driven: plan.take(4 * driven), drivenStart: plan.take(8 * 3 * driven), drivenTarget: plan.take(8 * 3 * driven), drivenVelocity: plan.take(8 * 3 * driven),
@@ -71,12 +74,31 @@ export class WasmStepper {
       this.springTable[4 * i + 3] = model.dampingNsPerM[i];
     }
     this.syncRestLengths();
+    // Hinge and clamp records (layout in the kernel source), ends as byte offsets like springs'.
+    const hingeWords = u32(at.hinges, 8 * model.hingeCount);
+    const hingeTable = f64(at.hinges, 4 * model.hingeCount);
+    for (let h = 0; h < model.hingeCount; h++) {
+      for (let k = 0; k < 3; k++) hingeWords[8 * h + k] = 24 * model.hingeNodes[3 * h + k];
+      hingeTable[4 * h + 2] = model.hingeStiffnessNm[h];
+      hingeTable[4 * h + 3] = model.hingeDampingNms[h];
+    }
+    const clampWords = u32(at.clamps, 12 * model.clampCount);
+    const clampTable = f64(at.clamps, 6 * model.clampCount);
+    for (let q = 0; q < model.clampCount; q++) {
+      clampWords[12 * q] = 24 * model.clampNodes[2 * q];
+      clampWords[12 * q + 1] = 24 * model.clampNodes[2 * q + 1];
+      for (let k = 0; k < 3; k++) clampTable[6 * q + 1 + k] = model.clampDirectionUnit[3 * q + k];
+      clampTable[6 * q + 4] = model.clampStiffnessNm[q];
+      clampTable[6 * q + 5] = model.clampDampingNms[q];
+    }
     u32(at.panels, model.panelNodes.length).set(model.panelNodes);
     u32(at.handles, handles).set(model.handleNodes);
     u32(at.driven, driven).set(model.drivenNodes);
     this.drivenTargetM.set(model.drivenOriginM);
     kernel.setNodeLayout(n, at.x, at.v, at.m, at.invM, at.volume, at.f);
     kernel.setSpringLayout(s, at.springs);
+    kernel.setHingeLayout(model.hingeCount, at.hinges);
+    kernel.setClampLayout(model.clampCount, at.clamps);
     kernel.setPanelLayout(model.panelCount, model.panelNodeCount, at.panels, model.panelWidthM);
     kernel.setHandleLayout(handles, at.handles, at.handleForce);
     kernel.setDrivenLayout(driven, at.driven, at.drivenStart, at.drivenTarget, at.drivenVelocity);

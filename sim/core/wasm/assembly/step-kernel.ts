@@ -7,6 +7,8 @@
 // Mirrors, one function per JavaScript function (keep this list current):
 //   writeBodyForces               sim/core/body-forces.ts       writeBodyForces
 //   accumulateSpringForces        sim/core/spring-forces.ts     accumulateSpringForces
+//   accumulateBendingForces       sim/core/bending-forces.ts    accumulateBendingForces
+//   accumulateClampForces         sim/core/bending-forces.ts    accumulateClampForces
 //   accumulateFluidDrag           sim/core/fluid-drag.ts        accumulateFluidDrag
 //   accumulateSegmentDrag         sim/core/fluid-drag.ts        accumulateSegmentDrag
 //   accumulateQuadDrag            sim/core/fluid-drag.ts        accumulateQuadDrag
@@ -40,6 +42,14 @@ let forceN: usize = 0;
 // neighbours instead of five streams.
 let springCount: i32 = 0;
 let springTable: usize = 0;
+// Hinges: one 32-byte record each, {u32 24·previous, u32 24·middle, u32 24·next, u32 unused,
+// f64 stiffness N·m, f64 damping N·m·s}.
+let hingeCount: i32 = 0;
+let hingeTable: usize = 0;
+// Clamps: one 48-byte record each, {u32 24·held, u32 24·neighbour, f64 dx, f64 dy, f64 dz
+// (the held direction, unit), f64 stiffness N·m, f64 damping N·m·s}.
+let clampCount: i32 = 0;
+let clampTable: usize = 0;
 // Fluid panels.
 let panelCount: i32 = 0;
 let panelNodeCount: i32 = 0;
@@ -84,6 +94,16 @@ export function setNodeLayout(count: i32, x: usize, v: usize, m: usize, invM: us
 export function setSpringLayout(count: i32, table: usize): void {
   springCount = count;
   springTable = table;
+}
+
+export function setHingeLayout(count: i32, table: usize): void {
+  hingeCount = count;
+  hingeTable = table;
+}
+
+export function setClampLayout(count: i32, table: usize): void {
+  clampCount = count;
+  clampTable = table;
 }
 
 export function setPanelLayout(count: i32, nodesPerPanel: i32, nodes: usize, widthM: f64): void {
@@ -259,6 +279,132 @@ export function accumulateSpringForces(): void {
   store<f64>(fa, load<f64>(fa, 16) + fz, 16);
   v128.store(fb, f64x2.sub(v128.load(fb), fxy));
   store<f64>(fb, load<f64>(fb, 16) - fz, 16);
+}
+
+/** sim/core/bending-forces.ts STRAIGHT_HINGE_W2: below it w is rounding noise. */
+const STRAIGHT_HINGE_W2: f64 = 1e-28;
+
+// The hinge and clamp passes stay scalar: each term is the JavaScript expression with its
+// parentheses, so every sum is taken in the same order.
+export function accumulateBendingForces(): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const f = forceN;
+  const count = hingeCount;
+  for (let h: i32 = 0; h < count; h++) {
+    const hp = hingeTable + (<usize>h << 5);
+    const ip = <usize>load<u32>(hp);
+    const im = <usize>load<u32>(hp, 4);
+    const iN = <usize>load<u32>(hp, 8);
+    const xp = x + ip;
+    const xm = x + im;
+    const xn = x + iN;
+    const eax = load<f64>(xm) - load<f64>(xp);
+    const eay = load<f64>(xm, 8) - load<f64>(xp, 8);
+    const eaz = load<f64>(xm, 16) - load<f64>(xp, 16);
+    const ebx = load<f64>(xn) - load<f64>(xm);
+    const eby = load<f64>(xn, 8) - load<f64>(xm, 8);
+    const ebz = load<f64>(xn, 16) - load<f64>(xm, 16);
+    const la = sqrt<f64>(eax * eax + eay * eay + eaz * eaz);
+    const lb = sqrt<f64>(ebx * ebx + eby * eby + ebz * ebz);
+    if (la == 0 || lb == 0) continue;
+    const ila = 1 / la;
+    const ilb = 1 / lb;
+    const tax = eax * ila;
+    const tay = eay * ila;
+    const taz = eaz * ila;
+    const tbx = ebx * ilb;
+    const tby = eby * ilb;
+    const tbz = ebz * ilb;
+    const cosPhi = tax * tbx + tay * tby + taz * tbz;
+    const uax = (tbx - cosPhi * tax) * ila;
+    const uay = (tby - cosPhi * tay) * ila;
+    const uaz = (tbz - cosPhi * taz) * ila;
+    const ubx = (tax - cosPhi * tbx) * ilb;
+    const uby = (tay - cosPhi * tby) * ilb;
+    const ubz = (taz - cosPhi * tbz) * ilb;
+    let s = load<f64>(hp, 16);
+    const damping = load<f64>(hp, 24);
+    if (damping > 0) {
+      const wx = tbx - tax;
+      const wy = tby - tay;
+      const wz = tbz - taz;
+      const w2 = wx * wx + wy * wy + wz * wz;
+      if (w2 > STRAIGHT_HINGE_W2) {
+        const vp = v + ip;
+        const vm = v + im;
+        const vn = v + iN;
+        const wDot =
+          -(uax * (load<f64>(vm) - load<f64>(vp)) + uay * (load<f64>(vm, 8) - load<f64>(vp, 8)) + uaz * (load<f64>(vm, 16) - load<f64>(vp, 16)) +
+            (ubx * (load<f64>(vn) - load<f64>(vm)) + uby * (load<f64>(vn, 8) - load<f64>(vm, 8)) + ubz * (load<f64>(vn, 16) - load<f64>(vm, 16))));
+        s += (damping * wDot) / w2;
+      }
+    }
+    const fp = f + ip;
+    const fm = f + im;
+    const fn = f + iN;
+    store<f64>(fp, load<f64>(fp) - s * uax);
+    store<f64>(fp, load<f64>(fp, 8) - s * uay, 8);
+    store<f64>(fp, load<f64>(fp, 16) - s * uaz, 16);
+    store<f64>(fm, load<f64>(fm) + s * (uax - ubx));
+    store<f64>(fm, load<f64>(fm, 8) + s * (uay - uby), 8);
+    store<f64>(fm, load<f64>(fm, 16) + s * (uaz - ubz), 16);
+    store<f64>(fn, load<f64>(fn) + s * ubx);
+    store<f64>(fn, load<f64>(fn, 8) + s * uby, 8);
+    store<f64>(fn, load<f64>(fn, 16) + s * ubz, 16);
+  }
+}
+
+export function accumulateClampForces(): void {
+  const x = positionM;
+  const v = velocityMPerS;
+  const f = forceN;
+  const count = clampCount;
+  for (let q: i32 = 0; q < count; q++) {
+    const cp = clampTable + <usize>q * 48;
+    const ia = <usize>load<u32>(cp);
+    const ib = <usize>load<u32>(cp, 4);
+    const xa = x + ia;
+    const xb = x + ib;
+    const ex = load<f64>(xb) - load<f64>(xa);
+    const ey = load<f64>(xb, 8) - load<f64>(xa, 8);
+    const ez = load<f64>(xb, 16) - load<f64>(xa, 16);
+    const length = sqrt<f64>(ex * ex + ey * ey + ez * ez);
+    if (length == 0) continue;
+    const il = 1 / length;
+    const tx = ex * il;
+    const ty = ey * il;
+    const tz = ez * il;
+    const dx = load<f64>(cp, 8);
+    const dy = load<f64>(cp, 16);
+    const dz = load<f64>(cp, 24);
+    const cosPhi = tx * dx + ty * dy + tz * dz;
+    const ux = (dx - cosPhi * tx) * il;
+    const uy = (dy - cosPhi * ty) * il;
+    const uz = (dz - cosPhi * tz) * il;
+    let s = load<f64>(cp, 32);
+    const damping = load<f64>(cp, 40);
+    if (damping > 0) {
+      const wx = tx - dx;
+      const wy = ty - dy;
+      const wz = tz - dz;
+      const w2 = wx * wx + wy * wy + wz * wz;
+      if (w2 > STRAIGHT_HINGE_W2) {
+        const va = v + ia;
+        const vb = v + ib;
+        const wDot = -(ux * (load<f64>(vb) - load<f64>(va)) + uy * (load<f64>(vb, 8) - load<f64>(va, 8)) + uz * (load<f64>(vb, 16) - load<f64>(va, 16)));
+        s += (damping * wDot) / w2;
+      }
+    }
+    const fa = f + ia;
+    const fb = f + ib;
+    store<f64>(fa, load<f64>(fa) - s * ux);
+    store<f64>(fa, load<f64>(fa, 8) - s * uy, 8);
+    store<f64>(fa, load<f64>(fa, 16) - s * uz, 16);
+    store<f64>(fb, load<f64>(fb) + s * ux);
+    store<f64>(fb, load<f64>(fb, 8) + s * uy, 8);
+    store<f64>(fb, load<f64>(fb, 16) + s * uz, 16);
+  }
 }
 
 export function accumulateFluidDrag(): void {
@@ -475,6 +621,8 @@ export function updateVelocitiesAndPositions(dtS: f64): void {
 export function step(dtS: f64): void {
   writeBodyForces();
   accumulateSpringForces();
+  if (hingeCount > 0) accumulateBendingForces();
+  if (clampCount > 0) accumulateClampForces();
   if (fluidEnabled && panelCount > 0) accumulateFluidDrag();
   const f = forceN;
   const nodes = handleNodes;
