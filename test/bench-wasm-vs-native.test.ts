@@ -1,5 +1,6 @@
-// The WebAssembly bench lines and the C build of the lattice kernel
-// (sim/bench/native/lattice_kernel.c). The C build steps the model file written by
+// The WebAssembly bench lines, the C build of the lattice kernel
+// (sim/bench/native/lattice_kernel.c) and the C build of chain-1024-bending
+// (native/chain_kernel.c with "bending", the hinge and clamp passes of bending-forces.ts). The C build steps the model file written by
 // native-lattice-kernel.ts with the same operations in the same order, so by IEEE 754
 // correct rounding of +, −, ×, ÷ and sqrt (IEEE 754-2008 §4.3, §5.4; gcc with
 // -ffp-contract=off fuses nothing) its checksum must equal the JavaScript kernel's bit for bit,
@@ -8,11 +9,13 @@
 // No time is asserted; benchmarks measure.
 import { describe, expect, it } from 'vitest';
 import { runLattice8x8x8 } from '../sim/bench/lattice-8x8x8.ts';
-import { buildNativeKernel } from '../sim/bench/native-chain-kernel.ts';
 import { runNativeLatticeKernel, withNativeLatticeKernel } from '../sim/bench/native-lattice-kernel.ts';
 import { chain1024WasmCase } from '../sim/bench/chain-1024-wasm.ts';
 import { lattice8x8x8WasmVsNativeCase } from '../sim/bench/lattice-8x8x8-wasm-vs-native.ts';
 import { compareAlternately } from '../sim/bench/alternating-comparison.ts';
+import { runChain1024 } from '../sim/bench/chain-1024.ts';
+import { buildChain1024Bending, runChain1024Bending } from '../sim/bench/chain-1024-bending.ts';
+import { buildNativeChainKernel, buildNativeKernel, runNativeChainKernel } from '../sim/bench/native-chain-kernel.ts';
 
 const INTERVALS = 12;
 
@@ -40,6 +43,27 @@ describe('C build of the lattice-8x8x8 kernel', () => {
     if (!build.ok) return expect(build.reason).toMatch(/gcc not found/);
     try {
       expect(() => runNativeLatticeKernel(build.binaryPath, build.binaryPath)).toThrow(/not a lattice model file/);
+    } finally {
+      build.dispose();
+    }
+  });
+});
+
+describe('chain-1024-bending: JavaScript, WebAssembly and the C build with "bending" reach one checksum bit for bit', () => {
+  it('has the hinges and clamp it names, runs WebAssembly when asked, and all three builds agree', () => {
+    const model = buildChain1024Bending();
+    expect([model.hingeCount, model.clampCount]).toEqual([1022, 1]);
+    const js = runChain1024Bending('js');
+    const wasm = runChain1024Bending('wasm');
+    expect(wasm.kernel).toBe('wasm');
+    expect(Object.is(wasm.checksum, js.checksum)).toBe(true);
+    // The bending passes change the motion, so the case measures them (chain-1024 ends on 408.1644).
+    expect(js.checksum).not.toBe(runChain1024('js').checksum);
+    const build = buildNativeChainKernel();
+    if (!build.ok) return expect(build.reason).toMatch(/gcc not found on PATH; install it/);
+    try {
+      expect(Object.is(runNativeChainKernel(build.binaryPath, 10_000, 'bending').checksum, js.checksum)).toBe(true);
+      expect(Object.is(runNativeChainKernel(build.binaryPath, 10_000).checksum, runChain1024('js').checksum)).toBe(true);
     } finally {
       build.dispose();
     }

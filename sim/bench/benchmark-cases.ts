@@ -5,6 +5,7 @@ import { chain1024NativeCase } from './chain-1024-native.ts';
 import { chain1024JsVsNativeCase } from './chain-1024-js-vs-native.ts';
 import { chain1024WasmCase } from './chain-1024-wasm.ts';
 import { chain1024WasmVsNativeCase } from './chain-1024-wasm-vs-native.ts';
+import { chain1024BendingWasmVsNativeCase } from './chain-1024-bending-wasm-vs-native.ts';
 import { lattice8x8x8Case } from './lattice-8x8x8.ts';
 import { lattice8x8x8WasmCase } from './lattice-8x8x8-wasm.ts';
 import { lattice8x8x8WasmVsNativeCase } from './lattice-8x8x8-wasm-vs-native.ts';
@@ -20,6 +21,7 @@ export const BENCHMARK_CASES: BenchmarkCase[] = [
   chain1024JsVsNativeCase,
   chain1024WasmCase,
   chain1024WasmVsNativeCase,
+  chain1024BendingWasmVsNativeCase,
   lattice8x8x8Case,
   lattice8x8x8WasmCase,
   lattice8x8x8WasmVsNativeCase,

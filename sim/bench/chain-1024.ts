@@ -20,13 +20,18 @@ export const CHAIN_1024_STEPS = 10_000;
 export const CHAIN_1024_DT_S = 1e-4;
 
 export function buildChain1024(): Model {
+  return buildChain1024Builder().build();
+}
+
+/** The builder of buildChain1024 before build(), for cases that add to the chain. */
+export function buildChain1024Builder(): ModelBuilder {
   const builder = new ModelBuilder(8, 2, 0);
   for (let i = 0; i < CHAIN_1024_NODES; i++) {
     builder.addNode({ positionM: [0.01 * i, 0, 0], massKg: 0.01, flags: i === 0 ? NODE_PINNED : 0 });
   }
   for (let i = 0; i + 1 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 1, 200, 0.05, RELATION_STRUCTURAL, 0.01);
   for (let i = 0; i + 2 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 2, 20, 0.005, RELATION_SECOND_NEIGHBOUR, 0.02);
-  return builder.build();
+  return builder;
 }
 
 /** Runs the case with the given kernel (default js) and returns the checksum and timing. */

@@ -53,9 +53,9 @@ export function buildNativeKernel(sourcePath: string, binaryName: string): Nativ
   return { ok: true, binaryPath, compiler, dispose };
 }
 
-/** Runs the compiled kernel once and parses the line it prints. */
-export function runNativeChainKernel(binaryPath: string, steps: number): NativeRun {
-  const run = spawnSync(binaryPath, [String(steps)], { encoding: 'utf8' });
+/** Runs the compiled kernel once ("bending": the chain-1024-bending case) and parses its line. */
+export function runNativeChainKernel(binaryPath: string, steps: number, variant: 'plain' | 'bending' = 'plain'): NativeRun {
+  const run = spawnSync(binaryPath, variant === 'bending' ? [String(steps), 'bending'] : [String(steps)], { encoding: 'utf8' });
   if (run.status !== 0) {
     throw new Error(`the C build of chain-1024 (${binaryPath}) exited with ${run.status}: ${run.stderr.trim()}`);
   }
