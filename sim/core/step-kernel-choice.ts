@@ -1,7 +1,9 @@
 // Which implementation of the step a Simulator runs: the JavaScript kernel (the specification
 // and the fallback) or its WebAssembly build (sim/core/wasm/), which performs the same
 // operations in the same order and so produces the same bits. The choice never changes a
-// result, so datasets and seed files do not record it.
+// result, so datasets and seed files do not record it. This file says whether WebAssembly can
+// run at all; whether it implements a given model's passes is wasm/wasm-kernel-coverage.ts,
+// which the Simulator asks next.
 import { stepKernelModule } from './wasm/step-kernel-module.ts';
 
 export type StepKernel = 'js' | 'wasm';
