@@ -32,14 +32,16 @@ describe('energies of a three-node system, worked by hand (Halliday & Resnick)',
     expect(model.restLengthM[2]).toBe(13); // rest length defaults to the built distance
     const world = defaultWorld();
     world.gravityMPerS2 = [0, -10, 0];
-    const out = new Float64Array(5).fill(Number.NaN);
+    const out = new Float64Array(6).fill(Number.NaN);
     measureEnergies(model, world, out, 1);
-    expect(ENERGY_NAMES).toEqual(['kinetic', 'elastic', 'gravitational']);
+    expect(ENERGY_NAMES).toEqual(['kinetic', 'elastic', 'gravitational', 'bending']);
     expect(out[1]).toBeCloseTo(4.75, 14);
     expect(out[2]).toBeCloseTo(10, 13);
     expect(out[3]).toBeCloseTo(28, 13);
-    // Writes exactly its three slots at the offset.
-    expect(Number.isNaN(out[0]) && Number.isNaN(out[4])).toBe(true);
+    // No hinges or clamps, so no bending energy.
+    expect(out[4]).toBe(0);
+    // Writes exactly its four slots at the offset.
+    expect(Number.isNaN(out[0]) && Number.isNaN(out[5])).toBe(true);
   });
 
   it('tilted gravity (3, 0, −4) m/s²: gravitational −m·g·x = −(0.5·9) − (0.2·(9 − 48)) = 3.3 J', () => {
