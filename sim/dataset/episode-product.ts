@@ -13,6 +13,7 @@ import { episodeArrays } from './episode-arrays.ts';
 import type { EpisodeArray } from './episode-arrays.ts';
 import { episodeId } from './dataset-files.ts';
 import type { ReplayTable } from './replay-inputs.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 
 export interface EpisodeProduct {
   record: EpisodeRecord;
@@ -47,10 +48,10 @@ function rejectionOf(error: SimulationBlowUpError): EpisodeRejection {
   };
 }
 
-export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable): EpisodeProduct {
+export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable, kernel?: StepKernel): EpisodeProduct {
   let sampled;
   try {
-    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file) });
+    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file), kernel });
   } catch (error) {
     throw EpisodeBuildError.of(index, error);
   }
@@ -81,7 +82,7 @@ export function produceEpisode(scenario: Scenario, index: number, dtype: ExportD
     files: [],
   };
   try {
-    const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording);
+    const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording, kernel);
     return { record, arrays: episodeArrays(trajectory, graph, model.cellCornerCount, dtype, observeEpisode(sampled, trajectory)) };
   } catch (error) {
     if (!(error instanceof SimulationBlowUpError)) throw EpisodeBuildError.of(index, error);

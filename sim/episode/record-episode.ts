@@ -5,6 +5,7 @@
 import type { Model } from '../core/model.ts';
 import type { World } from '../core/world.ts';
 import { Simulator } from '../core/simulator.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import { ENERGY_COUNT, measureEnergies } from '../core/energy.ts';
 import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../core/blow-up-check.ts';
@@ -45,7 +46,8 @@ export function resolveSubsteps(model: Model, world: World, settings: RecordingS
   return { substeps, dtS: settings.recordIntervalS / substeps, criticalDtS: bound.criticalDtS };
 }
 
-export function recordTrajectory(model: Model, world: World, controls: Float64Array, settings: RecordingSettings): RecordedTrajectory {
+/** `kernel` picks the step's implementation (default: WebAssembly where it runs); it never changes the result. */
+export function recordTrajectory(model: Model, world: World, controls: Float64Array, settings: RecordingSettings, kernel?: StepKernel): RecordedTrajectory {
   const steps = settings.recordedSteps;
   const n = model.nodeCount;
   const channels = model.controlChannelCount;
@@ -54,7 +56,7 @@ export function recordTrajectory(model: Model, world: World, controls: Float64Ar
   }
   const { substeps, dtS, criticalDtS } = resolveSubsteps(model, world, settings);
   const limits = settings.limits ?? DEFAULT_BLOW_UP_LIMITS;
-  const simulator = new Simulator(model, world);
+  const simulator = new Simulator(model, world, { kernel });
   const timeS = new Float64Array(steps + 1);
   const positionM = new Float64Array((steps + 1) * n * 3);
   const velocityMPerS = new Float64Array((steps + 1) * n * 3);
