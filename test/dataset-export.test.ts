@@ -282,7 +282,8 @@ print(json.dumps(np.histogram(v, bins=8, range=(min(v), max(v)))[0].tolist()))
     expect(card).toContain('Simulated data does not replace hardware testing');
     expect(card).toContain('conservative limits');
     expect(card).toContain("the lab's own safety rules");
-    const snippets = [...card.matchAll(/```python\n([\s\S]*?)```/g)].map((m) => m[1]);
+    // The Pliant loader's snippet needs pliant_data.py on the path: test/dataset-python-loader.test.ts runs it.
+    const snippets = [...card.matchAll(/```python\n([\s\S]*?)```/g)].map((m) => m[1]).filter((s) => !s.includes('import pliant_data'));
     expect(snippets.length).toBe(2);
     const firstOk = finManifest.episodes.find((e) => e.status === 'ok')!;
     for (const snippet of snippets) {

@@ -12,5 +12,6 @@ import { baselineCommand } from './baseline-command.ts';
 import { calibrateCommand } from './calibrate-command.ts';
 import { renderCommand } from './render-command.ts';
 import { scoreCommand } from './score-command.ts';
+import { loaderCommand } from './loader-command.ts';
 
-export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, baselineCommand, scoreCommand, calibrateCommand, renderCommand, demoCommand, benchCommand];
+export const COMMANDS: CliCommand[] = [validateCommand, generateCommand, mergeCommand, verifyCommand, reproduceCommand, inspectCommand, loaderCommand, baselineCommand, scoreCommand, calibrateCommand, renderCommand, demoCommand, benchCommand];

@@ -1,6 +1,6 @@
 // Writes CARD.md, the human-readable description of a dataset: what the systems are, how every
 // sampled parameter is spread (with text histograms), the splits, the arrays, how to load them
-// in Python, which episodes were rejected and why, and the hardware-safety caution. It is made
+// in Python (by hand and with the Pliant loader), which episodes were rejected and why, and the hardware-safety caution. It is made
 // from the manifest's content alone (never the run metadata), so every copy of a dataset made
 // from the same seed file has the same card, byte for byte. The episodes arrive as a CardTally,
 // gathered one record at a time, so a card for a large sweep needs little memory.
@@ -14,6 +14,7 @@ import { unitOfLabel } from './label-units.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
 import { designCardSection } from './design-card-section.ts';
+import { PYTHON_LOADER_FILE_NAME } from './python-loader-source.ts';
 
 export interface CardSource extends ManifestHead {
   /** The folder's episodes, gathered in index order. */
@@ -259,6 +260,39 @@ function loadingSection(source: CardSource): string[] {
   return lines;
 }
 
+/** The Pliant loader (pliant_data.py) in use: windows, a padded batch and the PyTorch Dataset. */
+function trainingLoopSection(source: CardSource): string[] {
+  const split = source.tally.firstOkSplit;
+  const steps = source.tally.firstSimulation?.recordedSteps ?? 0;
+  if (split === null || steps < 1) return ['No episode of this folder was recorded successfully, so there is nothing to load.'];
+  // Window lengths that fit any episode of this folder: every episode has the same record count.
+  const states = steps + 1;
+  const history = Math.max(1, Math.min(10, Math.floor(states / 2)));
+  const horizon = Math.min(10, states - history);
+  const module = PYTHON_LOADER_FILE_NAME.replace(/\.py$/, '');
+  return [
+    `Pliant ships a one-file Python loader, \`${PYTHON_LOADER_FILE_NAME}\` (NumPy only; h5py when it reads the split HDF5 files, PyTorch when torch is installed). Write it next to your training code with the command below; keep it out of this folder, because \`pliant verify\` reports any file the manifest does not list.`,
+    '',
+    ...fence('sh', [`npx pliant loader --out path/to/your/training/code/`]),
+    '',
+    `It lists each split's recorded episodes from \`${MANIFEST_FILE}\`, cuts windows of \`history\` states in and \`horizon\` states to predict (with the controls between them), pads a batch of episodes with different node counts and marks the real nodes in \`node_mask\`, and normalises each coordinate and control channel by the split's mean and standard deviation. Run from inside this folder, with the loader's folder on \`PYTHONPATH\`:`,
+    '',
+    ...fence('python', [
+      `import ${module}`,
+      '',
+      `dataset = ${module}.PliantDataset(".")`,
+      `windows = list(dataset.windows("${split}", history=${history}, horizon=${horizon}, stride=${history}, normalise=True))`,
+      `batch = ${module}.collate_windows(windows[:8])`,
+      'print(windows[0]["episode_id"], len(windows), batch["history_positions"].shape, batch["node_mask"].sum(axis=1))',
+      '',
+      '# With PyTorch: a map-style Dataset and a collate function that returns tensors.',
+      '# import torch',
+      `# train = ${module}.PliantWindowDataset(".", "${split}", history=${history}, horizon=${horizon}, normalise=True)`,
+      `# loader = torch.utils.data.DataLoader(train, batch_size=32, shuffle=True, collate_fn=${module}.torch_collate)`,
+    ]),
+  ];
+}
+
 function rejectedSection(source: CardSource): string[] {
   const rejected = source.tally.rejected;
   const lines = [
@@ -314,6 +348,10 @@ export function renderDatasetCard(source: CardSource): string {
     '## Loading in Python',
     '',
     ...loadingSection(source),
+    '',
+    '## Training with the Pliant loader',
+    '',
+    ...trainingLoopSection(source),
     '',
     '## Rejected episodes',
     '',

@@ -43,3 +43,24 @@ export function runReferencePython<T = unknown>(script: string, input: unknown, 
   }
   return JSON.parse(result.stdout) as T;
 }
+
+let torchCached: PythonAvailability | undefined;
+
+/** PyTorch from Debian (python3-torch) under the same interpreter; skips or fails like the rest. */
+export function referenceTorchAvailability(): PythonAvailability {
+  if (torchCached) return torchCached;
+  const base = referencePythonAvailability();
+  if (!base.available) {
+    torchCached = base;
+  } else {
+    const probe = spawnSync(REFERENCE_PYTHON, ['-c', 'import torch'], { encoding: 'utf8' });
+    torchCached = probe.status === 0
+      ? { available: true, reason: '' }
+      : { available: false, reason: `PyTorch not importable from ${REFERENCE_PYTHON} (apt-get install python3-torch): ${probe.stderr.trim()}` };
+  }
+  if (!torchCached.available && process.env.CI === 'true') {
+    throw new Error(`Reference PyTorch is required under CI=true: ${torchCached.reason}`);
+  }
+  if (!torchCached.available && base.available) console.warn(`[skip] reference PyTorch checks skipped: ${torchCached.reason}`);
+  return torchCached;
+}
