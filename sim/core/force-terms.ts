@@ -1,0 +1,109 @@
+// The forces of a step as a list of named terms for the energy ledger: what each force is, how
+// its work is booked (a conservative force's work pairs with a potential-energy column, a
+// control's work is an input, a dissipative force's negative work is energy dissipated), and
+// a writer that produces the term's force alone at the start-of-step state. The hot step sums
+// the same forces without this list; the ledger uses it only when accounting is on.
+//
+// To add a force (e.g. bending with its damping): append one entry per part here, with
+// `potential` naming its column in energy.ts when it is conservative. The ledger, the
+// `energy_flows` columns and both balances pick it up from this list.
+import type { Model } from './model.ts';
+import type { World } from './world.ts';
+import { accumulateFluidDrag } from './fluid-drag.ts';
+import { buoyantDensityKgPerM3 } from './energy.ts';
+import { SPRING_PART_DAMPING, SPRING_PART_ELASTIC, writeSpringForcePart } from './spring-force-parts.ts';
+
+export type ForceRole = 'conservative' | 'input' | 'dissipative';
+
+export interface ForceTermContext {
+  model: Model;
+  world: World;
+  /** Per handle and axis, the control force of the current interval, N. */
+  handleForceN: Float64Array;
+}
+
+export interface ForceTerm {
+  /** Column name in `energy_flows`: "<name>_work" or "<name>_dissipated" by role. */
+  readonly name: string;
+  readonly role: ForceRole;
+  /** Energy column this conservative force's work pairs with. */
+  readonly potential?: string;
+  readonly counts: string;
+  /** Writes (not adds) the term's force on every node, N, 3 per node. */
+  readonly write: (context: ForceTermContext, forceN: Float64Array) => void;
+}
+
+function writeBodyTerm(context: ForceTermContext, forceN: Float64Array, kind: 0 | 1 | 2): void {
+  const { model, world } = context;
+  const g = world.gravityMPerS2;
+  const v = model.velocityMPerS;
+  const density = buoyantDensityKgPerM3(world);
+  for (let i = 0; i < model.nodeCount; i++) {
+    const o = 3 * i;
+    if (model.inverseMassPerKg[i] === 0) {
+      forceN[o] = 0; forceN[o + 1] = 0; forceN[o + 2] = 0;
+      continue;
+    }
+    for (let k = 0; k < 3; k++) {
+      if (kind === 0) forceN[o + k] = model.massKg[i] * g[k];
+      else if (kind === 1) forceN[o + k] = -density * model.nodeVolumeM3[i] * g[k];
+      else forceN[o + k] = -model.massKg[i] * world.airDragPerS * v[o + k];
+    }
+  }
+}
+
+function writeHandleTerm(context: ForceTermContext, forceN: Float64Array): void {
+  forceN.fill(0);
+  const handles = context.model.handleNodes;
+  for (let h = 0; h < handles.length; h++) {
+    for (let k = 0; k < 3; k++) forceN[3 * handles[h] + k] += context.handleForceN[3 * h + k];
+  }
+}
+
+function writeFluidTerm(context: ForceTermContext, forceN: Float64Array): void {
+  forceN.fill(0);
+  if (context.world.fluid.enabled && context.model.panelCount > 0) accumulateFluidDrag(context.model, context.world.fluid, forceN);
+}
+
+export const FORCE_TERMS: readonly ForceTerm[] = [
+  {
+    name: 'elastic', role: 'conservative', potential: 'elastic',
+    counts: 'Hooke part k·(L − L0) of every spring force',
+    write: (context, out) => writeSpringForcePart(context.model, SPRING_PART_ELASTIC, out),
+  },
+  {
+    name: 'gravity', role: 'conservative', potential: 'gravitational',
+    counts: 'm·g on every free node',
+    write: (context, out) => writeBodyTerm(context, out, 0),
+  },
+  {
+    name: 'buoyancy', role: 'conservative', potential: 'buoyancy',
+    counts: '−ρ_fluid·V·g on every free node when buoyancy acts',
+    write: (context, out) => writeBodyTerm(context, out, 1),
+  },
+  {
+    name: 'handle', role: 'input',
+    counts: 'control forces on handle nodes',
+    write: writeHandleTerm,
+  },
+  {
+    name: 'spring_damping', role: 'dissipative',
+    counts: 'damping part c·(Δv·n) of every spring force',
+    write: (context, out) => writeSpringForcePart(context.model, SPRING_PART_DAMPING, out),
+  },
+  {
+    name: 'air_drag', role: 'dissipative',
+    counts: 'mass-proportional drag −m·c·v on every free node',
+    write: (context, out) => writeBodyTerm(context, out, 2),
+  },
+  {
+    name: 'fluid_drag', role: 'dissipative',
+    counts: 'resistive-force drag of the fluid on the surface panels',
+    write: writeFluidTerm,
+  },
+];
+
+/** Column name of a force term in `energy_flows`. */
+export function flowColumnName(term: ForceTerm): string {
+  return term.role === 'dissipative' ? `${term.name}_dissipated` : `${term.name}_work`;
+}
