@@ -7,6 +7,7 @@ import { decodeArray } from '../bridge/decode-array.ts';
 import type { DecodedArray } from '../bridge/decode-array.ts';
 import { NODE_FEATURE_NAMES } from '../../sim/systems/graph-labels.ts';
 import { TrajectoryFrames } from '../playback/trajectory-frames.ts';
+import { ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
 import type { BodyTopology } from '../view/body-topology.ts';
 
 export interface PlayableEpisode {
@@ -79,9 +80,22 @@ export function playableEpisode(episode: EpisodeArrays): PlayableEpisode {
     frameCount,
     positions.data instanceof Float32Array ? positions.data : Float32Array.from(positions.data),
     Float64Array.from(time),
-    energies ? Float64Array.from(energies.data) : null,
+    energies ? energyRows(energies) : null,
     controls ? Float64Array.from(controls.data) : null,
   );
   const frameIntervalS = frameCount > 1 ? (time[frameCount - 1] - time[0]) / (frameCount - 1) : 1;
   return { topology, frames, frameIntervalS, channelCount };
+}
+
+/** The file's energy columns in this version's layout; columns a file lacks stay NaN. */
+function energyRows(energies: { data: DecodedArray; shape: number[] }): Float64Array {
+  const width = energies.shape[1] ?? ENERGY_TERM_COUNT;
+  if (width === ENERGY_TERM_COUNT) return Float64Array.from(energies.data);
+  const rows = energies.shape[0];
+  const out = new Float64Array(rows * ENERGY_TERM_COUNT).fill(Number.NaN);
+  const shared = Math.min(width, ENERGY_TERM_COUNT);
+  for (let r = 0; r < rows; r++) {
+    for (let c = 0; c < shared; c++) out[r * ENERGY_TERM_COUNT + c] = Number(energies.data[r * width + c]);
+  }
+  return out;
 }

@@ -2,6 +2,7 @@
 // takes anyway), record times, energies and the control vector of every interval. Sized once
 // for the whole episode; the preview fills it as the worker streams frames in, dataset playback
 // fills it in one go.
+import { ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
 
 export class TrajectoryFrames {
   /** (frames) × nodes × 3, m. */
@@ -23,7 +24,7 @@ export class TrajectoryFrames {
   ) {
     this.positionsM = new Float32Array(frameCount * nodeCount * 3);
     this.timeS = new Float64Array(frameCount);
-    this.energiesJ = new Float64Array(frameCount * 3).fill(Number.NaN);
+    this.energiesJ = new Float64Array(frameCount * ENERGY_TERM_COUNT).fill(Number.NaN);
     this.controls = new Float64Array(Math.max(0, frameCount - 1) * channelCount);
   }
 
@@ -47,7 +48,7 @@ export class TrajectoryFrames {
     if (first > this.filled) throw new RangeError(`frames ${this.filled}…${first - 1} are missing before chunk at ${first}`);
     this.positionsM.set(positionsM, this.positionOffset(first));
     this.timeS.set(timeS, first);
-    if (energiesJ) this.energiesJ.set(energiesJ, 3 * first);
+    if (energiesJ) this.energiesJ.set(energiesJ, ENERGY_TERM_COUNT * first);
     if (controls) {
       // Chunks carry the controls of their own intervals, which end one short of the last frame.
       const room = this.controls.length - first * this.channelCount;

@@ -2,6 +2,11 @@
 // coordinates, the energies and their sum, and every control channel, each a full-length array
 // of which the first `filled` entries are valid. Extending them touches only the new frames.
 import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
+import { ENERGY_NAMES, ENERGY_TERMS, ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
+
+const KINETIC = ENERGY_NAMES.indexOf('kinetic');
+const ELASTIC = ENERGY_NAMES.indexOf('elastic');
+const GRAVITATIONAL = ENERGY_NAMES.indexOf('gravitational');
 
 export class TrajectorySeries {
   readonly xM: Float64Array;
@@ -46,10 +51,14 @@ export class TrajectorySeries {
     this.fillCoordinates(from, to);
     const e = this.frames.energiesJ;
     for (let f = from; f < to; f++) {
-      this.kineticJ[f] = e[3 * f];
-      this.elasticJ[f] = e[3 * f + 1];
-      this.gravitationalJ[f] = e[3 * f + 2];
-      this.totalJ[f] = e[3 * f] + e[3 * f + 1] + e[3 * f + 2];
+      const row = ENERGY_TERM_COUNT * f;
+      this.kineticJ[f] = e[row + KINETIC];
+      this.elasticJ[f] = e[row + ELASTIC];
+      this.gravitationalJ[f] = e[row + GRAVITATIONAL];
+      // The total is the balance's: kinetic and every potential, supports left out.
+      let total = 0;
+      for (let t = 0; t < ENERGY_TERM_COUNT; t++) if (ENERGY_TERMS[t].role !== 'support') total += e[row + t];
+      this.totalJ[f] = total;
     }
     const channels = this.frames.channelCount;
     for (let c = 0; c < channels; c++) {

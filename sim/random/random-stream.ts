@@ -16,6 +16,8 @@ export const StreamPurpose = {
   controls: 3,
   split: 4,
   preview: 5,
+  /** Which episodes get numerical-error reruns (Richardson). */
+  numerics: 6,
 } as const;
 
 export type StreamPurposeName = keyof typeof StreamPurpose;

@@ -92,6 +92,18 @@ export interface FluidSpec {
   buoyancy: boolean;
 }
 
+/** A static rigid obstacle; sizes by shape (box: sizeM; sphere: radiusM; cylinder: radiusM, lengthM, axis). */
+export interface ObstacleSpec {
+  shape: 'box' | 'sphere' | 'cylinder';
+  centerM: Vector3Spec;
+  sizeM?: Vector3Spec;
+  radiusM?: NumericValueSpec;
+  lengthM?: NumericValueSpec;
+  axis?: Axis;
+  staticFriction: NumericValueSpec;
+  kineticFriction: NumericValueSpec;
+}
+
 export interface WorldSpec {
   gravityMPerS2: Vector3Spec;
   airDragPerS: NumericValueSpec;
@@ -99,6 +111,8 @@ export interface WorldSpec {
   ground?: GroundSpec;
   /** Absent: no surrounding fluid. */
   fluid?: FluidSpec;
+  /** Static rigid obstacles (none by default). */
+  obstacles: ObstacleSpec[];
 }
 
 export interface ControlsSpec {
@@ -111,7 +125,8 @@ export interface ControlsSpec {
 export interface TimeSpec {
   recordIntervalS: number;
   recordedSteps: number;
-  substeps: number | 'auto';
+  /** A count, "auto", or {accuracy: ε}: "auto" plus enough sub-steps for a relative energy band ε. */
+  substeps: number | 'auto' | { accuracy: number };
   /** Fraction of the critical step that "auto" sub-steps stay within. */
   autoSafety: number;
 }
@@ -147,6 +162,15 @@ export interface SplitsSpec {
 export interface ExportSpec {
   format: 'npz' | 'hdf5' | 'both';
   dtype: 'float32' | 'float64';
+  /** Also store impulse-averaged forces: edge_tension, contact_normal_force, contact_friction_force, fluid_force. */
+  forces: boolean;
+}
+
+export interface NumericsSpec {
+  /** Book every force's work (energy_flows array, balance labels). */
+  energyBalance: boolean;
+  /** Share of episodes rerun at half the sub-step for a Richardson error estimate, 0 to 1. */
+  richardsonShare: number;
 }
 
 export interface Scenario {
@@ -164,4 +188,5 @@ export interface Scenario {
   seed: number | string;
   splits: SplitsSpec;
   export: ExportSpec;
+  numerics: NumericsSpec;
 }

@@ -28,7 +28,8 @@ export function findStabilityProblems(scenario: Scenario, demandingSystems: read
   if (worst === undefined || !Number.isFinite(criticalDtS)) return [];
   const { recordIntervalS, substeps, autoSafety } = scenario.time;
   const where = cornerWords ? ` (${cornerWords})` : '';
-  if (substeps === 'auto') {
+  if (typeof substeps !== 'number') {
+    // {accuracy} takes at least the sub-steps of "auto"; its own count is checked per episode.
     const needed = autoSubsteps(recordIntervalS, stabilityBound(worst.model, airDragPerS), autoSafety);
     if (needed <= MAX_SUBSTEPS) return [];
     return [
