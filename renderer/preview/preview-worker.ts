@@ -68,7 +68,7 @@ function run(requestId: number, text: string, fileName: string, index: number): 
       requestId,
       episode: summarise(episode, stepper),
       topology,
-      world: { ground: { enabled: world.ground.enabled, heightM: world.ground.heightM }, fluid: { enabled: world.fluid.enabled } },
+      world: { ground: { enabled: world.ground.enabled, heightM: world.ground.heightM }, fluid: { enabled: world.fluid.enabled }, obstacles: world.obstacles },
       frameCount: stepper.frameCount,
     },
     topologyBuffers(topology),
