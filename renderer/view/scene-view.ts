@@ -7,15 +7,9 @@ import type { BodyBounds } from './body-view.ts';
 import { BodyView } from './body-view.ts';
 import { isSoftwareRendering } from './software-rendering.ts';
 import { fillObstacleGroup } from './obstacle-meshes.ts';
-import type { Obstacle } from '../../sim/core/world.ts';
+import type { StageWorld } from './stage-world.ts';
 
-/** What of the world to draw around the body. */
-export interface StageWorld {
-  ground: { enabled: boolean; heightM: number };
-  fluid: { enabled: boolean };
-  /** Static obstacles besides the ground plane (none when absent). */
-  obstacles?: readonly Obstacle[];
-}
+export type { StageWorld } from './stage-world.ts';
 
 export const STAGE_BACKGROUND = 0xf4f1ea;
 
