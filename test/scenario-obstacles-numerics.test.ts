@@ -78,6 +78,19 @@ describe('world.obstacles: randomised sizes and places become labels and world o
   });
 });
 
+describe('substeps {accuracy}: a target the sub-step limit cannot meet is refused before any run', () => {
+  it('accuracy 1e-6 on a stiff tether: a problem at /time/substeps/accuracy naming ω_max and the fixes', () => {
+    const value = rockTank();
+    value.system.axialStiffnessN = 1e6;
+    value.time.substeps = { accuracy: 1e-6 };
+    const checked = checkScenarioValue(value);
+    expect(checked.ok).toBe(false);
+    if (checked.ok) return;
+    const problem = checked.problems.find((p) => p.pointer === '/time/substeps/accuracy');
+    expect(problem?.message).toMatch(/ω_max = .* rad\/s.*Loosen the accuracy target/);
+  });
+});
+
 describe('an episode with numerics and forces: arrays and /numerics labels', () => {
   it('energy_flows, the four force arrays and the balance and Richardson labels, with consistent shapes', () => {
     const checked = checkScenarioValue(rockTank());
