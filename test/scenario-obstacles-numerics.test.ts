@@ -29,7 +29,7 @@ function rockTank(): Json {
     time: { recordIntervalS: 0.01, recordedSteps: 30, substeps: { accuracy: 0.1 } },
     episodes: 4,
     seed: 20261203,
-    numerics: { richardsonShare: 1 },
+    numerics: { energyBalance: true, richardsonShare: 1 },
     export: { forces: true },
   };
 }

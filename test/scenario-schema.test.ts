@@ -61,7 +61,7 @@ describe('SCENARIO_SCHEMA', () => {
     expect(s.splits.fractions).toEqual(props.splits.properties.fractions.default);
     expect(s.splits.heldOut).toEqual([]);
     expect(s.export).toEqual({ format: props.export.properties.format.default, dtype: props.export.properties.dtype.default, forces: false });
-    expect(s.numerics).toEqual({ energyBalance: true, richardsonShare: 0 });
+    expect(s.numerics).toEqual({ energyBalance: false, richardsonShare: 0 });
     expect(s.world.obstacles).toEqual([]);
     expect(s.time.substeps).toBe(props.time.properties.substeps.default);
     expect(s.time.autoSafety).toBe(props.time.properties.autoSafety.default);

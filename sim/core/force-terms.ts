@@ -31,6 +31,15 @@ export interface ForceTerm {
   readonly counts: string;
   /** Writes (not adds) the term's force on every node, N, 3 per node. */
   readonly write: (context: ForceTermContext, forceN: Float64Array) => void;
+  /** False when the term is zero throughout for this model and world; the ledger then skips it. */
+  readonly acts: (model: Model, world: World) => boolean;
+}
+
+const always = (): boolean => true;
+
+function anyPositive(values: Float64Array): boolean {
+  for (let j = 0; j < values.length; j++) if (values[j] !== 0) return true;
+  return false;
 }
 
 function writeBodyTerm(context: ForceTermContext, forceN: Float64Array, kind: 0 | 1 | 2): void {
@@ -44,10 +53,15 @@ function writeBodyTerm(context: ForceTermContext, forceN: Float64Array, kind: 0 
       forceN[o] = 0; forceN[o + 1] = 0; forceN[o + 2] = 0;
       continue;
     }
-    for (let k = 0; k < 3; k++) {
-      if (kind === 0) forceN[o + k] = model.massKg[i] * g[k];
-      else if (kind === 1) forceN[o + k] = -density * model.nodeVolumeM3[i] * g[k];
-      else forceN[o + k] = -model.massKg[i] * world.airDragPerS * v[o + k];
+    if (kind === 0) {
+      const m = model.massKg[i];
+      forceN[o] = m * g[0]; forceN[o + 1] = m * g[1]; forceN[o + 2] = m * g[2];
+    } else if (kind === 1) {
+      const w = -density * model.nodeVolumeM3[i];
+      forceN[o] = w * g[0]; forceN[o + 1] = w * g[1]; forceN[o + 2] = w * g[2];
+    } else {
+      const c = -model.massKg[i] * world.airDragPerS;
+      forceN[o] = c * v[o]; forceN[o + 1] = c * v[o + 1]; forceN[o + 2] = c * v[o + 2];
     }
   }
 }
@@ -70,36 +84,43 @@ export const FORCE_TERMS: readonly ForceTerm[] = [
     name: 'elastic', role: 'conservative', potential: 'elastic',
     counts: 'Hooke part k·(L − L0) of every spring force',
     write: (context, out) => writeSpringForcePart(context.model, SPRING_PART_ELASTIC, out),
+    acts: (model) => model.springCount > 0,
   },
   {
     name: 'gravity', role: 'conservative', potential: 'gravitational',
     counts: 'm·g on every free node',
     write: (context, out) => writeBodyTerm(context, out, 0),
+    acts: always,
   },
   {
     name: 'buoyancy', role: 'conservative', potential: 'buoyancy',
     counts: '−ρ_fluid·V·g on every free node when buoyancy acts',
     write: (context, out) => writeBodyTerm(context, out, 1),
+    acts: (model, world) => buoyantDensityKgPerM3(world) > 0 && anyPositive(model.nodeVolumeM3),
   },
   {
     name: 'handle', role: 'input',
     counts: 'control forces on handle nodes',
     write: writeHandleTerm,
+    acts: (model) => model.handleNodes.length > 0,
   },
   {
     name: 'spring_damping', role: 'dissipative',
     counts: 'damping part c·(Δv·n) of every spring force',
     write: (context, out) => writeSpringForcePart(context.model, SPRING_PART_DAMPING, out),
+    acts: (model) => anyPositive(model.dampingNsPerM),
   },
   {
     name: 'air_drag', role: 'dissipative',
     counts: 'mass-proportional drag −m·c·v on every free node',
     write: (context, out) => writeBodyTerm(context, out, 2),
+    acts: (_model, world) => world.airDragPerS > 0,
   },
   {
     name: 'fluid_drag', role: 'dissipative',
     counts: 'resistive-force drag of the fluid on the surface panels',
     write: writeFluidTerm,
+    acts: (model, world) => world.fluid.enabled && model.panelCount > 0,
   },
 ];
 

@@ -34,9 +34,9 @@ export class Simulator {
     this.drivenVelocityMPerS = new Float64Array(3 * model.drivenNodes.length);
   }
 
-  /** Starts energy accounting and force recording from the current state; returns the ledger. */
-  enableLedger(): StepLedger {
-    this.ledger = new StepLedger(this.model, this.world, this.handleForceN);
+  /** Starts energy accounting (and force recording unless told not to) from the current state. */
+  enableLedger(recordForces = true): StepLedger {
+    this.ledger = new StepLedger(this.model, this.world, this.handleForceN, recordForces);
     return this.ledger;
   }
 

@@ -39,11 +39,18 @@ export class StepLedger {
   private readonly termForceN: Float64Array[];
   private readonly velocityBeforeMPerS: Float64Array;
   private readonly velocityAfterForcesMPerS: Float64Array;
+  /** (v + v*)/2·dt per free node this sub-step, 0 for pinned and driven nodes, m. */
+  private readonly displacementM: Float64Array;
   private readonly tensionN: Float64Array;
   private readonly drivenStartM: Float64Array;
   private readonly context: ForceTermContext;
+  /** Indices of the terms that act in this model and world; the others stay zero. */
+  private readonly activeTerms: number[];
+  private readonly recordForces: boolean;
 
-  constructor(model: Model, world: World, handleForceN: Float64Array) {
+  constructor(model: Model, world: World, handleForceN: Float64Array, recordForces = true) {
+    this.recordForces = recordForces;
+    this.activeTerms = FORCE_TERMS.map((term, t) => (term.acts(model, world) ? t : -1)).filter((t) => t >= 0);
     const n3 = 3 * model.nodeCount;
     this.contactNormalDvMPerS = new Float64Array(n3);
     this.contactFrictionDvMPerS = new Float64Array(n3);
@@ -54,6 +61,7 @@ export class StepLedger {
     this.termForceN = FORCE_TERMS.map(() => new Float64Array(n3));
     this.velocityBeforeMPerS = new Float64Array(n3);
     this.velocityAfterForcesMPerS = new Float64Array(n3);
+    this.displacementM = new Float64Array(n3);
     this.tensionN = new Float64Array(model.springCount);
     this.drivenStartM = new Float64Array(3 * model.drivenNodes.length);
     this.context = { model, world, handleForceN };
@@ -62,7 +70,7 @@ export class StepLedger {
   /** At the start-of-step state, after the step summed its forces. */
   beginStep(dtS: number): void {
     const model = this.context.model;
-    for (let t = 0; t < FORCE_TERMS.length; t++) FORCE_TERMS[t].write(this.context, this.termForceN[t]);
+    for (const t of this.activeTerms) FORCE_TERMS[t].write(this.context, this.termForceN[t]);
     this.velocityBeforeMPerS.set(model.velocityMPerS);
     this.contactNormalDvMPerS.fill(0);
     this.contactFrictionDvMPerS.fill(0);
@@ -70,6 +78,7 @@ export class StepLedger {
     for (let d = 0; d < driven.length; d++) {
       for (let k = 0; k < 3; k++) this.drivenStartM[3 * d + k] = model.positionM[3 * driven[d] + k];
     }
+    if (!this.recordForces) return;
     writeSpringTensions(model, this.tensionN);
     for (let s = 0; s < this.tensionN.length; s++) this.tensionImpulseNS[s] += this.tensionN[s] * dtS;
     const fluid = this.termForceN[FLUID_TERM];
@@ -84,16 +93,18 @@ export class StepLedger {
     const before = this.velocityBeforeMPerS;
     this.velocityAfterForcesMPerS.set(v);
     const invM = model.inverseMassPerKg;
-    for (let t = 0; t < FORCE_TERMS.length; t++) {
+    const dx = this.displacementM;
+    for (let i = 0; i < model.nodeCount; i++) {
+      const o = 3 * i;
+      const free = invM[i] !== 0;
+      dx[o] = free ? 0.5 * (before[o] + v[o]) * dtS : 0;
+      dx[o + 1] = free ? 0.5 * (before[o + 1] + v[o + 1]) * dtS : 0;
+      dx[o + 2] = free ? 0.5 * (before[o + 2] + v[o + 2]) * dtS : 0;
+    }
+    for (const t of this.activeTerms) {
       const f = this.termForceN[t];
       let work = 0;
-      for (let i = 0; i < model.nodeCount; i++) {
-        if (invM[i] === 0) continue;
-        const o = 3 * i;
-        work += f[o] * (0.5 * (before[o] + v[o]) * dtS)
-          + f[o + 1] * (0.5 * (before[o + 1] + v[o + 1]) * dtS)
-          + f[o + 2] * (0.5 * (before[o + 2] + v[o + 2]) * dtS);
-      }
+      for (let j = 0; j < dx.length; j++) work += f[j] * dx[j];
       this.flowsJ[t] += FORCE_TERMS[t].role === 'dissipative' ? -work : work;
     }
   }
@@ -119,6 +130,7 @@ export class StepLedger {
       const e2 = v[o] * v[o] + v[o + 1] * v[o + 1] + v[o + 2] * v[o + 2];
       normalJ += 0.5 * m[i] * (s2 - m2);
       frictionJ += 0.5 * m[i] * (m2 - e2);
+      if (!this.recordForces) continue;
       for (let k = 0; k < 3; k++) {
         this.contactNormalImpulseNS[o + k] += m[i] * dn[o + k];
         this.contactFrictionImpulseNS[o + k] += m[i] * df[o + k];
@@ -140,7 +152,7 @@ export class StepLedger {
       const dy = x[o + 1] - this.drivenStartM[3 * d + 1];
       const dz = x[o + 2] - this.drivenStartM[3 * d + 2];
       supportJ -= forceN[o] * dx + forceN[o + 1] * dy + forceN[o + 2] * dz;
-      for (let t = 0; t < FORCE_TERMS.length; t++) {
+      for (const t of this.activeTerms) {
         const f = this.termForceN[t];
         const work = f[o] * dx + f[o + 1] * dy + f[o + 2] * dz;
         this.flowsJ[t] += FORCE_TERMS[t].role === 'dissipative' ? -work : work;

@@ -103,7 +103,7 @@ export function recordTrajectory(model: Model, world: World, controls: Float64Ar
   const velocityMPerS = new Float64Array((steps + 1) * n * 3);
   const energiesJ = new Float64Array((steps + 1) * ENERGY_TERM_COUNT);
   const control = new Float64Array(channels);
-  const ledger = settings.energyAccounting || settings.recordForces ? simulator.enableLedger() : null;
+  const ledger = settings.energyAccounting || settings.recordForces ? simulator.enableLedger(settings.recordForces === true) : null;
   const energyFlowsJ = settings.energyAccounting ? new Float64Array((steps + 1) * FLOW_COLUMN_COUNT) : null;
   const forces: RecordedForces | null = settings.recordForces
     ? {
