@@ -3,6 +3,8 @@
 // The caller sets a control vector once per control interval (zero-order hold for forces and
 // actuators; driven nodes move linearly to their new target over the interval) and then
 // advances a number of equal sub-steps. All buffers are allocated in the constructor.
+// An optional StepLedger (energy accounting, force recording) is consulted through one null
+// check per hook; without it the step runs exactly the operations it always did.
 import type { Model } from './model.ts';
 import type { World } from './world.ts';
 import { writeBodyForces } from './body-forces.ts';
@@ -10,6 +12,8 @@ import { accumulateSpringForces } from './spring-forces.ts';
 import { accumulateBendingForces, accumulateClampForces } from './bending-forces.ts';
 import { accumulateFluidDrag } from './fluid-drag.ts';
 import { projectGroundContact } from './ground-contact.ts';
+import { projectObstacleContact } from './obstacle-contact.ts';
+import { StepLedger } from './step-ledger.ts';
 import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
 
 export class Simulator {
@@ -18,6 +22,9 @@ export class Simulator {
   private readonly drivenStartM: Float64Array;
   private readonly drivenTargetM: Float64Array;
   private readonly drivenVelocityMPerS: Float64Array;
+  private readonly obstacleNormal = new Float64Array(3);
+  /** Energy accounting and force recording; null (the default) costs nothing. */
+  ledger: StepLedger | null = null;
   timeS = 0;
 
   constructor(readonly model: Model, readonly world: World) {
@@ -26,6 +33,12 @@ export class Simulator {
     this.drivenStartM = new Float64Array(3 * model.drivenNodes.length);
     this.drivenTargetM = Float64Array.from(model.drivenOriginM);
     this.drivenVelocityMPerS = new Float64Array(3 * model.drivenNodes.length);
+  }
+
+  /** Starts energy accounting (and force recording unless told not to) from the current state. */
+  enableLedger(recordForces = true): StepLedger {
+    this.ledger = new StepLedger(this.model, this.world, this.handleForceN, recordForces);
+    return this.ledger;
   }
 
   /** Applies a control vector (length ≥ model.controlChannelCount) until the next call. */
@@ -54,7 +67,10 @@ export class Simulator {
     }
     for (let s = 0; s < substeps; s++) {
       this.step(dtS);
-      if (driven.length > 0) this.placeDrivenNodes((s + 1) / substeps);
+      if (driven.length > 0) {
+        this.placeDrivenNodes((s + 1) / substeps);
+        if (this.ledger !== null) this.ledger.afterSupportsMoved(this.forceN);
+      }
     }
   }
 
@@ -76,9 +92,21 @@ export class Simulator {
       f[o + 1] += hf[3 * h + 1];
       f[o + 2] += hf[3 * h + 2];
     }
-    if (world.ground.enabled) {
+    const ledger = this.ledger;
+    if (ledger !== null) {
+      ledger.beginStep(dtS);
       updateVelocities(model, f, dtS);
-      projectGroundContact(model, world.ground, dtS);
+      ledger.afterForceUpdate(dtS);
+      if (world.ground.enabled) projectGroundContact(model, world.ground, dtS, ledger.contactNormalDvMPerS, ledger.contactFrictionDvMPerS);
+      if (world.obstacles.length > 0) {
+        projectObstacleContact(model, world.obstacles, dtS, this.obstacleNormal, ledger.contactNormalDvMPerS, ledger.contactFrictionDvMPerS);
+      }
+      ledger.afterContact();
+      updatePositions(model, dtS);
+    } else if (world.ground.enabled || world.obstacles.length > 0) {
+      updateVelocities(model, f, dtS);
+      if (world.ground.enabled) projectGroundContact(model, world.ground, dtS);
+      if (world.obstacles.length > 0) projectObstacleContact(model, world.obstacles, dtS, this.obstacleNormal);
       updatePositions(model, dtS);
     } else {
       updateVelocitiesAndPositions(model, f, dtS);
