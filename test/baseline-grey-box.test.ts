@@ -35,7 +35,8 @@ const AIR = {
   description: 'Korrin Bay test tank: a tether probe swung in air above the tank. Invented numbers for demonstration.',
   system: { kind: 'chain', partCount: 6, lengthM: 1.2, totalMassKg: 0.3, axialStiffnessN: { kind: 'uniform', min: 500, max: 1500 }, secondNeighbourSpringRatio: 0.05, dampingRatio: { kind: 'uniform', min: 0.05, max: 0.2 }, diameterM: 0.008, anchor: 'top-driven', originM: [0, 2, 0], directionUnit: [1, -1, 0], drivenAxes: ['x', 'z'] },
   world: { gravityMPerS2: [0, { kind: 'uniform', min: -10.5, max: -8.5 }, 0], airDragPerS: { kind: 'uniform', min: 0.1, max: 0.5 } },
-  controls: { default: { kind: 'band-limited', cutoffHz: 1.5, std: 0.05, componentCount: 8 } },
+  // No ramp-in: the noise test below was calibrated on the drive at full strength from t = 0.
+  controls: { rampInS: 0, default: { kind: 'band-limited', cutoffHz: 1.5, std: 0.05, componentCount: 8 } },
   time: { recordIntervalS: 0.001, recordedSteps: 400, substeps: 1 },
   initialState: { velocityNoiseMPerS: 0.05 },
   episodes: 3,

@@ -189,7 +189,8 @@ describe('bad flags at the command line', () => {
     ['--shard auto on Kubernetes without a count', ['--shard', 'auto'], { JOB_COMPLETION_INDEX: '1' }, /give --shard-count N or set PLIANT_SHARD_COUNT/],
     ['--shard auto on Slurm beyond the count', ['--shard', 'auto'], { SLURM_ARRAY_TASK_ID: '4', SLURM_ARRAY_TASK_COUNT: '4' }, /shard index 4 is not below the shard count 4/],
     ['--resume with --force', ['--resume', '--force'], {}, /give --resume or --force, not both/],
-    ['an unknown option', ['--wokers', '2'], {}, /unknown option "--wokers"/],
+    ['an unknown option, with the nearest one offered', ['--wokers', '2'], {}, /unknown option "--wokers" \(did you mean "--workers"\?\); see `pliant generate --help`/],
+    ['an unknown option nothing is near', ['--frobnicate'], {}, /unknown option "--frobnicate"; see/],
   ];
   for (const [name, flags, env, message] of FLAG_CASES) {
     it(`${name}: exit 2 with a message and no folder`, async () => {

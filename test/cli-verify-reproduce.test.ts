@@ -79,6 +79,29 @@ describe('pliant verify', () => {
     expect(outcome.stderr).toContain('checksum mismatch: seed.json');
   });
 
+  it('catches an edited label (the episode records have a SHA-256 of their own) and a file the manifest does not list', async () => {
+    const dir = copyOf('edited-label');
+    const manifest = manifestOf(dir);
+    expect(manifest.episodeRecordsSha256).toMatch(/^[0-9a-f]{64}$/);
+    const record = manifest.episodes.find((e) => e.status === 'ok')!;
+    const [pointer, value] = Object.entries(record.labels).find(([, v]) => typeof v === 'number')!;
+    record.labels[pointer] = (value as number) * 1.01;
+    writeFileSync(join(dir, 'manifest.json'), `${JSON.stringify(manifest, null, 2)}\n`);
+    writeFileSync(join(dir, 'episodes', 'ep-999999.npz'), 'not listed');
+    const outcome = await cli(['verify', dir]);
+    expect(outcome.code).toBe(1);
+    expect(outcome.stderr).toContain('2 problems');
+    expect(outcome.stderr).toContain('manifest.json /episodeRecordsSha256: the episode records do not match the SHA-256 written beside them');
+    expect(outcome.stderr).toContain('episodes/ep-999999.npz is in the folder but not in the manifest');
+    // Writing the same records back in the same layout passes again: the digest is of the records.
+    record.labels[pointer] = value;
+    writeFileSync(join(dir, 'manifest.json'), `${JSON.stringify(manifest, null, 2)}\n`);
+    rmSync(join(dir, 'episodes', 'ep-999999.npz'));
+    const again = await cli(['verify', dir]);
+    expect(again.stderr).toBe('');
+    expect(again.stdout).toContain('and so do its episode records; no unlisted files');
+  });
+
   it('refuses a manifest that breaks its schema, naming the member', async () => {
     const dir = copyOf('bad-manifest');
     const m = manifestOf(dir) as any;
@@ -119,6 +142,24 @@ describe('pliant reproduce', () => {
     const different = lines.filter((l) => l.endsWith('different'));
     expect(different.map((l) => l.split(/\s+/)[0])).toEqual([target.path]);
     expect(lines.at(-1)).toMatch(/^1 of \d+ files differ$/);
+  });
+});
+
+describe('pliant reproduce with an edited seed file', () => {
+  it.skipIf(!python.available)('says the seed file no longer matches the SHA-256 the manifest recorded (hashlib), not only that files differ', async () => {
+    const dir = copyOf('edited-seed');
+    const seedPath = join(dir, 'seed.json');
+    const recorded = runReferencePython<string>('import hashlib, json, sys\nprint(json.dumps(hashlib.sha256(open(json.load(sys.stdin), "rb").read()).hexdigest()))', seedPath);
+    // A valid edit that changes the recipe: one more recorded step per episode.
+    const seed = JSON.parse(readFileSync(seedPath, 'utf8'));
+    seed.scenario.time.recordedSteps += 1;
+    writeFileSync(seedPath, `${JSON.stringify(seed, null, 2)}\n`);
+    const now = runReferencePython<string>('import hashlib, json, sys\nprint(json.dumps(hashlib.sha256(open(json.load(sys.stdin), "rb").read()).hexdigest()))', seedPath);
+    const outcome = await cli(['reproduce', seedPath, '--out', join(work, 'edited-seed-again'), '--workers', '1', '--progress', 'none']);
+    expect(outcome.code).toBe(1);
+    expect(outcome.stdout).toContain(`seed.json does not match the SHA-256 the dataset's manifest.json recorded for it (recorded ${recorded.slice(0, 12)}…, now ${now.slice(0, 12)}…)`);
+    expect(outcome.stdout).toContain('restore the seed.json the run wrote');
+    expect(outcome.stdout.trim().split('\n').at(-1)).toMatch(/files differ \(the seed file was edited: see above\)$/);
   });
 });
 

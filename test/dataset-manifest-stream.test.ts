@@ -12,6 +12,7 @@
 // The scanner itself is checked against JSON.parse (ECMA-262's JSON grammar, RFC 8259) on
 // arbitrary JSON values from fast-check, read one byte at a time so every chunk boundary,
 // including those inside multi-byte UTF-8 characters (RFC 3629), is crossed.
+import { createHash } from 'node:crypto';
 import { spawnSync } from 'node:child_process';
 import { copyFileSync, linkSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
@@ -85,16 +86,22 @@ beforeAll(async () => {
     linkSync(source, join(big, episodeNpzPath(episodeId(i, EPISODES))));
   }
   const splits = Object.fromEntries(Object.keys(real.splits).map((s) => [s, { ok: s === template.split ? EPISODES : 0, rejected: 0 }]));
+  function* records(): Generator<EpisodeRecord> {
+    for (let i = 0; i < EPISODES; i++) {
+      const id = episodeId(i, EPISODES);
+      yield { ...template, id, index: i, seed: { ...template.seed, episodeIndex: i }, files: [episodeNpzPath(id)] };
+    }
+  }
+  // The digest of the made-up records, as LAYOUT.md defines it: SHA-256 over each record's
+  // JSON.stringify text and a line feed.
+  const digest = createHash('sha256');
+  for (const record of records()) digest.update(`${JSON.stringify(record)}\n`);
   const manifest = {
     ...real,
     episodeCount: EPISODES,
     splits,
-    episodes: new StreamedList(function* (): Generator<EpisodeRecord> {
-      for (let i = 0; i < EPISODES; i++) {
-        const id = episodeId(i, EPISODES);
-        yield { ...template, id, index: i, seed: { ...template.seed, episodeIndex: i }, files: [episodeNpzPath(id)] };
-      }
-    }),
+    episodes: new StreamedList(records),
+    episodeRecordsSha256: digest.digest('hex'),
     files: new StreamedList(function* (): Generator<DataFileRecord> {
       for (let i = 0; i < EPISODES; i++) {
         const id = episodeId(i, EPISODES);

@@ -121,7 +121,9 @@ afterAll(() => rmSync(work, { recursive: true, force: true }));
 
 const OBSERVED = ['observed_time', 'observed_positions', 'observed_mask', 'observed_nodes'];
 // The arrays of a chain episode as sim/dataset/LAYOUT.md listed them before observations existed.
-const GROUND_TRUTH = ['time', 'positions', 'velocities', 'controls', 'energies', 'node_features', 'edges', 'edge_relation', 'edge_rest_length', 'edge_stiffness', 'edge_damping'];
+// Chains also carry their (possibly empty) hinge and clamp arrays.
+const GROUND_TRUTH = ['time', 'positions', 'velocities', 'controls', 'energies', 'node_features', 'edges', 'edge_relation', 'edge_rest_length', 'edge_stiffness', 'edge_damping',
+  'hinges', 'hinge_stiffness', 'hinge_damping', 'clamps', 'clamp_direction', 'clamp_stiffness', 'clamp_damping'];
 
 function npzArrays(manifest: DatasetManifest): string[][] {
   return manifest.files.filter((f) => f.kind === 'episode-npz').map((f) => f.arrays.map((a) => a.name));
@@ -470,7 +472,7 @@ for e in m["episodes"]:
 print(json.dumps({"compared": compared, "differ": differ}))
 `, { plain: plainDir, noisy: noisyDir });
     expect(result.differ).toEqual([]);
-    expect(result.compared).toBe(6 * 11);
+    expect(result.compared).toBe(6 * GROUND_TRUTH.length);
   });
 });
 

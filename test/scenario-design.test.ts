@@ -133,7 +133,7 @@ describe('sampling with a design', () => {
   it('adding a constant parameter moves nothing; a Latin hypercube keeps each parameter\'s strata when another distributed parameter joins', () => {
     for (const kind of ['latin-hypercube', 'sobol']) {
       const before = checked(tether({ design: { kind } }));
-      const withConstant = checked(tether({ design: { kind } }, { bendingStiffnessRatio: 0.05 }));
+      const withConstant = checked(tether({ design: { kind } }, { secondNeighbourSpringRatio: 0.05 }));
       for (let i = 0; i < 10; i++) {
         const a = sampleEpisode(before, i).labels;
         const b = sampleEpisode(withConstant, i).labels;
@@ -141,7 +141,7 @@ describe('sampling with a design', () => {
       }
     }
     const before = checked(tether({ design: { kind: 'latin-hypercube' } }));
-    const joined = checked(tether({ design: { kind: 'latin-hypercube' } }, { bendingStiffnessRatio: { kind: 'uniform', min: 0, max: 0.1 } }));
+    const joined = checked(tether({ design: { kind: 'latin-hypercube' } }, { secondNeighbourSpringRatio: { kind: 'uniform', min: 0, max: 0.1 } }));
     for (let i = 0; i < 10; i++) expect(sampleEpisode(joined, i).labels['/system/lengthM']).toBe(sampleEpisode(before, i).labels['/system/lengthM']);
   });
 

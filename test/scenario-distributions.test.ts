@@ -26,7 +26,7 @@ function sweep(): Scenario {
       anchor: 'top-driven',
       drivenAxes: ['x'],
     },
-    controls: { default: { kind: 'constant', value: { kind: 'uniform', min: 0.05, max: 0.15 } } },
+    controls: { rampInS: 0, default: { kind: 'constant', value: { kind: 'uniform', min: 0.05, max: 0.15 } } },
     time: { recordIntervalS: 0.02, recordedSteps: 4 },
     episodes: EPISODES,
     seed: 20260817,

@@ -27,6 +27,7 @@ export const BENCH_KNOWN_PARAMETERS = { '/system/partCount': 12, '/system/totalM
 export const BENCH_TRUE_VALUES: Record<string, number> = {
   '/system/lengthM': 2.1,
   '/system/axialStiffnessN': 6500,
+  '/system/bendingStiffnessNm2': 0.006,
   '/system/dampingRatio': 0.11,
   '/world/gravityMPerS2/1': -9.81,
   '/world/fluid/normalDragNsPerM3': 1150,
@@ -95,7 +96,7 @@ export function makeKorrinTetherBench(scenario: Scenario): BenchFiles {
   const descriptor = {
     measurementFormat: 1,
     description:
-      'INVENTED FOR THE DEMO, not a real measurement. Korrin Bay test tank: the inspection rover\'s tether (12 parts as built, weighed at 0.25 kg) hanging from the rover\'s clamp, which drags its top about in x and z. Four markers tracked at 50 Hz for 2 s. Made by scenarios/bench/make-korrin-tether-bench.ts from chosen "true" values (length 2.1 m, axial stiffness 6500 N, damping ratio 0.11, gravity -9.81 m/s², normal drag 1150 N·s/m³) plus 1 mm of normal noise per coordinate.',
+      'INVENTED FOR THE DEMO, not a real measurement. Korrin Bay test tank: the inspection rover\'s tether (12 parts as built, weighed at 0.25 kg) hanging from the rover\'s clamp, which drags its top about in x and z. Four markers tracked at 50 Hz for 2 s. Made by scenarios/bench/make-korrin-tether-bench.ts from chosen "true" values (length 2.1 m, axial stiffness 6500 N, bending rigidity 0.006 N·m², damping ratio 0.11, gravity -9.81 m/s², normal drag 1150 N·s/m³) plus 1 mm of normal noise per coordinate.',
     sampleRateHz: BENCH_SAMPLE_RATE_HZ,
     table: BENCH_TABLE_FILE,
     markers: MARKERS,

@@ -1,5 +1,6 @@
 // Splits a sub-command's arguments into positionals and options by a small declared table, so
 // every command reports unknown, repeated or value-less options in the same words.
+import { didYouMean } from './closest-name.ts';
 import { CliUsageError } from './command.ts';
 
 export interface OptionTable {
@@ -37,7 +38,7 @@ export function parseArguments(command: string, args: readonly string[], table: 
       parsed.switches.add(name);
       continue;
     }
-    if (!table.valued.includes(name)) throw new CliUsageError(`unknown option "${name}"; ${hint}`);
+    if (!table.valued.includes(name)) throw new CliUsageError(`unknown option "${name}"${didYouMean(name, [...table.valued, ...table.switches])}; ${hint}`);
     let value: string | undefined;
     if (equals !== -1) value = arg.slice(equals + 1);
     else if (i + 1 < args.length && !args[i + 1].startsWith('--')) value = args[++i];

@@ -4,6 +4,7 @@ import { COMMANDS } from './commands.ts';
 import { CliUsageError } from './command.ts';
 import type { CliIo } from './command.ts';
 import { PLIANT_VERSION } from './version.ts';
+import { didYouMean } from './closest-name.ts';
 
 export function defaultIo(): CliIo {
   return {
@@ -36,7 +37,13 @@ export function helpText(): string {
 
 export async function runCli(argv: string[], io: CliIo = defaultIo()): Promise<number> {
   const [name, ...rest] = argv;
-  if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
+  // With no command there is nothing to run: the help goes to stderr and the status is a usage
+  // error's, so a script that forgot its command does not pass (common practice, no source).
+  if (name === undefined) {
+    io.stderr(helpText());
+    return 2;
+  }
+  if (name === '--help' || name === '-h' || name === 'help') {
     io.stdout(helpText());
     return 0;
   }
@@ -46,7 +53,7 @@ export async function runCli(argv: string[], io: CliIo = defaultIo()): Promise<n
   }
   const command = COMMANDS.find((c) => c.name === name);
   if (!command) {
-    io.stderr(`pliant: unknown command "${name}". Commands: ${COMMANDS.map((c) => c.name).join(', ')}. Run \`pliant --help\`.\n`);
+    io.stderr(`pliant: unknown command "${name}"${didYouMean(name, COMMANDS.map((c) => c.name))}. Commands: ${COMMANDS.map((c) => c.name).join(', ')}. Run \`pliant --help\`.\n`);
     return 2;
   }
   if (rest.includes('--help') || rest.includes('-h')) {

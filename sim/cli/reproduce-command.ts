@@ -9,7 +9,7 @@ import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
 import { PLIANT_VERSION } from './version.ts';
-import { reproduceDataset } from '../dataset/reproduce-dataset.ts';
+import { reproduceDataset, seedEditedWords } from '../dataset/reproduce-dataset.ts';
 
 export const reproduceCommand: CliCommand = {
   name: 'reproduce',
@@ -53,10 +53,12 @@ export const reproduceCommand: CliCommand = {
     if (report.seedVersion !== PLIANT_VERSION) {
       io.stdout(`note: the seed file was written by Pliant ${report.seedVersion}, this is ${PLIANT_VERSION}\n`);
     }
+    const seedEdited = report.seedFile.matches === false;
+    if (seedEdited) io.stdout(`${seedEditedWords(report.seedFile)}\n`);
     const width = Math.max(...report.comparisons.map((c) => c.path.length));
     for (const c of report.comparisons) io.stdout(`${c.path.padEnd(width)}  ${c.result}\n`);
     const different = report.comparisons.filter((c) => c.result !== 'identical').length;
-    io.stdout(different === 0 ? `all ${report.comparisons.length} files identical\n` : `${different} of ${report.comparisons.length} files differ\n`);
+    io.stdout(different === 0 ? `all ${report.comparisons.length} files identical\n` : `${different} of ${report.comparisons.length} files differ${seedEdited ? ' (the seed file was edited: see above)' : ''}\n`);
     return different === 0 ? 0 : 1;
   },
 };

@@ -1,7 +1,6 @@
 // Reads and checks a scenario file named on the command line. Problems come back in the one
 // wording the app also shows (file:line:column pointer: message), ready to print; problems found
 // later (a replay file that cannot be read) are placed in the same file the same way.
-import { readFile, stat } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
 import { checkScenarioText } from '../scenario/check-scenario.ts';
 import { parseJsonText, placeProblems } from '../scenario/json-source-map.ts';
@@ -10,6 +9,11 @@ import { ScenarioProblemError, formatProblems } from '../scenario/scenario-probl
 import type { ScenarioProblem } from '../scenario/scenario-problem.ts';
 import type { CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
+import { MiB, readBoundedText } from '../dataset/bounded-text-file.ts';
+import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
+
+/** Scenario files are short documents; replay arrays live in files of their own. */
+export const MAX_SCENARIO_FILE_BYTES = 16 * MiB;
 
 export interface LoadedScenario {
   scenario: Scenario;
@@ -27,10 +31,9 @@ export async function loadScenarioFile(path: string, cwd: string): Promise<Scena
   const absolutePath = resolve(cwd, path);
   let text: string;
   try {
-    if ((await stat(absolutePath)).isDirectory()) throw new CliUsageError(`${path} is a folder; give a scenario .json file`);
-    text = await readFile(absolutePath, 'utf8');
+    text = readBoundedText(absolutePath, MAX_SCENARIO_FILE_BYTES, `the scenario file ${path}`);
   } catch (error) {
-    if (error instanceof CliUsageError) throw error;
+    if (error instanceof DatasetRequestError) throw new CliUsageError(`${error.message}${/folder/.test(error.message) ? ' (a scenario .json file)' : ''}`);
     const code = (error as NodeJS.ErrnoException).code;
     throw new CliUsageError(`cannot read the scenario file ${path}: ${code === 'ENOENT' ? 'it does not exist' : (error as Error).message}; check the path`);
   }

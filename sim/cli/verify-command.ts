@@ -22,7 +22,8 @@ export const verifyCommand: CliCommand = {
     const dir = parsed.positionals[0];
     const report = await withCliFailures('', () => verifyDataset(resolve(io.cwd, dir)));
     if (report.ok) {
-      io.stdout(`${dir}: ok — ${report.verifiedFileCount} files match the manifest's SHA-256\n`);
+      io.stdout(`${dir}: ok — ${report.verifiedFileCount} files match the manifest's SHA-256${report.episodeRecordsChecked ? ', and so do its episode records' : ''}; no unlisted files\n`);
+      if (!report.episodeRecordsChecked) io.stdout('note: this manifest predates the checksum of its episode records, so labels and splits were not checked; `pliant reproduce` checks them against the seed file\n');
       return 0;
     }
     io.stderr(`${dir}: ${report.problemCount} problem${report.problemCount === 1 ? '' : 's'}\n${report.problems.map((p) => `  ${p}`).join('\n')}\n`);

@@ -182,7 +182,9 @@ export function generateControlSignal(
     applyClip(out, channel, channelCount, stepCount, clip.min, clip.max);
     sampled.clip = clip.labels;
   }
-  applyRampIn(out, channel, channelCount, stepCount, recordIntervalS, options.rampInS ?? 0);
+  // A replayed table is a drive someone recorded or designed, start included (a bench drive
+  // being calibrated against, say): windowing it would simulate a drive that never ran.
+  if (spec.kind !== 'replay') applyRampIn(out, channel, channelCount, stepCount, recordIntervalS, options.rampInS ?? 0);
   return sampled;
 }
 

@@ -66,7 +66,7 @@ function rampInWords(scenario: Record<string, unknown>): string {
   const controls = (scenario.controls ?? {}) as Record<string, unknown>;
   const rampInS = typeof controls.rampInS === 'number' ? controls.rampInS : 0;
   if (rampInS > 0) {
-    return `Control signals ramp in: every channel's signal is multiplied by the raised-cosine window ½(1 − cos(π·t/${formatLabelNumber(rampInS)} s)) for the first ${formatLabelNumber(rampInS)} s of each episode, so the recorded \`controls\` start at 0 and episodes start without a jolt.`;
+    return `Control signals ramp in: every channel's signal is multiplied by the raised-cosine window ½(1 − cos(π·t/${formatLabelNumber(rampInS)} s)) for the first ${formatLabelNumber(rampInS)} s of each episode, so the recorded \`controls\` start at 0 and episodes start without a jolt. Replayed tables are used as written, without the ramp.`;
   }
   return 'Control signals start at full strength (no ramp-in: `controls.rampInS` is 0), so an episode may begin with a jump of its driven nodes or actuators.';
 }

@@ -30,6 +30,7 @@ import type { GenerationListener } from './generation-progress.ts';
 import { readFileBytes } from './read-file-bytes.ts';
 import { toDatasetWriteError } from './dataset-write-error.ts';
 import { StreamedList, writeStreamedJson } from './streamed-json.ts';
+import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from './episode-records-digest.ts';
 
 /** The episodes of the folder being finished, ascending by index, handed out one at a time. */
 export interface CompletionSource {
@@ -217,10 +218,14 @@ export async function finishDataset(request: FinishRequest): Promise<FinishedDat
       yield f;
     }
   }
+  // A first pass over the records for their digest, which is written right after them.
+  const digest = new EpisodeRecordsDigest();
+  for (const record of episodeRecords()) digest.add(record);
   // The members in the order JSON.stringify gave them when the manifest was one object.
   const manifest = {
     ...head,
     episodes: new StreamedList(episodeRecords),
+    [EPISODE_RECORDS_DIGEST_MEMBER]: digest.hex(),
     files: new StreamedList(fileRecords),
     documents,
     run: request.run,

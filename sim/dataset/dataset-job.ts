@@ -13,7 +13,7 @@ import { EpisodeBuildError } from './episode-product.ts';
 import { generateDataset } from './generate-dataset.ts';
 import type { GenerationEvent } from './generation-progress.ts';
 import { replayFilesOf } from './replay-inputs.ts';
-import { reproduceDataset } from './reproduce-dataset.ts';
+import { reproduceDataset, seedEditedWords } from './reproduce-dataset.ts';
 
 export type DatasetJob =
   | { kind: 'export'; scenarioText: string; outDir: string; format: 'npz' | 'hdf5' | 'both'; workers: number; resume: boolean }
@@ -88,7 +88,8 @@ export async function runDatasetJob(job: DatasetJob, post: (message: DatasetJobM
     }
     const different = report.comparisons.filter((c) => c.result !== 'identical');
     if (different.length > 0) {
-      post({ type: 'failed', message: `regenerated, but ${different.length} of ${report.comparisons.length} files are not identical: ${different.map((c) => `${c.path} (${c.result})`).join(', ')}` });
+      const why = report.seedFile.matches === false ? `${seedEditedWords(report.seedFile)}. ` : '';
+      post({ type: 'failed', message: `${why}Regenerated, but ${different.length} of ${report.comparisons.length} files are not identical: ${different.map((c) => `${c.path} (${c.result})`).join(', ')}` });
       return;
     }
     post({ type: 'done', done, total });

@@ -105,6 +105,8 @@ export interface DatasetManifest {
   splits: Record<string, { ok: number; rejected: number }>;
   scenario: unknown;
   episodes: EpisodeRecord[];
+  /** SHA-256 over the episode records (episode-records-digest.ts); absent in older manifests. */
+  episodeRecordsSha256?: string;
   files: DataFileRecord[];
   /** seed.json, CARD.md and copied inputs, with their checksums. */
   documents: (FileRecord | InputFileRecord)[];

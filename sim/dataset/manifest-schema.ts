@@ -147,6 +147,7 @@ export const MANIFEST_SCHEMA = {
     },
     scenario: { type: 'object', description: 'the resolved scenario the episodes were sampled from' },
     episodes: { type: 'array', items: episodeRecord },
+    episodeRecordsSha256: { type: 'string', pattern: '^[0-9a-f]{64}$', description: 'SHA-256 over the episode records, each as JSON.stringify gives it plus a line feed (absent in older manifests)' },
     files: {
       type: 'array',
       items: {

@@ -7,6 +7,7 @@
 //
 // The format is unchanged: this reads exactly what dataset-finish.ts writes (and any other
 // layout of the same JSON). `readFolderState` stays for the small readers of ordinary folders.
+import { EPISODE_RECORDS_DIGEST_MEMBER } from './episode-records-digest.ts';
 import { createHash } from 'node:crypto';
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import { join } from 'node:path';
@@ -37,6 +38,8 @@ export type ManifestEvent =
   | { kind: 'file'; position: number; record: StreamedFileRecord }
   | { kind: 'documents'; documents: (FileRecord | InputFileRecord)[] }
   | { kind: 'run'; run: Record<string, unknown> }
+  /** The SHA-256 the writer recorded over the episode records (episodeRecordsDigest). */
+  | { kind: 'episode-digest'; sha256: string }
   /** A piece that does not satisfy the schema, or a member out of place; it is left out. */
   | { kind: 'problem'; message: string };
 
@@ -47,7 +50,7 @@ export const MAX_MANIFEST_PIECE_BYTES = 64 * 1024 * 1024;
 const MAX_PIECE_DEPTH = 64;
 
 const HEAD_MEMBERS = ['manifestFormat', 'pliantVersion', 'name', 'description', 'masterSeed', 'episodeCount', 'shard', 'export', 'splits', 'scenario'] as const;
-const TOP_MEMBERS = new Set<string>([...HEAD_MEMBERS, 'episodes', 'files', 'documents', 'run']);
+const TOP_MEMBERS = new Set<string>([...HEAD_MEMBERS, 'episodes', EPISODE_RECORDS_DIGEST_MEMBER, 'files', 'documents', 'run']);
 
 function walked(path: JsonPath): boolean {
   if (path.length === 0) return true;
@@ -158,7 +161,10 @@ export function* readManifestStream(manifestPath: string): Generator<ManifestEve
         }
         if (event.kind !== 'value') continue;
         yield* giveHead();
-        if (top === 'documents') {
+        if (top === EPISODE_RECORDS_DIGEST_MEMBER) {
+          if (typeof event.value === 'string' && /^[0-9a-f]{64}$/.test(event.value)) yield { kind: 'episode-digest', sha256: event.value };
+          else yield { kind: 'problem', message: `${MANIFEST_FILE} /${top}: must be a SHA-256 in 64 lower-case hexadecimal digits` };
+        } else if (top === 'documents') {
           const found = problems(manifestPieceProblems('documents', event.value), '/documents');
           if (found.length > 0) yield* found;
           else yield { kind: 'documents', documents: event.value as (FileRecord | InputFileRecord)[] };

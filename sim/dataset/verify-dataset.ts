@@ -1,13 +1,16 @@
 // Checks a dataset folder against its manifest: the manifest against its schema, every listed
-// file for presence, size and SHA-256, and the cross references between episodes and files.
-// Any problem makes the report fail; nothing is repaired.
+// file for presence, size and SHA-256, the episode records (labels, splits, statuses) against
+// the SHA-256 written beside them, the cross references between episodes and files, and that
+// the folder holds no file the manifest does not list. Any problem makes the report fail;
+// nothing is repaired.
 //
 // The manifest is read as a stream (manifest-stream.ts), so a manifest of any size is checked
 // in memory that does not grow with it beyond two bytes per episode of the sweep (which
 // episodes were seen, their status and split, and which of their files are listed).
-import { stat } from 'node:fs/promises';
+import { readdir, stat } from 'node:fs/promises';
 import { join } from 'node:path';
-import { MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeNpzPath, splitHdf5Path } from './dataset-files.ts';
+import { LOCK_FILE, MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeNpzPath, splitHdf5Path } from './dataset-files.ts';
+import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from './episode-records-digest.ts';
 import { describeUnhashed, digestFile } from './file-digest.ts';
 import type { FileRecord, ManifestHead } from './dataset-manifest.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
@@ -33,7 +36,15 @@ export interface VerifyReport {
   problemCount: number;
   /** The same problems, each beside the file it is about. */
   findings: VerifyFinding[];
+  /**
+   * Whether the episode records were checked against their SHA-256; false for manifests
+   * written before Pliant recorded one (their labels and splits are then not covered).
+   */
+  episodeRecordsChecked: boolean;
 }
+
+/** A folder with more files than this is not searched for unlisted ones (the listed paths are held in memory). */
+const MAX_UNLISTED_SEARCH_FILES = 10_000_000;
 
 /** Beyond this many, problems are counted, not listed: a wholly wrong folder of 10^8 episodes must not fill memory with lines. */
 export const MAX_LISTED_PROBLEMS = 1000;
@@ -103,6 +114,12 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
   const splitCode = new Map<string, number>();
   const tally = new Map<string, { ok: number; rejected: number }>();
   let schemaFailed = false;
+  const digest = new EpisodeRecordsDigest();
+  let recordsChecked = false;
+  const listedPaths = new Set<string>([MANIFEST_FILE]);
+  const track = (path: unknown): void => {
+    if (typeof path === 'string' && listedPaths.size <= MAX_UNLISTED_SEARCH_FILES) listedPaths.add(path);
+  };
   try {
     for (const event of readManifestStream(manifestPath)) {
       switch (event.kind) {
@@ -119,6 +136,7 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
           break;
         case 'episode': {
           const e = event.record;
+          digest.add(e);
           const counts = tally.get(e.split) ?? { ok: 0, rejected: 0 };
           tally.set(e.split, counts);
           if (e.status === 'ok') counts.ok++;
@@ -160,11 +178,21 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
           else if (event.file.kind === 'split-hdf5' && path === splitHdf5Path(splitNames[splitOf[index]] ?? '')) flags[index] |= SPLIT_FILE_LISTED;
           break;
         }
+        case 'episode-digest':
+          recordsChecked = true;
+          if (!schemaFailed && digest.hex() !== event.sha256) {
+            findings.add(MANIFEST_FILE, `${MANIFEST_FILE} /${EPISODE_RECORDS_DIGEST_MEMBER}: the episode records do not match the SHA-256 written beside them: a label, split, status or other member of an episode record was changed after the run; regenerate the folder with \`pliant reproduce ${SEED_FILE}\``);
+          }
+          break;
         case 'file':
+          track(event.record.path);
           await check(event.record);
           break;
         case 'documents':
-          for (const document of event.documents) await check(document);
+          for (const document of event.documents) {
+            track(document.path);
+            await check(document);
+          }
           break;
         case 'run':
           break;
@@ -196,11 +224,36 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
     }
   }
   if (head && !(await isThere(join(dir, SEED_FILE)))) findings.add(SEED_FILE, 'seed.json is missing: the dataset cannot be regenerated');
-  return report(dir, findings, verified, checked);
+  if (listedPaths.size <= MAX_UNLISTED_SEARCH_FILES) {
+    for (const path of await folderFiles(dir)) {
+      if (!listedPaths.has(path)) findings.add(path, `${path} is in the folder but not in the manifest: it is not part of the dataset; move it elsewhere (or, if it should be, regenerate the folder)`);
+    }
+  }
+  return report(dir, findings, verified, checked, recordsChecked);
 }
 
-function report(dir: string, findings: Findings, verifiedFileCount: number, checkedFileCount: number): VerifyReport {
+/**
+ * Every file below `dir`, as paths relative to it with "/" between parts, in sorted order; the
+ * run's own work folder and lock file are not the dataset's and are left out. Links are listed,
+ * not followed.
+ */
+async function folderFiles(dir: string): Promise<string[]> {
+  const found: string[] = [];
+  const walk = async (relative: string): Promise<void> => {
+    const entries = await readdir(join(dir, relative), { withFileTypes: true }).catch(() => []);
+    for (const entry of entries) {
+      const path = relative === '' ? entry.name : `${relative}/${entry.name}`;
+      if (path === WORK_FOLDER || path === LOCK_FILE) continue;
+      if (entry.isDirectory()) await walk(path);
+      else found.push(path);
+    }
+  };
+  await walk('');
+  return found.sort();
+}
+
+function report(dir: string, findings: Findings, verifiedFileCount: number, checkedFileCount: number, episodeRecordsChecked = false): VerifyReport {
   const listed = [...findings.listed];
   if (findings.unlisted > 0) listed.push({ file: '', message: `… and ${findings.unlisted} more problems` });
-  return { dir, ok: findings.count === 0, verifiedFileCount, checkedFileCount, problems: listed.map((f) => f.message), problemCount: findings.count, findings: listed };
+  return { dir, ok: findings.count === 0, verifiedFileCount, checkedFileCount, problems: listed.map((f) => f.message), problemCount: findings.count, findings: listed, episodeRecordsChecked };
 }

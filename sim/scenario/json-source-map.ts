@@ -36,10 +36,45 @@ const SYNTAX_WORDS: Record<string, string> = {
   InvalidCharacter: 'control character inside a string; write it as an escape such as \\n or \\t',
 };
 
+/**
+ * Deepest nesting of objects and arrays read. Scenarios and the files beside them nest a few
+ * levels; the offset parser and the duplicate-key walk recurse, so thousands of levels would
+ * overflow the stack instead of getting a message.
+ */
+export const MAX_JSON_DEPTH = 100;
+
+const BYTE_ORDER_MARK = '\uFEFF';
+
+/** Offset of the bracket that opens level MAX_JSON_DEPTH + 1, or -1; strings are skipped. */
+function tooDeepAt(text: string): number {
+  let depth = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 0x5c) i += 1;
+      else if (c === 0x22) inString = false;
+    } else if (c === 0x22) inString = true;
+    else if (c === 0x7b || c === 0x5b) {
+      depth += 1;
+      if (depth > MAX_JSON_DEPTH) return i;
+    } else if (c === 0x7d || c === 0x5d) depth -= 1;
+  }
+  return -1;
+}
+
 /** Parses JSON text; the first syntax error (later ones are usually its echoes) or duplicate keys make it fail. */
-export function parseJsonText(text: string, fileName = 'the file'): ParsedJsonText {
+export function parseJsonText(rawText: string, fileName = 'the file'): ParsedJsonText {
+  // Some editors start UTF-8 files with a byte-order mark; it is not part of the JSON (RFC 8259
+  // §8.1 lets parsers ignore it), so it is dropped. Columns on line 1 are then off by one
+  // invisible character, which no one can see.
+  const text = rawText.startsWith(BYTE_ORDER_MARK) ? rawText.slice(1) : rawText;
   const lineStarts = lineStartOffsets(text);
   const at = (offset: number): SourcePosition => offsetToPosition(lineStarts, offset);
+  const deep = tooDeepAt(text);
+  if (deep !== -1) {
+    return { ok: false, problems: [{ pointer: '', message: `JSON nesting: more than ${MAX_JSON_DEPTH} levels of objects and arrays; ${fileName} cannot be a scenario or measurement file of Pliant's (they nest a few levels), check that it is the file you meant`, ...at(deep) }] };
+  }
   const errors: ParseError[] = [];
   const root = parseTree(text, errors, { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false });
   if (errors.length > 0 || root === undefined) {

@@ -287,7 +287,7 @@ const controlsSchema = closed(
       minimum: 0,
       maximum: 3600,
       default: DEFAULT_RAMP_IN_S,
-      description: `Every channel's signal (after its clip) is multiplied by a raised-cosine ramp ½(1 − cos(π·t/rampInS)) from 0 to 1 over the first rampInS seconds, so episodes start smoothly from the built state instead of with a jolt; 0 turns it off. Default ${DEFAULT_RAMP_IN_S} s.`,
+      description: `Every channel's signal (after its clip) is multiplied by a raised-cosine ramp ½(1 − cos(π·t/rampInS)) from 0 to 1 over the first rampInS seconds, so episodes start smoothly from the built state instead of with a jolt; 0 turns it off. Replayed tables are used as written, without the ramp. Default ${DEFAULT_RAMP_IN_S} s.`,
     },
   },
   [],

@@ -3,9 +3,13 @@
 // words each failure with the file and JSON pointer.
 import Ajv2020 from 'ajv/dist/2020.js';
 import type { ValidateFunction } from 'ajv';
-import { readFile } from 'node:fs/promises';
 import { writeFileAtomic } from '../../dataset/atomic-file.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
+import { MiB, readBoundedText } from '../../dataset/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+
+/** Below V8's longest string (about 512 MiB), so an oversized file is refused, not a crash. */
+const MAX_MODEL_FILE_BYTES = 256 * MiB;
 import type { BaselineModel } from './baseline-model.ts';
 import { BASELINE_MODEL_SCHEMA } from './baseline-model-schema.ts';
 import { snapshotSize, stateSize } from './linear-state.ts';
@@ -24,8 +28,9 @@ export function writeBaselineModel(path: string, model: BaselineModel): void {
 export async function readBaselineModel(path: string): Promise<BaselineModel> {
   let text: string;
   try {
-    text = await readFile(path, 'utf8');
+    text = readBoundedText(path, MAX_MODEL_FILE_BYTES, `${path}: the model file`);
   } catch (error) {
+    if (error instanceof DatasetRequestError) throw new BaselineInputError(error.message);
     const code = (error as { code?: string }).code ?? 'unreadable';
     throw new BaselineInputError(`${path}: the model file cannot be read (${code}); give the file \`pliant baseline fit --out\` wrote`);
   }

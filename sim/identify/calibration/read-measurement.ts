@@ -11,6 +11,11 @@ import { closestName } from '../../scenario/closest-name.ts';
 import { parseJsonText, placeProblems } from '../../scenario/json-source-map.ts';
 import { formatProblems } from '../../scenario/scenario-problem.ts';
 import { CalibrationInputError } from './calibration-input-error.ts';
+import { MiB, readBoundedText } from '../../dataset/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+
+/** A bench descriptor or CSV table: far below V8's longest string. */
+const MAX_MEASUREMENT_TEXT_BYTES = 256 * MiB;
 import type { MeasuredDrive, Measurement, MeasurementMarker } from './measurement.ts';
 import { MEASUREMENT_SCHEMA } from './measurement-schema.ts';
 import { parseMeasurementCsv } from './measurement-csv.ts';
@@ -112,8 +117,9 @@ export async function readMeasurement(path: string, cwd: string): Promise<Measur
 
 async function readText(absolute: string, shown: string, what: string): Promise<string> {
   try {
-    return await readFile(absolute, 'utf8');
+    return readBoundedText(absolute, MAX_MEASUREMENT_TEXT_BYTES, `the ${what} ${shown}`);
   } catch (error) {
+    if (error instanceof DatasetRequestError) throw new CalibrationInputError(error.message);
     const code = (error as NodeJS.ErrnoException).code;
     throw new CalibrationInputError(`cannot read the ${what} ${shown}: ${code === 'ENOENT' ? 'it does not exist' : code === 'EISDIR' ? 'it is a folder' : (error as Error).message}; check the path`);
   }

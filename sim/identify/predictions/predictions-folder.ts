@@ -1,9 +1,11 @@
 // What a predictions folder holds before any of it is decoded: the episode ids it has a file for
 // (`<episode id>.npz`) and the model's name and description from the optional predictions.json.
 // Listing first lets a scorer name every missing or extra episode before it reads one array.
-import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { readdirSync, statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { PredictionsError } from './predictions-error.ts';
+import { MiB, readBoundedText } from '../../dataset/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
 
 export const PREDICTIONS_FORMAT_VERSION = 1;
 export const PREDICTIONS_DESCRIPTION_FILE = 'predictions.json';
@@ -26,8 +28,9 @@ function describedModel(dir: string): { model: string; description: string } | n
   const path = join(dir, PREDICTIONS_DESCRIPTION_FILE);
   let text: string;
   try {
-    text = readFileSync(path, 'utf8');
-  } catch {
+    text = readBoundedText(path, 1 * MiB, path);
+  } catch (error) {
+    if (error instanceof DatasetRequestError) throw new PredictionsError(`${error.message} (${PREDICTIONS_DESCRIPTION_FILE} is a short JSON description)`);
     return null;
   }
   const fix = `write it as {"predictionsFormat": ${PREDICTIONS_FORMAT_VERSION}, "model": "short name", "description": "free text"} or remove it`;
