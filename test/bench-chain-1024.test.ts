@@ -32,7 +32,8 @@ describe('chain-1024 benchmark case', () => {
     const lines = run.stdout.split('\n').filter((line) => line !== '');
     expect(lines).toHaveLength(1);
     const line = JSON.parse(lines[0]) as Record<string, unknown>;
-    expect(Object.keys(line).sort()).toEqual(['case', 'checksum', 'seconds', 'spring_updates_per_s']);
+    expect(Object.keys(line).sort()).toEqual(['case', 'checksum', 'kernel', 'seconds', 'spring_updates_per_s']);
+    expect(line.kernel).toBe('js');
     expect(line.case).toBe('chain-1024');
     expect((line.checksum as number).toPrecision(6)).toBe(ISSUE_CHECKSUM_6_DIGITS);
     expect(Number.isInteger(line.spring_updates_per_s)).toBe(true);

@@ -5,6 +5,7 @@
 // friction act on its base. Fixed by definition; sub-steps come from the stability bound of
 // the built model (a deterministic function of it), so the checksum is reproducible.
 import { Simulator } from '../core/simulator.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import { defaultWorld } from '../core/world.ts';
 import type { World } from '../core/world.ts';
@@ -12,6 +13,7 @@ import { buildLattice } from '../systems/lattice.ts';
 import type { LatticeMaterial, MaterialMap3D } from '../systems/lattice.ts';
 import type { Model } from '../core/model.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';
+import { cpuSecondsSince } from './chain-1024.ts';
 
 export const LATTICE_CELLS_PER_SIDE = 8;
 export const LATTICE_CELL_M = 0.01;
@@ -45,39 +47,54 @@ export interface LatticeRun {
   steps: number;
   dtS: number;
   seconds: number;
+  /** CPU seconds of the process over the run (see cpuSecondsSince). */
+  cpuSeconds: number;
   checksum: number;
   /** Lowest node height at the end, m (the ground plane is at 0). */
   lowestYM: number;
 }
 
-/** Runs `intervals` control intervals (default: the case's two periods). */
-export function runLattice8x8x8(intervals = LATTICE_INTERVALS): LatticeRun {
+/** The case's sub-steps per control interval, from the stability bound of the built model. */
+export function latticeSubsteps(model: Model, world: World): number {
+  return autoSubsteps(LATTICE_CONTROL_INTERVAL_S, stabilityBound(model, world.airDragPerS));
+}
+
+/** The actuation of interval t: a zero-order hold of the sinusoid sampled at the interval's middle. */
+export function latticeControl(t: number): number {
+  return Math.sin(2 * Math.PI * LATTICE_ACTUATION_HZ * (t + 0.5) * LATTICE_CONTROL_INTERVAL_S);
+}
+
+/** Runs `intervals` control intervals (default: the case's two periods) with the given kernel (default js). */
+export function runLattice8x8x8(intervals = LATTICE_INTERVALS, kernel: StepKernel = 'js'): LatticeRun {
   const model = buildLattice8x8x8();
   const world = latticeWorld();
-  const substeps = autoSubsteps(LATTICE_CONTROL_INTERVAL_S, stabilityBound(model, world.airDragPerS));
-  const simulator = new Simulator(model, world);
+  const substeps = latticeSubsteps(model, world);
+  const simulator = new Simulator(model, world, { kernel });
   const controls = new Float64Array(model.controlChannelCount);
+  const cpuStart = process.cpuUsage();
   const start = performance.now();
   for (let t = 0; t < intervals; t++) {
-    // Zero-order hold of the sinusoid sampled at the middle of each interval.
-    controls[0] = Math.sin(2 * Math.PI * LATTICE_ACTUATION_HZ * (t + 0.5) * LATTICE_CONTROL_INTERVAL_S);
+    controls[0] = latticeControl(t);
     simulator.setControls(controls);
     simulator.advanceInterval(LATTICE_CONTROL_INTERVAL_S, substeps);
   }
   const seconds = (performance.now() - start) / 1000;
+  const cpuSeconds = cpuSecondsSince(cpuStart);
   let checksum = 0;
   let lowestYM = Infinity;
   const x = model.positionM;
   for (let i = 0; i < x.length; i++) checksum += x[i];
   for (let i = 1; i < x.length; i += 3) lowestYM = Math.min(lowestYM, x[i]);
-  return { nodes: model.nodeCount, springs: model.springCount, steps: intervals * substeps, dtS: LATTICE_CONTROL_INTERVAL_S / substeps, seconds, checksum, lowestYM };
+  return { nodes: model.nodeCount, springs: model.springCount, steps: intervals * substeps, dtS: LATTICE_CONTROL_INTERVAL_S / substeps, seconds, cpuSeconds, checksum, lowestYM };
 }
 
 export const lattice8x8x8Case: BenchmarkCase = {
   name: 'lattice-8x8x8',
-  async run() {
-    const run = runLattice8x8x8();
+  async run(options = {}) {
+    const kernel = options.kernel ?? 'js';
+    const run = runLattice8x8x8(LATTICE_INTERVALS, kernel);
     return {
+      kernel,
       spring_updates_per_s: Math.round((run.springs * run.steps) / run.seconds),
       seconds: Number(run.seconds.toFixed(4)),
       nodes: run.nodes,

@@ -20,6 +20,8 @@ const SOURCE_PATH = fileURLToPath(new URL('./native/chain_kernel.c', import.meta
 export interface NativeRun {
   springUpdatesPerS: number;
   seconds: number;
+  /** CPU seconds of the C process over the run. */
+  cpuSeconds: number;
   checksum: number;
 }
 
@@ -29,6 +31,11 @@ export type NativeBuild =
 
 /** Compiles the C kernel; the caller must call dispose() to remove the temporary folder. */
 export function buildNativeChainKernel(): NativeBuild {
+  return buildNativeKernel(SOURCE_PATH, 'chain_kernel');
+}
+
+/** Compiles one C source of native/ with NATIVE_FLAGS into a temporary folder. */
+export function buildNativeKernel(sourcePath: string, binaryName: string): NativeBuild {
   const probe = spawnSync(NATIVE_COMPILER, ['--version'], { encoding: 'utf8' });
   if (probe.error || probe.status !== 0) {
     return { ok: false, reason: `${NATIVE_COMPILER} not found on PATH; install it (Debian: apt-get install gcc) to compare the JavaScript kernel with its C build` };
@@ -36,24 +43,29 @@ export function buildNativeChainKernel(): NativeBuild {
   const compiler = probe.stdout.split('\n')[0].trim();
   const folder = mkdtempSync(join(tmpdir(), 'pliant-bench-'));
   const dispose = () => rmSync(folder, { recursive: true, force: true });
-  const binaryPath = join(folder, 'chain_kernel');
-  const compile = spawnSync(NATIVE_COMPILER, [...NATIVE_FLAGS, '-o', binaryPath, SOURCE_PATH, '-lm'], { encoding: 'utf8' });
+  const binaryPath = join(folder, binaryName);
+  const compile = spawnSync(NATIVE_COMPILER, [...NATIVE_FLAGS, '-o', binaryPath, sourcePath, '-lm'], { encoding: 'utf8' });
   if (compile.status !== 0) {
     dispose();
     const detail = (compile.stderr || String(compile.error ?? '')).trim().split('\n')[0];
-    return { ok: false, reason: `${NATIVE_COMPILER} could not compile ${SOURCE_PATH}: ${detail}` };
+    return { ok: false, reason: `${NATIVE_COMPILER} could not compile ${sourcePath}: ${detail}` };
   }
   return { ok: true, binaryPath, compiler, dispose };
 }
 
-/** Runs the compiled kernel once and parses the line it prints. */
-export function runNativeChainKernel(binaryPath: string, steps: number): NativeRun {
-  const run = spawnSync(binaryPath, [String(steps)], { encoding: 'utf8' });
+/** Runs the compiled kernel once ("bending": the chain-1024-bending case) and parses its line. */
+export function runNativeChainKernel(binaryPath: string, steps: number, variant: 'plain' | 'bending' = 'plain'): NativeRun {
+  const run = spawnSync(binaryPath, variant === 'bending' ? [String(steps), 'bending'] : [String(steps)], { encoding: 'utf8' });
   if (run.status !== 0) {
     throw new Error(`the C build of chain-1024 (${binaryPath}) exited with ${run.status}: ${run.stderr.trim()}`);
   }
-  const line = JSON.parse(run.stdout) as { spring_updates_per_s: number; seconds: number; checksum: number };
-  return { springUpdatesPerS: line.spring_updates_per_s, seconds: line.seconds, checksum: line.checksum };
+  return parseNativeLine(run.stdout);
+}
+
+/** The one JSON line a C kernel prints. */
+export function parseNativeLine(stdout: string): NativeRun {
+  const line = JSON.parse(stdout) as { spring_updates_per_s: number; seconds: number; cpu_seconds: number; checksum: number };
+  return { springUpdatesPerS: line.spring_updates_per_s, seconds: line.seconds, cpuSeconds: line.cpu_seconds, checksum: line.checksum };
 }
 
 export type BenchLine = Record<string, number | string>;
@@ -64,7 +76,11 @@ export type BenchLine = Record<string, number | string>;
  * on with its other cases.
  */
 export function withNativeChainKernel(measure: (binaryPath: string, compiler: string) => BenchLine): BenchLine {
-  const build = buildNativeChainKernel();
+  return withNativeKernel(buildNativeChainKernel(), measure);
+}
+
+/** withNativeChainKernel for any build of buildNativeKernel. */
+export function withNativeKernel(build: NativeBuild, measure: (binaryPath: string, compiler: string) => BenchLine): BenchLine {
   if (!build.ok) return { skipped: build.reason };
   try {
     return measure(build.binaryPath, build.compiler);

@@ -5,6 +5,10 @@
 // advances a number of equal sub-steps. All buffers are allocated in the constructor.
 // An optional StepLedger (energy accounting, force recording) is consulted through one null
 // check per hook; without it the step runs exactly the operations it always did.
+// The step runs in JavaScript (below, the specification) or in its WebAssembly build
+// (wasm/wasm-stepper.ts), chosen once per Simulator; both give the same bits. WebAssembly runs
+// only where it implements every pass this model and world need (wasm/wasm-kernel-coverage.ts):
+// a pass added here must be registered there, or the kernel stands aside for everything.
 import type { Model } from './model.ts';
 import type { World } from './world.ts';
 import { writeBodyForces } from './body-forces.ts';
@@ -15,6 +19,24 @@ import { projectGroundContact } from './ground-contact.ts';
 import { projectObstacleContact } from './obstacle-contact.ts';
 import { StepLedger } from './step-ledger.ts';
 import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
+import { resolveStepKernel } from './step-kernel-choice.ts';
+import type { StepKernel } from './step-kernel-choice.ts';
+import { WasmStepper } from './wasm/wasm-stepper.ts';
+import { wasmKernelCoverage } from './wasm/wasm-kernel-coverage.ts';
+
+export interface SimulatorOptions {
+  /**
+   * Default: 'wasm' where WebAssembly can run, else 'js'. 'wasm' is a preference: where the
+   * WebAssembly kernel lacks a pass this model or world needs, the JavaScript kernel runs
+   * (see kernelFallbackReason). Never changes a result.
+   */
+  kernel?: StepKernel;
+  /**
+   * Energy accounting from the start state, and force recording when `recordForces`. Books work
+   * inside the step, which only the JavaScript kernel does, so it runs JavaScript.
+   */
+  ledger?: { recordForces: boolean };
+}
 
 export class Simulator {
   readonly forceN: Float64Array;
@@ -23,28 +45,37 @@ export class Simulator {
   private readonly drivenTargetM: Float64Array;
   private readonly drivenVelocityMPerS: Float64Array;
   private readonly obstacleNormal = new Float64Array(3);
-  /** Energy accounting and force recording; null (the default) costs nothing. */
-  ledger: StepLedger | null = null;
+  /** Energy accounting and force recording (the `ledger` option); null costs nothing. */
+  readonly ledger: StepLedger | null;
+  /** The kernel this simulator steps with. */
+  readonly kernel: StepKernel;
+  /** Why WebAssembly was preferred but JavaScript runs; null otherwise. */
+  readonly kernelFallbackReason: string | null;
+  private readonly wasm: WasmStepper | null;
   timeS = 0;
 
-  constructor(readonly model: Model, readonly world: World) {
-    this.forceN = new Float64Array(3 * model.nodeCount);
-    this.handleForceN = new Float64Array(3 * model.handleNodes.length);
+  constructor(readonly model: Model, readonly world: World, options: SimulatorOptions = {}) {
+    const preferred = resolveStepKernel(options.kernel);
+    const coverage = preferred === 'wasm' ? wasmKernelCoverage(model, world, options as Readonly<Record<string, unknown>>) : null;
+    this.kernel = coverage === null || coverage.ok ? preferred : 'js';
+    this.kernelFallbackReason = coverage !== null && !coverage.ok ? coverage.reason : null;
+    this.wasm = this.kernel === 'wasm' ? new WasmStepper(model) : null;
+    // With WebAssembly the control code writes handle forces and driven targets into its memory.
+    this.forceN = this.wasm?.forceN ?? new Float64Array(3 * model.nodeCount);
+    this.handleForceN = this.wasm?.handleForceN ?? new Float64Array(3 * model.handleNodes.length);
     this.drivenStartM = new Float64Array(3 * model.drivenNodes.length);
-    this.drivenTargetM = Float64Array.from(model.drivenOriginM);
+    this.drivenTargetM = this.wasm?.drivenTargetM ?? Float64Array.from(model.drivenOriginM);
     this.drivenVelocityMPerS = new Float64Array(3 * model.drivenNodes.length);
-  }
-
-  /** Starts energy accounting (and force recording unless told not to) from the current state. */
-  enableLedger(recordForces = true): StepLedger {
-    this.ledger = new StepLedger(this.model, this.world, this.handleForceN, recordForces);
-    return this.ledger;
+    this.ledger = options.ledger !== undefined ? new StepLedger(model, world, this.handleForceN, options.ledger.recordForces) : null;
   }
 
   /** Applies a control vector (length ≥ model.controlChannelCount) until the next call. */
   setControls(controls: Float64Array): void {
     const model = this.model;
-    if (model.actuationEntryCount > 0) applyActuation(model, controls);
+    if (model.actuationEntryCount > 0) {
+      applyActuation(model, controls);
+      this.wasm?.syncRestLengths();
+    }
     writeHandleForces(model, controls, this.handleForceN);
     if (model.drivenNodes.length > 0) writeDrivenTargets(model, controls, this.drivenTargetM);
   }
@@ -52,6 +83,11 @@ export class Simulator {
   /** Advances one control interval of `substeps` equal steps, intervalS long in total. */
   advanceInterval(intervalS: number, substeps: number): void {
     const dtS = intervalS / substeps;
+    if (this.wasm !== null) {
+      this.wasm.advanceInterval(intervalS, substeps, this.world);
+      for (let s = 0; s < substeps; s++) this.timeS += dtS;
+      return;
+    }
     const model = this.model;
     const driven = model.drivenNodes;
     const x = model.positionM;
@@ -74,8 +110,26 @@ export class Simulator {
     }
   }
 
+  /**
+   * `count` steps of length dtS with no control change in between. With WebAssembly the state
+   * crosses into its memory once for all of them instead of once per step.
+   */
+  advanceSteps(dtS: number, count: number): void {
+    if (this.wasm !== null) {
+      this.wasm.advanceSteps(dtS, count, this.world);
+      for (let s = 0; s < count; s++) this.timeS += dtS;
+      return;
+    }
+    for (let s = 0; s < count; s++) this.step(dtS);
+  }
+
   /** One semi-implicit Euler step of length dtS. */
   step(dtS: number): void {
+    if (this.wasm !== null) {
+      this.wasm.step(dtS, this.world);
+      this.timeS += dtS;
+      return;
+    }
     const model = this.model;
     const world = this.world;
     const f = this.forceN;

@@ -6,6 +6,7 @@ import type { EpisodeRecord, ExportDtype, StoredDtype } from './dataset-manifest
 import { produceEpisode } from './episode-product.ts';
 import { encodeEpisodeNpz } from './episode-npz.ts';
 import type { ReplayTable } from './replay-inputs.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 
 export interface ArrayLayout {
   name: string;
@@ -21,8 +22,8 @@ export interface EpisodeOutcome {
   npz: Uint8Array | null;
 }
 
-export function computeEpisodeOutcome(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable): EpisodeOutcome {
-  const product = produceEpisode(scenario, index, dtype, replay);
+export function computeEpisodeOutcome(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable, kernel?: StepKernel): EpisodeOutcome {
+  const product = produceEpisode(scenario, index, dtype, replay, kernel);
   if (product.arrays === null) return { record: product.record, arrays: [], npz: null };
   return {
     record: product.record,

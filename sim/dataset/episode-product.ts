@@ -15,6 +15,7 @@ import { episodeArrays } from './episode-arrays.ts';
 import type { EpisodeArray } from './episode-arrays.ts';
 import { episodeId } from './dataset-files.ts';
 import type { ReplayTable } from './replay-inputs.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 
 export interface EpisodeProduct {
   record: EpisodeRecord;
@@ -49,10 +50,10 @@ function rejectionOf(error: SimulationBlowUpError): EpisodeRejection {
   };
 }
 
-export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable): EpisodeProduct {
+export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable, kernel?: StepKernel): EpisodeProduct {
   let sampled;
   try {
-    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file) });
+    sampled = sampleEpisode(scenario, index, { replay: (file) => replay.lookup(file), kernel });
   } catch (error) {
     throw EpisodeBuildError.of(index, error);
   }
@@ -84,7 +85,7 @@ export function produceEpisode(scenario: Scenario, index: number, dtype: ExportD
   };
   try {
     const start = sampled.richardson ? startStateOf(model) : null;
-    const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording);
+    const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording, kernel);
     const arrays = episodeArrays(trajectory, graph, model.cellCornerCount, dtype, observeEpisode(sampled, trajectory));
     const richardson = start === null ? null : richardsonEstimate(model, start, sampled.world, sampled.controls, sampled.recording, trajectory);
     return { record: { ...record, labels: { ...record.labels, ...numericsLabels(trajectory, richardson) } }, arrays };

@@ -8,6 +8,7 @@
 import type { Model } from '../core/model.ts';
 import type { World } from '../core/world.ts';
 import { Simulator } from '../core/simulator.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import { ENERGY_BASE_COUNT, ENERGY_NAMES, ENERGY_TERM_COUNT, measureEnergies } from '../core/energy.ts';
 import { FLOW_COLUMN_COUNT } from '../core/energy-flows.ts';
@@ -88,7 +89,8 @@ export function resolveSubsteps(model: Model, world: World, settings: RecordingS
   return { substeps, dtS: settings.recordIntervalS / substeps, criticalDtS: bound.criticalDtS };
 }
 
-export function recordTrajectory(model: Model, world: World, controls: Float64Array, settings: RecordingSettings): RecordedTrajectory {
+/** `kernel` picks the step's implementation (default: WebAssembly where it runs); it never changes the result. */
+export function recordTrajectory(model: Model, world: World, controls: Float64Array, settings: RecordingSettings, kernel?: StepKernel): RecordedTrajectory {
   const steps = settings.recordedSteps;
   const n = model.nodeCount;
   const channels = model.controlChannelCount;
@@ -97,7 +99,8 @@ export function recordTrajectory(model: Model, world: World, controls: Float64Ar
   }
   const { substeps, dtS, criticalDtS } = resolveSubsteps(model, world, settings);
   const limits = settings.limits ?? DEFAULT_BLOW_UP_LIMITS;
-  const simulator = new Simulator(model, world);
+  const accounting = settings.energyAccounting === true || settings.recordForces === true;
+  const simulator = new Simulator(model, world, { kernel, ledger: accounting ? { recordForces: settings.recordForces === true } : undefined });
   const timeS = new Float64Array(steps + 1);
   const positionM = new Float64Array((steps + 1) * n * 3);
   const velocityMPerS = new Float64Array((steps + 1) * n * 3);
@@ -105,7 +108,7 @@ export function recordTrajectory(model: Model, world: World, controls: Float64Ar
   const energyWidth = settings.energyAccounting ? ENERGY_TERM_COUNT : ENERGY_BASE_COUNT;
   const energiesJ = new Float64Array((steps + 1) * energyWidth);
   const control = new Float64Array(channels);
-  const ledger = settings.energyAccounting || settings.recordForces ? simulator.enableLedger(settings.recordForces === true) : null;
+  const ledger = simulator.ledger;
   const energyFlowsJ = settings.energyAccounting ? new Float64Array((steps + 1) * FLOW_COLUMN_COUNT) : null;
   const forces: RecordedForces | null = settings.recordForces
     ? {

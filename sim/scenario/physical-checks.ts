@@ -21,9 +21,9 @@ import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveWorld } from './resolve-world.ts';
 import { resolveStartState } from './resolve-start-state.ts';
 import { findStartStateProblems } from './start-state-checks.ts';
-import { FRACTION_SUM_TOLERANCE, MAX_RECORDED_NODE_STATES, MAX_STRING_SEED } from './scenario-limits.ts';
+import { FRACTION_SUM_TOLERANCE, MAX_RECORDED_NODE_STATES, MAX_STRING_SEED, MIN_NODE_MASS_KG } from './scenario-limits.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
-import type { ChainSystemSpec, Scenario } from './scenario-types.ts';
+import type { ChainSystemSpec, LatticeSystemSpec, Scenario } from './scenario-types.ts';
 import { SPLIT_ORDER } from './split-assignment.ts';
 import { findStabilityProblems } from './stability-check.ts';
 
@@ -64,7 +64,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
     maxNodes = specBounds(scenario.system.partCount).max + 1;
   } else {
     const shape = findLatticeShapeProblems(scenario.system);
-    problems.push(...shape.problems);
+    problems.push(...shape.problems, ...findLatticeMassProblems(scenario.system));
     maxNodes = shape.maxNodes;
     if (shape.problems.length === 0) {
       const lattice = resolveLatticeParameters(scenario.system, new DemandingCorner('demanding'));
@@ -93,6 +93,20 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   problems.push(...findStartStateProblems(scenario, [...demanding, ...gentle]));
   problems.push(...findStabilityProblems(scenario, demanding, cornerWords(sites)));
   return problems;
+}
+
+/** A cell corner gets an eighth of the cell's mass (a quarter in 2-D), so the lightest node is a lone cell's corner. */
+function findLatticeMassProblems(spec: LatticeSystemSpec): ScenarioProblem[] {
+  const smallestCellM = specBounds(spec.cellSizeM).min;
+  return spec.materials.flatMap((material, i) => {
+    const lightestDensity = specBounds(material.densityKgPerM3).min;
+    const lightestNodeKg = (lightestDensity * smallestCellM ** 3) / 8;
+    if (lightestNodeKg >= MIN_NODE_MASS_KG) return [];
+    return [{
+      pointer: `/system/materials/${i}/densityKgPerM3`,
+      message: `can be ${lightestDensity} kg/m³, which with cells of ${smallestCellM} m gives a node ${lightestNodeKg.toPrecision(3)} kg, below the ${MIN_NODE_MASS_KG} kg Pliant simulates; give a larger density (kg/m³) or larger cells`,
+    }];
+  });
 }
 
 function cornerWords(sites: readonly ParameterSite[]): string {
@@ -151,6 +165,12 @@ function findChainProblems(spec: ChainSystemSpec): ScenarioProblem[] {
   }
   if (spec.clampedEnds.length > 0 && specBounds(spec.bendingStiffnessNm2).min <= 0) {
     problems.push({ pointer: '/system/clampedEnds', message: 'clamps an end, but /system/bendingStiffnessNm2 can be 0, and a clamp acts through the bending rigidity; give bendingStiffnessNm2 > 0 (EI in N·m²) or leave clampedEnds out' });
+  }
+  // A mass that rounds to nothing per node (a denormal total, say) passes "> 0" in the schema but
+  // leaves nodes massless, which the model builder cannot take.
+  const lightestNodeKg = specBounds(spec.totalMassKg).min / (specBounds(spec.partCount).max + 1);
+  if (!(lightestNodeKg >= MIN_NODE_MASS_KG)) {
+    problems.push({ pointer: '/system/totalMassKg', message: `can be ${specBounds(spec.totalMassKg).min} kg, which gives the longest chain ${lightestNodeKg.toPrecision(3)} kg per node, below the ${MIN_NODE_MASS_KG} kg Pliant simulates; give a larger mass (it is in kg)` });
   }
   const shortest = specBounds(spec.partCount).min;
   spec.pinnedNodes.forEach((node, i) => problems.push(...nodeIndexProblems(node, `/system/pinnedNodes/${i}`, shortest)));

@@ -21,6 +21,7 @@ import { resolveWorld } from './resolve-world.ts';
 import { resolveStartState } from './resolve-start-state.ts';
 import { applyStartPose, applyStartVelocity } from './start-pose.ts';
 import { settleStart } from './settle-start.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
@@ -31,6 +32,8 @@ import { plannedSplit, scenarioSplitPlan, usesPlannedSplits } from './splits/pla
 export interface SampleEpisodeOptions {
   /** Reads a replay table (a .npy file named in a "replay" control spec). */
   replay?: ReplayReader;
+  /** Step kernel of the settling run (initialState.settleS); never changes a result. */
+  kernel?: StepKernel;
 }
 
 /**
@@ -66,7 +69,7 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
   const world = resolveWorld(scenario.world, draws);
   const start = resolveStartState(scenario.initialState, draws);
   applyStartPose(system.model, dimensions, start.motion);
-  settleStart(system.model, world, start.settleS, start.settleDragPerS, scenario.time.recordIntervalS, scenario.time.autoSafety);
+  settleStart(system.model, world, start.settleS, start.settleDragPerS, scenario.time.recordIntervalS, scenario.time.autoSafety, options.kernel);
   applyStartVelocity(system.model, dimensions, start.motion);
   const positionStdM = draws.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
   const velocityStdMPerS = draws.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');

@@ -14,6 +14,8 @@ export const MAX_RECORDED_STEPS = 1_000_000;
  * in float64 take 48 bytes each, so this caps one episode's arrays near 480 MB.
  */
 export const MAX_RECORDED_NODE_STATES = 10_000_000;
+/** Record intervals a settled start may run before recording (settleS / recordIntervalS). */
+export const MAX_SETTLE_INTERVALS = MAX_RECORDED_STEPS;
 /** Sub-steps per record interval, fixed or chosen by "auto". */
 export const MAX_SUBSTEPS = 100_000;
 /** Episodes of one scenario. */
@@ -31,3 +33,9 @@ export const MAX_OBSERVATION_MARKERS = MAX_NODES;
  * still count as one, relative: decimal fractions like 0.02 s are not exact in binary.
  */
 export const OBSERVATION_TIMING_TOLERANCE = 1e-9;
+
+/**
+ * Lightest node mass a scenario may give, kg (1 µg): far below any tether or fin of the trade,
+ * far above the point where a mass divided over nodes rounds to 0 or the step bound overflows.
+ */
+export const MIN_NODE_MASS_KG = 1e-9;

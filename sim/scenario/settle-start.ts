@@ -4,14 +4,15 @@
 // falling from its built shape. Its velocities are then set to zero; start velocities and noise
 // come after. The run uses the stability bound's sub-steps with the extra drag included.
 import { Simulator } from '../core/simulator.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import type { Model } from '../core/model.ts';
 import type { World } from '../core/world.ts';
 
-export function settleStart(model: Model, world: World, settleS: number, settleDragPerS: number, intervalS: number, autoSafety: number): void {
+export function settleStart(model: Model, world: World, settleS: number, settleDragPerS: number, intervalS: number, autoSafety: number, kernel?: StepKernel): void {
   if (!(settleS > 0)) return;
   const settling: World = { ...world, airDragPerS: world.airDragPerS + settleDragPerS };
-  const simulator = new Simulator(model, settling);
+  const simulator = new Simulator(model, settling, { kernel });
   simulator.setControls(new Float64Array(Math.max(1, model.controlChannelCount)));
   const substeps = autoSubsteps(intervalS, stabilityBound(model, settling.airDragPerS), autoSafety);
   const intervals = Math.ceil(settleS / intervalS);

@@ -5,6 +5,7 @@ import { isConstant, specBounds } from '../random/distribution.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import { NODE_DRIVEN, NODE_PINNED } from '../core/model.ts';
 import type { BuiltSystem } from '../systems/built-system.ts';
+import { MAX_SETTLE_INTERVALS } from './scenario-limits.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
 
@@ -35,6 +36,16 @@ export function findStartStateProblems(scenario: Scenario, systems: readonly Bui
   }
   if (heldPlaces > 1 && canBeNonZero(start.rotationRad)) {
     problems.push({ pointer: '/initialState/rotationRad', message: `turns a system held at ${heldPlaces} places; it can only turn about one held node, so leave rotationRad at 0 or hold the system at one place` });
+  }
+  // Settling runs in record intervals, so a tiny interval turns a few seconds of settling into
+  // an endless run before the first record.
+  const longestSettleS = specBounds(start.settleS).max;
+  const settleIntervals = Math.ceil(longestSettleS / scenario.time.recordIntervalS);
+  if (longestSettleS > 0 && !(settleIntervals <= MAX_SETTLE_INTERVALS)) {
+    problems.push({
+      pointer: '/initialState/settleS',
+      message: `settles for up to ${longestSettleS} s in record intervals of ${scenario.time.recordIntervalS} s, which is ${Number.isFinite(settleIntervals) ? settleIntervals.toPrecision(3) : "too many"} intervals, more than the ${MAX_SETTLE_INTERVALS} Pliant runs before recording; settle for less time or record less often (a longer /time/recordIntervalS)`,
+    });
   }
   return problems;
 }
