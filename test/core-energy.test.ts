@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { ModelBuilder } from '../sim/core/model-builder.ts';
 import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../sim/core/model.ts';
-import { ENERGY_NAMES, measureEnergies } from '../sim/core/energy.ts';
+import { ENERGY_BASE_COUNT, ENERGY_NAMES, measureEnergies } from '../sim/core/energy.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 
 describe('energies of a three-node system, worked by hand (Halliday & Resnick)', () => {
@@ -32,16 +32,44 @@ describe('energies of a three-node system, worked by hand (Halliday & Resnick)',
     expect(model.restLengthM[2]).toBe(13); // rest length defaults to the built distance
     const world = defaultWorld();
     world.gravityMPerS2 = [0, -10, 0];
-    const out = new Float64Array(6).fill(Number.NaN);
+    const out = new Float64Array(8).fill(Number.NaN);
     measureEnergies(model, world, out, 1);
-    expect(ENERGY_NAMES).toEqual(['kinetic', 'elastic', 'gravitational', 'bending']);
+    expect(ENERGY_NAMES).toEqual(['kinetic', 'elastic', 'gravitational', 'bending', 'buoyancy', 'support_kinetic']);
     expect(out[1]).toBeCloseTo(4.75, 14);
     expect(out[2]).toBeCloseTo(10, 13);
     expect(out[3]).toBeCloseTo(28, 13);
-    // No hinges or clamps, so no bending energy.
+    // No hinges or clamps: no bending energy.
     expect(out[4]).toBe(0);
-    // Writes exactly its four slots at the offset.
-    expect(Number.isNaN(out[0]) && Number.isNaN(out[5])).toBe(true);
+    // No fluid: no buoyancy energy.
+    expect(out[5]).toBe(0);
+    // The pinned node's ½·2·5² = 25 J is reported as support kinetic energy, apart from the rest.
+    expect(out[6]).toBeCloseTo(25, 13);
+    // Writes exactly its six slots at the offset.
+    expect(Number.isNaN(out[0]) && Number.isNaN(out[7])).toBe(true);
+    // With a count, only the first columns (the layout recorded without energy accounting).
+    const base = new Float64Array(5).fill(Number.NaN);
+    measureEnergies(model, world, base, 0, ENERGY_BASE_COUNT);
+    expect(base[2]).toBeCloseTo(28, 13);
+    expect(Number.isNaN(base[4])).toBe(true);
+  });
+
+  it('buoyancy +ρ·V·(g·x) of free nodes: 1000·(1e-4 + 2e-4)·(−10·4) = −12 J (Archimedes; Halliday & Resnick, fluids)', () => {
+    const builder = new ModelBuilder(8, 2, 0);
+    builder.addNode({ positionM: [0, 0, 0], massKg: 2, volumeM3: 5e-4, flags: NODE_PINNED });
+    builder.addNode({ positionM: [3, 4, 0], massKg: 0.5, volumeM3: 1e-4 });
+    builder.addNode({ positionM: [3, 4, 12], massKg: 0.2, volumeM3: 2e-4 });
+    const model = builder.build();
+    const world = defaultWorld();
+    world.gravityMPerS2 = [0, -10, 0];
+    world.fluid = { ...world.fluid, enabled: true, densityKgPerM3: 1000, buoyancy: true };
+    const out = new Float64Array(6);
+    measureEnergies(model, world, out, 0);
+    expect(out[4]).toBeCloseTo(-12, 12);
+    // Gravitational energy still counts the full mass: (0.5 + 0.2)·10·4 = 28 J.
+    expect(out[2]).toBeCloseTo(28, 13);
+    world.fluid.buoyancy = false;
+    measureEnergies(model, world, out, 0);
+    expect(out[4]).toBe(0);
   });
 
   it('tilted gravity (3, 0, −4) m/s²: gravitational −m·g·x = −(0.5·9) − (0.2·(9 − 48)) = 3.3 J', () => {

@@ -5,11 +5,11 @@
 // reproduce it to rounding, with and without sub-steps, and must not match the explicit-Euler
 // form g·dt²·n(n−1)/2, which would mean the position update used the old velocity.
 import { describe, expect, it } from 'vitest';
-import { ENERGY_COUNT } from '../sim/core/energy.ts';
 import { ModelBuilder } from '../sim/core/model-builder.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
+import { ENERGY_BASE_COUNT } from '../sim/core/energy.ts';
 
 const X0: [number, number, number] = [0.4, 12.5, -0.3];
 const V0: [number, number, number] = [0.75, 3.2, -1.1];
@@ -84,7 +84,7 @@ describe('free fall under semi-implicit Euler (exact discrete solution; derivati
     for (const t of [1, 40, steps]) {
       const n = t * substeps;
       const e0 = trajectory.energiesJ[0] + trajectory.energiesJ[2];
-      const et = trajectory.energiesJ[ENERGY_COUNT * t] + trajectory.energiesJ[ENERGY_COUNT * t + 2];
+      const et = trajectory.energiesJ[ENERGY_BASE_COUNT * t] + trajectory.energiesJ[ENERGY_BASE_COUNT * t + 2];
       const expectedDrift = (-massKg * g2 * dtS * dtS * n) / 2;
       expect(Math.abs(et - e0 - expectedDrift)).toBeLessThanOrEqual(1e-12 * Math.abs(e0) * n);
     }

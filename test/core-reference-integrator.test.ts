@@ -13,6 +13,8 @@ import type { ChainParameters } from '../sim/systems/chain.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory, resolveSubsteps } from '../sim/episode/record-episode.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
+import { DOP853_CHAIN_SCRIPT as REFERENCE_SCRIPT, chainReferenceInput } from './support/dop853-chain-reference.ts';
+import type { ChainReferenceResult as ReferenceResult } from './support/dop853-chain-reference.ts';
 
 const python = referencePythonAvailability();
 
@@ -34,72 +36,14 @@ const CHAIN: ChainParameters = {
 const RECORD_INTERVAL_S = 0.05;
 const RECORDED_STEPS = 10; // T = 0.5 s: about a quarter swing
 
-const REFERENCE_SCRIPT = String.raw`
-import sys, json
-import numpy as np
-from scipy.integrate import solve_ivp
 
-d = json.load(sys.stdin)
-x0 = np.array(d['positionM'], dtype=float).reshape(-1, 3)
-v0 = np.array(d['velocityMPerS'], dtype=float).reshape(-1, 3)
-m = np.array(d['massKg'], dtype=float)
-free = np.array(d['free'], dtype=bool)
-a = np.array(d['springA'], dtype=int)
-b = np.array(d['springB'], dtype=int)
-k = np.array(d['stiffnessNPerM'], dtype=float)
-c = np.array(d['dampingNsPerM'], dtype=float)
-rest = np.array(d['restLengthM'], dtype=float)
-g = np.array(d['gravityMPerS2'], dtype=float)
-n = len(m)
-
-def rhs(t, y):
-    x = y[:3 * n].reshape(n, 3)
-    v = y[3 * n:].reshape(n, 3)
-    axis = x[b] - x[a]
-    length = np.linalg.norm(axis, axis=1)
-    unit = axis / length[:, None]
-    # Kelvin-Voigt spring: tension from stretch plus dashpot on the stretching rate.
-    tension = k * (length - rest) + c * np.einsum('ij,ij->i', v[b] - v[a], unit)
-    force = m[:, None] * g
-    np.add.at(force, a, tension[:, None] * unit)
-    np.add.at(force, b, -tension[:, None] * unit)
-    acc = force / m[:, None]
-    acc[~free] = 0.0
-    vel = v.copy()
-    vel[~free] = 0.0
-    return np.concatenate([vel.ravel(), acc.ravel()])
-
-times = np.array(d['timesS'], dtype=float)
-sol = solve_ivp(rhs, (0.0, times[-1]), np.concatenate([x0.ravel(), v0.ravel()]), method='DOP853',
-                rtol=1e-12, atol=1e-12, t_eval=times)
-print(json.dumps({'status': int(sol.status), 'nfev': int(sol.nfev),
-                  'positionM': sol.y[:3 * n].T.tolist()}))
-`;
-
-interface ReferenceResult {
-  status: number;
-  nfev: number;
-  positionM: number[][];
-}
 
 describe.runIf(python.available)('semi-implicit Euler against SciPy DOP853 (solve_ivp, rtol = atol = 1e-12)', () => {
   it('error at T shrinks first-order (ratio 2 ± 0.3 over three halvings) and is below dt·g·T at the default dt', () => {
     const world = defaultWorld();
     const template = buildChain(CHAIN).model;
     const times = Array.from({ length: RECORDED_STEPS + 1 }, (_, t) => t * RECORD_INTERVAL_S);
-    const reference = runReferencePython<ReferenceResult>(REFERENCE_SCRIPT, {
-      positionM: Array.from(template.positionM),
-      velocityMPerS: Array.from(template.velocityMPerS),
-      massKg: Array.from(template.massKg),
-      free: Array.from(template.inverseMassPerKg, (w) => w > 0),
-      springA: Array.from(template.springNodeA),
-      springB: Array.from(template.springNodeB),
-      stiffnessNPerM: Array.from(template.stiffnessNPerM),
-      dampingNsPerM: Array.from(template.dampingNsPerM),
-      restLengthM: Array.from(template.restLengthM),
-      gravityMPerS2: world.gravityMPerS2,
-      timesS: times,
-    });
+    const reference = runReferencePython<ReferenceResult>(REFERENCE_SCRIPT, chainReferenceInput(template, world, times));
     expect(reference.status).toBe(0);
     expect(reference.positionM.length).toBe(RECORDED_STEPS + 1);
 

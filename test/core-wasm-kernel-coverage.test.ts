@@ -50,12 +50,23 @@ describe('WebAssembly kernel coverage', () => {
   });
 
   it('a world field no pass claims falls back, at the top level and inside ground or fluid', () => {
-    const obstacles = { ...defaultWorld(), obstacles: [] } as World;
-    expect(wasmKernelCoverage(buildChain(CHAIN).model, obstacles)).toEqual({ ok: false, reason: expect.stringContaining('"obstacles"') });
+    const tidal = { ...defaultWorld(), tideHeightM: 0.2 } as World;
+    expect(wasmKernelCoverage(buildChain(CHAIN).model, tidal)).toEqual({ ok: false, reason: expect.stringContaining('"tideHeightM"') });
     const wavy = defaultWorld();
     (wavy.fluid as unknown as Record<string, unknown>).waveHeightM = 0.1;
     expect(wasmKernelCoverage(buildChain(CHAIN).model, wavy)).toEqual({ ok: false, reason: expect.stringContaining('"fluid.waveHeightM"') });
-    expect(stepped(buildChain(CHAIN).model, obstacles, {}).kernel).toBe('js');
+    expect(stepped(buildChain(CHAIN).model, tidal, {}).kernel).toBe('js');
+  });
+
+  it('obstacles and the energy ledger run in JavaScript, and only where they are used', () => {
+    const model = buildChain(CHAIN).model;
+    const boulder: World = { ...defaultWorld(), obstacles: [{ shape: 'sphere', centerM: [0, -2, 0], halfSizeM: [0, 0, 0], radiusM: 0.3, halfLengthM: 0, axis: 1, staticFriction: 0.5, kineticFriction: 0.4 }] };
+    expect(wasmKernelCoverage(model, boulder)).toEqual({ ok: false, reason: expect.stringContaining('obstacle contact') });
+    expect(wasmKernelCoverage(model, defaultWorld())).toEqual({ ok: true });
+    const booked = new Simulator(model, defaultWorld(), { kernel: 'wasm', ledger: { recordForces: false } });
+    expect(booked.kernel).toBe('js');
+    expect(booked.kernelFallbackReason).toContain('energy ledger');
+    expect(booked.ledger).not.toBeNull();
   });
 
   it('a Simulator option the kernel does not implement falls back; an absent one does not', () => {

@@ -14,7 +14,7 @@ import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 import { EpisodeStepper } from '../renderer/preview/episode-stepper.ts';
 import { REPO_ROOT, SCENARIOS_DIR } from './support/e2e-web-app.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
-import { ENERGY_COUNT } from '../sim/core/energy.ts';
+import { ENERGY_TERM_COUNT } from '../sim/core/energy.ts';
 
 const python = referencePythonAvailability();
 const DEMOS = readdirSync(SCENARIOS_DIR).filter((name) => name.endsWith('.json')).sort();
@@ -60,12 +60,12 @@ describe.runIf(python.available)('previewed episodes are the generated episodes 
       const n3 = episode.system.model.nodeCount * 3;
       const positions = new Float32Array(stepper.frameCount * n3);
       const time = new Float64Array(stepper.frameCount);
-      const energies = new Float64Array(stepper.frameCount * ENERGY_COUNT);
+      const energies = new Float64Array(stepper.frameCount * ENERGY_TERM_COUNT);
       // Odd chunk sizes, as the worker's adaptive chunks would be.
       let done = 0;
       for (let chunk = 1; done < stepper.frameCount; chunk = (chunk * 3) % 17 + 1) {
         const part = new Float32Array(chunk * n3);
-        const written = stepper.advance(chunk, part, time.subarray(done), energies.subarray(ENERGY_COUNT * done));
+        const written = stepper.advance(chunk, part, time.subarray(done), energies.subarray(ENERGY_TERM_COUNT * done));
         positions.set(part.subarray(0, written * n3), done * n3);
         done += written;
       }

@@ -60,7 +60,9 @@ describe('SCENARIO_SCHEMA', () => {
     const props = SCENARIO_SCHEMA.properties as Json;
     expect(s.splits.fractions).toEqual(props.splits.properties.fractions.default);
     expect(s.splits.heldOut).toEqual([]);
-    expect(s.export).toEqual({ format: props.export.properties.format.default, dtype: props.export.properties.dtype.default });
+    expect(s.export).toEqual({ format: props.export.properties.format.default, dtype: props.export.properties.dtype.default, forces: false });
+    expect(s.numerics).toEqual({ energyBalance: false, richardsonShare: 0 });
+    expect(s.world.obstacles).toEqual([]);
     expect(s.time.substeps).toBe(props.time.properties.substeps.default);
     expect(s.time.autoSafety).toBe(props.time.properties.autoSafety.default);
     expect(s.world.gravityMPerS2).toEqual(props.world.properties.gravityMPerS2.default);

@@ -1,14 +1,18 @@
 // What a dataset's own scenario (inside its seed file) says about the scene an episode played in:
-// whether there was a ground plane and where, whether a fluid surrounded the body, and what the
+// whether there was a ground plane and where, whether a fluid surrounded the body, which static
+// obstacles stood where (numbers drawn per episode come from its labels), and what the
 // materials are called. The episode arrays hold none of this; without a seed file the Datasets
 // screen plays the body alone.
-import type { StageWorld } from '../view/scene-view.ts';
+import type { StageWorld } from '../view/stage-world.ts';
+import type { Obstacle } from '../../sim/core/world.ts';
 
 export interface DatasetScene {
   hasGround: boolean;
   /** The plane's height, m, when fixed; null when drawn per episode (read it from the labels). */
   groundHeightM: number | null;
   hasFluid: boolean;
+  /** The scenario's obstacle entries as written (numbers or distributions). */
+  obstacleSpecs: Record<string, unknown>[];
   materialNames: string[];
 }
 
@@ -21,7 +25,8 @@ export function datasetScene(scenarioText: string): DatasetScene | null {
   } catch {
     return null;
   }
-  const s = scenario as { world?: { ground?: { heightM?: unknown }; fluid?: unknown }; system?: { materials?: { name?: unknown }[] } };
+  const s = scenario as { world?: { ground?: { heightM?: unknown }; fluid?: unknown; obstacles?: unknown }; system?: { materials?: { name?: unknown }[] } };
+  const obstacles = s.world?.obstacles;
   const ground = s.world?.ground;
   const height = ground?.heightM;
   return {
@@ -29,6 +34,7 @@ export function datasetScene(scenarioText: string): DatasetScene | null {
     // Absent means the schema's default, 0 m.
     groundHeightM: height === undefined ? 0 : typeof height === 'number' ? height : null,
     hasFluid: s.world?.fluid !== undefined,
+    obstacleSpecs: Array.isArray(obstacles) ? obstacles.filter((o): o is Record<string, unknown> => typeof o === 'object' && o !== null) : [],
     materialNames: Array.isArray(s.system?.materials) ? s.system.materials.map((m, i) => (typeof m?.name === 'string' ? m.name : `material ${i + 1}`)) : [],
   };
 }
@@ -38,5 +44,33 @@ export function episodeWorld(scene: DatasetScene | null, labels: Record<string, 
   if (!scene) return { ground: { enabled: false, heightM: 0 }, fluid: { enabled: false } };
   const drawn = labels[GROUND_HEIGHT_LABEL];
   const heightM = scene.groundHeightM ?? (typeof drawn === 'number' ? drawn : 0);
-  return { ground: { enabled: scene.hasGround, heightM }, fluid: { enabled: scene.hasFluid } };
+  const obstacles = scene.obstacleSpecs.map((spec, i) => obstacleOf(spec, `/world/obstacles/${i}`, labels));
+  return { ground: { enabled: scene.hasGround, heightM }, fluid: { enabled: scene.hasFluid }, obstacles };
+}
+
+/** A number written in the scenario, or the value the episode drew for it (0 if neither). */
+function numberAt(spec: unknown, pointer: string, labels: Record<string, number | string | boolean>): number {
+  if (typeof spec === 'number') return spec;
+  const drawn = labels[pointer];
+  return typeof drawn === 'number' ? drawn : 0;
+}
+
+function vectorAt(spec: unknown, pointer: string, labels: Record<string, number | string | boolean>): [number, number, number] {
+  const parts = Array.isArray(spec) ? spec : [];
+  return [0, 1, 2].map((k) => numberAt(parts[k], `${pointer}/${k}`, labels)) as [number, number, number];
+}
+
+function obstacleOf(spec: Record<string, unknown>, pointer: string, labels: Record<string, number | string | boolean>): Obstacle {
+  const shape = spec.shape === 'sphere' || spec.shape === 'cylinder' ? spec.shape : 'box';
+  const size = shape === 'box' ? vectorAt(spec.sizeM, `${pointer}/sizeM`, labels) : [0, 0, 0];
+  return {
+    shape,
+    centerM: vectorAt(spec.centerM, `${pointer}/centerM`, labels),
+    halfSizeM: [0.5 * size[0], 0.5 * size[1], 0.5 * size[2]],
+    radiusM: numberAt(spec.radiusM, `${pointer}/radiusM`, labels),
+    halfLengthM: 0.5 * numberAt(spec.lengthM, `${pointer}/lengthM`, labels),
+    axis: spec.axis === 'x' ? 0 : spec.axis === 'z' ? 2 : 1,
+    staticFriction: numberAt(spec.staticFriction, `${pointer}/staticFriction`, labels),
+    kineticFriction: numberAt(spec.kineticFriction, `${pointer}/kineticFriction`, labels),
+  };
 }

@@ -7,7 +7,9 @@ import { decodeArray } from '../bridge/decode-array.ts';
 import type { DecodedArray } from '../bridge/decode-array.ts';
 import { NODE_FEATURE_NAMES } from '../../sim/systems/graph-labels.ts';
 import { TrajectoryFrames } from '../playback/trajectory-frames.ts';
-import { ENERGY_COUNT } from '../../sim/core/energy.ts';
+import { ENERGY_NAMES, ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
+
+const BENDING = ENERGY_NAMES.indexOf('bending');
 import type { BodyTopology } from '../view/body-topology.ts';
 
 export interface PlayableEpisode {
@@ -80,18 +82,27 @@ export function playableEpisode(episode: EpisodeArrays): PlayableEpisode {
     frameCount,
     positions.data instanceof Float32Array ? positions.data : Float32Array.from(positions.data),
     Float64Array.from(time),
-    energies ? energyColumns(energies.data, energies.shape[1] ?? ENERGY_COUNT, frameCount) : null,
+    energies ? energyRows(energies) : null,
     controls ? Float64Array.from(controls.data) : null,
   );
   const frameIntervalS = frameCount > 1 ? (time[frameCount - 1] - time[0]) / (frameCount - 1) : 1;
   return { topology, frames, frameIntervalS, channelCount };
 }
 
-/** Widens an energies table to the columns this version plots: older datasets had no bending column, and no bending, so 0. */
-function energyColumns(data: ArrayLike<number>, columns: number, frameCount: number): Float64Array {
-  if (columns === ENERGY_COUNT) return Float64Array.from(data);
-  const out = new Float64Array(frameCount * ENERGY_COUNT);
-  const shared = Math.min(columns, ENERGY_COUNT);
-  for (let f = 0; f < frameCount; f++) for (let c = 0; c < shared; c++) out[f * ENERGY_COUNT + c] = data[f * columns + c];
+/**
+ * The file's energy columns in this version's layout (ENERGY_TERMS). Datasets made before
+ * bending had no bending column, and no bending, so it reads 0; buoyancy and support_kinetic,
+ * recorded only with numerics.energyBalance, stay NaN where a file lacks them.
+ */
+function energyRows(energies: { data: DecodedArray; shape: number[] }): Float64Array {
+  const width = energies.shape[1] ?? ENERGY_TERM_COUNT;
+  if (width === ENERGY_TERM_COUNT) return Float64Array.from(energies.data);
+  const rows = energies.shape[0];
+  const out = new Float64Array(rows * ENERGY_TERM_COUNT).fill(Number.NaN);
+  const shared = Math.min(width, ENERGY_TERM_COUNT);
+  for (let r = 0; r < rows; r++) {
+    for (let c = 0; c < shared; c++) out[r * ENERGY_TERM_COUNT + c] = Number(energies.data[r * width + c]);
+    if (width <= BENDING) out[r * ENERGY_TERM_COUNT + BENDING] = 0;
+  }
   return out;
 }

@@ -2,14 +2,14 @@
 // takes anyway), record times, energies and the control vector of every interval. Sized once
 // for the whole episode; the preview fills it as the worker streams frames in, dataset playback
 // fills it in one go.
-import { ENERGY_COUNT } from '../../sim/core/energy.ts';
+import { ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
 
 export class TrajectoryFrames {
   /** (frames) × nodes × 3, m. */
   readonly positionsM: Float32Array;
   /** Record time of each frame, s. */
   readonly timeS: Float64Array;
-  /** (frames) × ENERGY_COUNT: kinetic, elastic, gravitational, bending, J; NaN where not recorded. */
+  /** (frames) × ENERGY_TERM_COUNT in ENERGY_TERMS order, J; NaN where not recorded. */
   readonly energiesJ: Float64Array;
   /** (frames − 1) × channels: the control vector applied from frame t to t + 1. */
   readonly controls: Float64Array;
@@ -24,7 +24,7 @@ export class TrajectoryFrames {
   ) {
     this.positionsM = new Float32Array(frameCount * nodeCount * 3);
     this.timeS = new Float64Array(frameCount);
-    this.energiesJ = new Float64Array(frameCount * ENERGY_COUNT).fill(Number.NaN);
+    this.energiesJ = new Float64Array(frameCount * ENERGY_TERM_COUNT).fill(Number.NaN);
     this.controls = new Float64Array(Math.max(0, frameCount - 1) * channelCount);
   }
 
@@ -48,7 +48,7 @@ export class TrajectoryFrames {
     if (first > this.filled) throw new RangeError(`frames ${this.filled}…${first - 1} are missing before chunk at ${first}`);
     this.positionsM.set(positionsM, this.positionOffset(first));
     this.timeS.set(timeS, first);
-    if (energiesJ) this.energiesJ.set(energiesJ, ENERGY_COUNT * first);
+    if (energiesJ) this.energiesJ.set(energiesJ, ENERGY_TERM_COUNT * first);
     if (controls) {
       // Chunks carry the controls of their own intervals, which end one short of the last frame.
       const room = this.controls.length - first * this.channelCount;

@@ -2,7 +2,12 @@
 // coordinates, the energies and their sum, and every control channel, each a full-length array
 // of which the first `filled` entries are valid. Extending them touches only the new frames.
 import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
-import { ENERGY_COUNT } from '../../sim/core/energy.ts';
+import { ENERGY_BASE_COUNT, ENERGY_NAMES, ENERGY_TERMS, ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
+
+const KINETIC = ENERGY_NAMES.indexOf('kinetic');
+const ELASTIC = ENERGY_NAMES.indexOf('elastic');
+const GRAVITATIONAL = ENERGY_NAMES.indexOf('gravitational');
+const BENDING = ENERGY_NAMES.indexOf('bending');
 
 export class TrajectorySeries {
   readonly xM: Float64Array;
@@ -49,12 +54,21 @@ export class TrajectorySeries {
     this.fillCoordinates(from, to);
     const e = this.frames.energiesJ;
     for (let f = from; f < to; f++) {
-      const o = ENERGY_COUNT * f;
-      this.kineticJ[f] = e[o];
-      this.elasticJ[f] = e[o + 1];
-      this.gravitationalJ[f] = e[o + 2];
-      this.bendingJ[f] = e[o + 3];
-      this.totalJ[f] = e[o] + e[o + 1] + e[o + 2] + e[o + 3];
+      const row = ENERGY_TERM_COUNT * f;
+      this.kineticJ[f] = e[row + KINETIC];
+      this.elasticJ[f] = e[row + ELASTIC];
+      this.gravitationalJ[f] = e[row + GRAVITATIONAL];
+      this.bendingJ[f] = e[row + BENDING];
+      // The total is the balance's: kinetic and every potential, supports left out; the columns
+      // recorded only with energy accounting (NaN when a file lacks them) count where present.
+      let total = 0;
+      for (let t = 0; t < ENERGY_TERM_COUNT; t++) {
+        if (ENERGY_TERMS[t].role === 'support') continue;
+        const value = e[row + t];
+        if (t >= ENERGY_BASE_COUNT && Number.isNaN(value)) continue;
+        total += value;
+      }
+      this.totalJ[f] = total;
     }
     const channels = this.frames.channelCount;
     for (let c = 0; c < channels; c++) {

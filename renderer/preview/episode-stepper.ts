@@ -5,7 +5,7 @@
 import type { Model } from '../../sim/core/model.ts';
 import type { World } from '../../sim/core/world.ts';
 import { Simulator } from '../../sim/core/simulator.ts';
-import { ENERGY_COUNT, measureEnergies } from '../../sim/core/energy.ts';
+import { ENERGY_TERM_COUNT, measureEnergies } from '../../sim/core/energy.ts';
 import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../../sim/core/blow-up-check.ts';
 import type { BlowUpLimits } from '../../sim/core/blow-up-check.ts';
 import { resolveSubsteps } from '../../sim/episode/record-episode.ts';
@@ -69,7 +69,7 @@ export class EpisodeStepper {
       const o = written * n3;
       for (let k = 0; k < n3; k++) positionsM[o + k] = x[k];
       timeS[written] = frame * this.settings.recordIntervalS;
-      measureEnergies(model, this.world, energiesJ, ENERGY_COUNT * written);
+      measureEnergies(model, this.world, energiesJ, ENERGY_TERM_COUNT * written);
       this.framesDone++;
       written++;
     }

@@ -2,10 +2,10 @@
 // sampler generate uses, and simulates the chosen one with the environment-free core, posting
 // frames back in chunks of about a screen refresh's worth of work so playback can start at once.
 // One run at a time; a newer request or a stop ends the current one at its next chunk.
+import { ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
 import { sampleEpisode } from '../../sim/scenario/sample-episode.ts';
 import type { SampledEpisode } from '../../sim/scenario/sampled-episode.ts';
 import { EpisodeStepper } from './episode-stepper.ts';
-import { ENERGY_COUNT } from '../../sim/core/energy.ts';
 import { checkedScenario } from './checked-scenario.ts';
 import { modelTopology, topologyBuffers } from './model-topology.ts';
 import type { FromPreviewWorker, PreviewEpisodeSummary, ToPreviewWorker } from './preview-worker-protocol.ts';
@@ -68,7 +68,7 @@ function run(requestId: number, text: string, fileName: string, index: number): 
       requestId,
       episode: summarise(episode, stepper),
       topology,
-      world: { ground: { enabled: world.ground.enabled, heightM: world.ground.heightM }, fluid: { enabled: world.fluid.enabled } },
+      world: { ground: { enabled: world.ground.enabled, heightM: world.ground.heightM }, fluid: { enabled: world.fluid.enabled }, obstacles: world.obstacles },
       frameCount: stepper.frameCount,
     },
     topologyBuffers(topology),
@@ -84,7 +84,7 @@ function run(requestId: number, text: string, fileName: string, index: number): 
     const count = Math.min(framesPerChunk, stepper.frameCount - first);
     const positionsM = new Float32Array(count * n3);
     const timeS = new Float64Array(count);
-    const energiesJ = new Float64Array(count * ENERGY_COUNT);
+    const energiesJ = new Float64Array(count * ENERGY_TERM_COUNT);
     const chunkStartMs = performance.now();
     let written: number;
     try {

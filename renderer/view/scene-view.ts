@@ -6,12 +6,10 @@ import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import type { BodyBounds } from './body-view.ts';
 import { BodyView } from './body-view.ts';
 import { isSoftwareRendering } from './software-rendering.ts';
+import { fillObstacleGroup } from './obstacle-meshes.ts';
+import type { StageWorld } from './stage-world.ts';
 
-/** What of the world to draw around the body. */
-export interface StageWorld {
-  ground: { enabled: boolean; heightM: number };
-  fluid: { enabled: boolean };
-}
+export type { StageWorld } from './stage-world.ts';
 
 export const STAGE_BACKGROUND = 0xf4f1ea;
 
@@ -24,6 +22,7 @@ export class SceneView {
   private readonly ground: THREE.Mesh;
   private readonly groundGrid: THREE.GridHelper;
   private readonly fluid: THREE.Mesh;
+  private readonly obstacles = new THREE.Group();
   private body: BodyView | null = null;
   private overlay: BodyView | null = null;
   /** Time spent issuing draw calls, ms, and how many renders it covers (for the draw-rate readout). */
@@ -60,7 +59,7 @@ export class SceneView {
     const box = new THREE.BoxGeometry(1, 1, 1);
     this.fluid = new THREE.Mesh(box, new THREE.MeshBasicMaterial({ color: 0x7fb3d6, transparent: true, opacity: 0.22, depthWrite: false, side: THREE.BackSide }));
     this.fluid.add(new THREE.LineSegments(new THREE.EdgesGeometry(box), new THREE.LineBasicMaterial({ color: 0x4f86ad })));
-    this.scene.add(this.ground, this.groundGrid, this.fluid);
+    this.scene.add(this.ground, this.groundGrid, this.fluid, this.obstacles);
     this.setWorld({ ground: { enabled: false, heightM: 0 }, fluid: { enabled: false } });
 
     this.controls = new OrbitControls(this.camera, this.canvas);
@@ -100,6 +99,9 @@ export class SceneView {
     this.ground.position.y = world.ground.heightM;
     this.groundGrid.position.y = world.ground.heightM + 1e-4;
     this.fluid.visible = world.fluid.enabled;
+    const obstacles = world.obstacles ?? [];
+    fillObstacleGroup(this.obstacles, obstacles);
+    this.host.setAttribute('data-obstacles', String(obstacles.length));
     this.host.setAttribute('data-ground', world.ground.enabled ? String(world.ground.heightM) : 'none');
     this.host.setAttribute('data-fluid', String(world.fluid.enabled));
     this.requestRender();

@@ -7,7 +7,14 @@
 import type { Model } from './model.ts';
 import type { GroundSettings } from './world.ts';
 
-export function projectGroundContact(model: Model, ground: GroundSettings, dtS: number): void {
+/** normalDv and frictionDv, when given, receive the velocity changes (added, 3 per node) for the energy ledger. */
+export function projectGroundContact(
+  model: Model,
+  ground: GroundSettings,
+  dtS: number,
+  normalDv: Float64Array | null = null,
+  frictionDv: Float64Array | null = null,
+): void {
   const x = model.positionM;
   const v = model.velocityMPerS;
   const invM = model.inverseMassPerKg;
@@ -36,6 +43,11 @@ export function projectGroundContact(model: Model, ground: GroundSettings, dtS: 
       const scale = Math.max(0, 1 - (muK * dvn) / speed);
       v[o] = vx * scale;
       v[o + 2] = vz * scale;
+    }
+    if (normalDv !== null && frictionDv !== null) {
+      normalDv[o + 1] += dvn;
+      frictionDv[o] += v[o] - vx;
+      frictionDv[o + 2] += v[o + 2] - vz;
     }
     if (y < h) x[o + 1] = h;
   }

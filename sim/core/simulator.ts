@@ -3,6 +3,8 @@
 // The caller sets a control vector once per control interval (zero-order hold for forces and
 // actuators; driven nodes move linearly to their new target over the interval) and then
 // advances a number of equal sub-steps. All buffers are allocated in the constructor.
+// An optional StepLedger (energy accounting, force recording) is consulted through one null
+// check per hook; without it the step runs exactly the operations it always did.
 // The step runs in JavaScript (below, the specification) or in its WebAssembly build
 // (wasm/wasm-stepper.ts), chosen once per Simulator; both give the same bits. WebAssembly runs
 // only where it implements every pass this model and world need (wasm/wasm-kernel-coverage.ts):
@@ -14,6 +16,8 @@ import { accumulateSpringForces } from './spring-forces.ts';
 import { accumulateBendingForces, accumulateClampForces } from './bending-forces.ts';
 import { accumulateFluidDrag } from './fluid-drag.ts';
 import { projectGroundContact } from './ground-contact.ts';
+import { projectObstacleContact } from './obstacle-contact.ts';
+import { StepLedger } from './step-ledger.ts';
 import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
 import { resolveStepKernel } from './step-kernel-choice.ts';
 import type { StepKernel } from './step-kernel-choice.ts';
@@ -27,6 +31,11 @@ export interface SimulatorOptions {
    * (see kernelFallbackReason). Never changes a result.
    */
   kernel?: StepKernel;
+  /**
+   * Energy accounting from the start state, and force recording when `recordForces`. Books work
+   * inside the step, which only the JavaScript kernel does, so it runs JavaScript.
+   */
+  ledger?: { recordForces: boolean };
 }
 
 export class Simulator {
@@ -35,6 +44,9 @@ export class Simulator {
   private readonly drivenStartM: Float64Array;
   private readonly drivenTargetM: Float64Array;
   private readonly drivenVelocityMPerS: Float64Array;
+  private readonly obstacleNormal = new Float64Array(3);
+  /** Energy accounting and force recording (the `ledger` option); null costs nothing. */
+  readonly ledger: StepLedger | null;
   /** The kernel this simulator steps with. */
   readonly kernel: StepKernel;
   /** Why WebAssembly was preferred but JavaScript runs; null otherwise. */
@@ -54,6 +66,7 @@ export class Simulator {
     this.drivenStartM = new Float64Array(3 * model.drivenNodes.length);
     this.drivenTargetM = this.wasm?.drivenTargetM ?? Float64Array.from(model.drivenOriginM);
     this.drivenVelocityMPerS = new Float64Array(3 * model.drivenNodes.length);
+    this.ledger = options.ledger !== undefined ? new StepLedger(model, world, this.handleForceN, options.ledger.recordForces) : null;
   }
 
   /** Applies a control vector (length ≥ model.controlChannelCount) until the next call. */
@@ -90,7 +103,10 @@ export class Simulator {
     }
     for (let s = 0; s < substeps; s++) {
       this.step(dtS);
-      if (driven.length > 0) this.placeDrivenNodes((s + 1) / substeps);
+      if (driven.length > 0) {
+        this.placeDrivenNodes((s + 1) / substeps);
+        if (this.ledger !== null) this.ledger.afterSupportsMoved(this.forceN);
+      }
     }
   }
 
@@ -130,9 +146,21 @@ export class Simulator {
       f[o + 1] += hf[3 * h + 1];
       f[o + 2] += hf[3 * h + 2];
     }
-    if (world.ground.enabled) {
+    const ledger = this.ledger;
+    if (ledger !== null) {
+      ledger.beginStep(dtS);
       updateVelocities(model, f, dtS);
-      projectGroundContact(model, world.ground, dtS);
+      ledger.afterForceUpdate(dtS);
+      if (world.ground.enabled) projectGroundContact(model, world.ground, dtS, ledger.contactNormalDvMPerS, ledger.contactFrictionDvMPerS);
+      if (world.obstacles.length > 0) {
+        projectObstacleContact(model, world.obstacles, dtS, this.obstacleNormal, ledger.contactNormalDvMPerS, ledger.contactFrictionDvMPerS);
+      }
+      ledger.afterContact();
+      updatePositions(model, dtS);
+    } else if (world.ground.enabled || world.obstacles.length > 0) {
+      updateVelocities(model, f, dtS);
+      if (world.ground.enabled) projectGroundContact(model, world.ground, dtS);
+      if (world.obstacles.length > 0) projectObstacleContact(model, world.obstacles, dtS, this.obstacleNormal);
       updatePositions(model, dtS);
     } else {
       updateVelocitiesAndPositions(model, f, dtS);

@@ -22,12 +22,32 @@ export interface FluidSettings {
   buoyancy: boolean;
 }
 
+/** Axis-aligned box, sphere, or cylinder along a coordinate axis; rigid and fixed in space. */
+export type ObstacleShape = 'box' | 'sphere' | 'cylinder';
+
+export interface Obstacle {
+  shape: ObstacleShape;
+  centerM: [number, number, number];
+  /** Box: half the edge lengths along x, y, z, m. Unused for spheres and cylinders. */
+  halfSizeM: [number, number, number];
+  /** Sphere and cylinder radius, m. */
+  radiusM: number;
+  /** Cylinder: half its length along its axis, m. */
+  halfLengthM: number;
+  /** Cylinder axis: 0 x, 1 y, 2 z. */
+  axis: 0 | 1 | 2;
+  staticFriction: number;
+  kineticFriction: number;
+}
+
 export interface World {
   gravityMPerS2: [number, number, number];
   /** Mass-proportional linear drag: F = −m·airDragPerS·v, 1/s. */
   airDragPerS: number;
   ground: GroundSettings;
   fluid: FluidSettings;
+  /** Static rigid obstacles besides the ground plane; contact as for the ground. */
+  obstacles: Obstacle[];
 }
 
 export function defaultWorld(): World {
@@ -43,5 +63,6 @@ export function defaultWorld(): World {
       flowVelocityMPerS: [0, 0, 0],
       buoyancy: false,
     },
+    obstacles: [],
   };
 }

@@ -180,7 +180,8 @@ function arraySection(source: CardSource): string[] {
     if (a.latticeOnly && !lattice) continue;
     if (a.observationOnly && !observed) continue;
     if (a.chainOnly && !source.tally.hasChain) continue;
-    lines.push(`| \`${a.name}\` | ${a.dtype === 'float' ? float : a.dtype} | (${a.shape.join(', ')}) | ${a.unit} | ${a.meaning} |`);
+    const when = a.onlyWith === 'energyBalance' ? ' (only with numerics.energyBalance)' : a.onlyWith === 'forces' ? ' (only with export.forces)' : '';
+    lines.push(`| \`${a.name}\` | ${a.dtype === 'float' ? float : a.dtype} | (${a.shape.join(', ')}) | ${a.unit} | ${a.meaning}${when} |`);
   }
   lines.push('', `T is the number of recorded steps, N nodes, C control channels, E springs, K cells, H bending hinges, Q clamps${observed ? ', T_obs observed frames, M markers' : ''}. The control channels of each episode (name, kind, unit) are listed under \`controlChannels\` in its manifest record; its sampled parameters under \`labels\`.`);
   return lines;

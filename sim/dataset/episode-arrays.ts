@@ -4,7 +4,6 @@
 // it is the same on every machine.
 import type { RecordedTrajectory } from '../episode/record-episode.ts';
 import type { ObservedTrajectory } from '../episode/observe-trajectory.ts';
-import { ENERGY_COUNT } from '../core/energy.ts';
 import type { GraphLabels } from '../systems/graph-labels.ts';
 import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
 import type { ExportDtype } from './dataset-manifest.ts';
@@ -35,7 +34,7 @@ export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels
     positions: { shape: [t + 1, n, 3], data: floats(trajectory.positionM, dtype) },
     velocities: { shape: [t + 1, n, 3], data: floats(trajectory.velocityMPerS, dtype) },
     controls: { shape: [t, c], data: floats(trajectory.controls, dtype) },
-    energies: { shape: [t + 1, ENERGY_COUNT], data: floats(trajectory.energiesJ, dtype) },
+    energies: { shape: [t + 1, trajectory.energiesJ.length / (t + 1)], data: floats(trajectory.energiesJ, dtype) },
     node_features: { shape: [n, NODE_FEATURE_NAMES.length], data: floats(graph.nodeFeatures, dtype) },
     edges: { shape: [e, 2], data: Int32Array.from(graph.edges) },
     edge_relation: { shape: [e], data: graph.edgeRelation.slice() },
@@ -61,12 +60,23 @@ export function episodeArrays(trajectory: RecordedTrajectory, graph: GraphLabels
     data.observed_mask = { shape: [frames, markers], data: observed.seen.slice() };
     data.observed_nodes = { shape: [markers], data: observed.markerNodes.slice() };
   }
+  if (trajectory.energyFlowsJ !== null) {
+    data.energy_flows = { shape: [t + 1, trajectory.energyFlowsJ.length / (t + 1)], data: floats(trajectory.energyFlowsJ, dtype) };
+  }
+  const forces = trajectory.forces;
+  if (forces !== null) {
+    data.edge_tension = { shape: [t, e], data: floats(forces.edgeTensionN, dtype) };
+    data.contact_normal_force = { shape: [t, n, 3], data: floats(forces.contactNormalForceN, dtype) };
+    data.contact_friction_force = { shape: [t, n, 3], data: floats(forces.contactFrictionForceN, dtype) };
+    data.fluid_force = { shape: [t, n, 3], data: floats(forces.fluidForceN, dtype) };
+  }
   const arrays: EpisodeArray[] = [];
   for (const description of EPISODE_ARRAYS) {
     if (description.latticeOnly && k === 0) continue;
     if (description.observationOnly && observed === null) continue;
     if (description.chainOnly && k > 0) continue;
     const entry = data[description.name];
+    if (entry === undefined && description.onlyWith !== undefined) continue;
     // namedArray takes the dtype from the typed array, so it cannot disagree with the data.
     arrays.push(namedArray(description.name, entry.shape, entry.data, { unit: description.unit, description: description.meaning }) as NamedArray);
   }

@@ -6,6 +6,8 @@ import { sampleEpisode } from '../scenario/sample-episode.ts';
 import { observeEpisode } from '../scenario/observe-episode.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
 import { recordTrajectory, resolveSubsteps } from '../episode/record-episode.ts';
+import { richardsonEstimate, startStateOf } from '../episode/richardson-estimate.ts';
+import { numericsLabels } from './numerics-labels.ts';
 import { SimulationBlowUpError, likelyCause } from '../core/simulation-error.ts';
 import { graphLabels } from '../systems/graph-labels.ts';
 import type { EpisodeRecord, EpisodeRejection, ExportDtype } from './dataset-manifest.ts';
@@ -82,8 +84,11 @@ export function produceEpisode(scenario: Scenario, index: number, dtype: ExportD
     files: [],
   };
   try {
+    const start = sampled.richardson ? startStateOf(model) : null;
     const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording, kernel);
-    return { record, arrays: episodeArrays(trajectory, graph, model.cellCornerCount, dtype, observeEpisode(sampled, trajectory)) };
+    const arrays = episodeArrays(trajectory, graph, model.cellCornerCount, dtype, observeEpisode(sampled, trajectory));
+    const richardson = start === null ? null : richardsonEstimate(model, start, sampled.world, sampled.controls, sampled.recording, trajectory);
+    return { record: { ...record, labels: { ...record.labels, ...numericsLabels(trajectory, richardson) } }, arrays };
   } catch (error) {
     if (!(error instanceof SimulationBlowUpError)) throw EpisodeBuildError.of(index, error);
     return { record: { ...record, status: 'rejected', rejection: rejectionOf(error.inEpisode(index)) }, arrays: null };

@@ -22,6 +22,8 @@ export const StreamPurpose = {
   designPoint: 7,
   /** Draws shared by every episode of a design: Sobol scrambles, stratum permutations (episode index 0). */
   designSetup: 8,
+  /** Which episodes get numerical-error reruns (Richardson). */
+  numerics: 9,
 } as const;
 
 export type StreamPurposeName = keyof typeof StreamPurpose;

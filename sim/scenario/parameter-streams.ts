@@ -31,6 +31,11 @@ export function initialStateStream(seed: number | string, episodeIndex: number, 
   return new RandomStream(seed, episodeIndex, StreamPurpose.initialState, subStream);
 }
 
+/** Decides whether an episode is rerun at half the sub-step (Richardson estimate). */
+export function richardsonStream(seed: number | string, episodeIndex: number): RandomStream {
+  return new RandomStream(seed, episodeIndex, StreamPurpose.numerics, 0);
+}
+
 export function splitStream(seed: number | string, episodeIndex: number): RandomStream {
   return new RandomStream(seed, episodeIndex, StreamPurpose.split, 0);
 }

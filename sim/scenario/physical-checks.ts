@@ -4,6 +4,7 @@
 // channel names that fit the system, an observation that fits the records and the nodes, and
 // sub-steps that keep the integration stable.
 import { isConstant, specBounds } from '../random/distribution.ts';
+import type { NumericValueSpec } from '../random/distribution.ts';
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { findChannelKeyProblems, findControlSpecProblemsOf } from './control-checks.ts';
 import { cornerSystems } from './corner-systems.ts';
@@ -121,18 +122,23 @@ function findSeedProblems(scenario: Scenario): ScenarioProblem[] {
 }
 
 function findFrictionProblems(scenario: Scenario): ScenarioProblem[] {
-  const ground = scenario.world.ground;
-  if (ground === undefined) return [];
-  const kinetic = specBounds(ground.kineticFriction);
-  const stat = specBounds(ground.staticFriction);
+  const surfaces: { pointer: string; kineticFriction: NumericValueSpec; staticFriction: NumericValueSpec }[] = [];
+  if (scenario.world.ground !== undefined) surfaces.push({ pointer: '/world/ground', ...scenario.world.ground });
+  (scenario.world.obstacles ?? []).forEach((obstacle, index) => surfaces.push({ pointer: `/world/obstacles/${index}`, ...obstacle }));
+  return surfaces.flatMap((surface) => frictionProblems(surface.pointer, surface.kineticFriction, surface.staticFriction));
+}
+
+function frictionProblems(pointer: string, kineticSpec: NumericValueSpec, staticSpec: NumericValueSpec): ScenarioProblem[] {
+  const kinetic = specBounds(kineticSpec);
+  const stat = specBounds(staticSpec);
   if (kinetic.max <= stat.min) return [];
-  const same = isConstant(ground.kineticFriction) && isConstant(ground.staticFriction);
+  const same = isConstant(kineticSpec) && isConstant(staticSpec);
   return [
     {
-      pointer: '/world/ground/kineticFriction',
+      pointer: `${pointer}/kineticFriction`,
       message: same
         ? `${kinetic.max} is above the static friction ${stat.min}; Coulomb friction needs kinetic ≤ static, so lower kineticFriction or raise staticFriction`
-        : `can reach ${kinetic.max}, above the lowest static friction ${stat.min} (/world/ground/staticFriction); Coulomb friction needs kinetic ≤ static in every episode, so keep kineticFriction's range below staticFriction's`,
+        : `can reach ${kinetic.max}, above the lowest static friction ${stat.min} (${pointer}/staticFriction); Coulomb friction needs kinetic ≤ static in every episode, so keep kineticFriction's range below staticFriction's`,
     },
   ];
 }

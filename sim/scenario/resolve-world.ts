@@ -3,7 +3,8 @@ import { defaultWorld } from '../core/world.ts';
 import type { World } from '../core/world.ts';
 import type { ParameterResolver } from './parameter-resolver.ts';
 import { resolveVector3 } from './resolve-chain.ts';
-import type { WorldSpec } from './scenario-types.ts';
+import type { ObstacleSpec, WorldSpec } from './scenario-types.ts';
+import type { Obstacle } from '../core/world.ts';
 
 export function resolveWorld(spec: WorldSpec, resolver: ParameterResolver): World {
   const world = defaultWorld();
@@ -27,5 +28,28 @@ export function resolveWorld(spec: WorldSpec, resolver: ParameterResolver): Worl
       buoyancy: spec.fluid.buoyancy,
     };
   }
+  world.obstacles = (spec.obstacles ?? []).map((obstacle, index) => resolveObstacle(obstacle, `/world/obstacles/${index}`, resolver));
   return world;
+}
+
+const AXIS_INDEX = { x: 0, y: 1, z: 2 } as const;
+
+function resolveObstacle(spec: ObstacleSpec, pointer: string, resolver: ParameterResolver): Obstacle {
+  const obstacle: Obstacle = {
+    shape: spec.shape,
+    centerM: resolveVector3(spec.centerM, `${pointer}/centerM`, resolver),
+    halfSizeM: [0, 0, 0],
+    radiusM: 0,
+    halfLengthM: 0,
+    axis: AXIS_INDEX[spec.axis ?? 'y'],
+    staticFriction: resolver.value(spec.staticFriction, `${pointer}/staticFriction`, 'none'),
+    kineticFriction: resolver.value(spec.kineticFriction, `${pointer}/kineticFriction`, 'none'),
+  };
+  if (spec.shape === 'box' && spec.sizeM !== undefined) {
+    const size = resolveVector3(spec.sizeM, `${pointer}/sizeM`, resolver);
+    obstacle.halfSizeM = [0.5 * size[0], 0.5 * size[1], 0.5 * size[2]];
+  }
+  if (spec.radiusM !== undefined) obstacle.radiusM = resolver.value(spec.radiusM, `${pointer}/radiusM`, 'none');
+  if (spec.shape === 'cylinder' && spec.lengthM !== undefined) obstacle.halfLengthM = 0.5 * resolver.value(spec.lengthM, `${pointer}/lengthM`, 'none');
+  return obstacle;
 }

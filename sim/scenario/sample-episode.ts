@@ -13,7 +13,7 @@ import { EpisodeDraws } from './episode-draws.ts';
 import { designCoordinates } from './design/scenario-design.ts';
 import { applyInitialStateNoise } from './initial-state-noise.ts';
 import { latticeBody } from './lattice-shape.ts';
-import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, shapeStream, splitStream } from './parameter-streams.ts';
+import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, richardsonStream, shapeStream, splitStream } from './parameter-streams.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveObservation } from './resolve-observation.ts';
@@ -99,16 +99,28 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
     },
     splitStream(seed, episodeIndex),
   );
+  const numerics = scenario.numerics ?? { energyBalance: false, richardsonShare: 0 };
+  // Episode i is rerun when its own uniform draw falls below the share: deterministic from
+  // (seed, i) alone, independent of every other draw and of the episode count.
+  const richardson = numerics.richardsonShare > 0 && richardsonStream(seed, episodeIndex).nextFloat64() < numerics.richardsonShare;
   return {
     index: episodeIndex,
     masterSeed: String(seed),
     split,
     system,
     world,
-    recording: { recordIntervalS, recordedSteps, substeps, autoSafety },
+    recording: {
+      recordIntervalS,
+      recordedSteps,
+      substeps,
+      autoSafety,
+      energyAccounting: numerics.energyBalance,
+      recordForces: scenario.export?.forces ?? false,
+    },
     controls,
     observation,
     labels: draws.labels,
+    richardson,
   };
 }
 

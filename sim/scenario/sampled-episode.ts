@@ -29,4 +29,6 @@ export interface SampledEpisode {
    * (e.g. "/system/partCount", "/world/gravityMPerS2/1", "/controls/0/frequencyHz").
    */
   labels: Record<string, LabelValue>;
+  /** Whether this episode is rerun at half the sub-step for a Richardson error estimate. */
+  richardson: boolean;
 }

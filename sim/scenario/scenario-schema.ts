@@ -212,6 +212,33 @@ const systemSchema: JsonSchema = {
   ],
 };
 
+const OBSTACLE_COMMON = {
+  centerM: vector3('Centre of the obstacle, m.'),
+  staticFriction: valueSpecSchema('Static friction coefficient of contact with the obstacle, dimensionless.', { minimum: 0 }),
+  kineticFriction: valueSpecSchema('Kinetic friction coefficient, dimensionless; at most the static one.', { minimum: 0 }),
+};
+
+const obstacleSchema: JsonSchema = {
+  type: 'object',
+  description: 'A static rigid obstacle: an axis-aligned box, a sphere, or a cylinder along x, y or z. Nodes touching it get the ground\'s contact: no penetration, no bounce, Coulomb friction.',
+  required: ['shape'],
+  properties: { shape: { enum: ['box', 'sphere', 'cylinder'], description: 'Which solid.' } },
+  allOf: [
+    { if: { properties: { shape: { const: 'box' } }, required: ['shape'] }, then: closed('An axis-aligned box.', { shape: { const: 'box' }, ...OBSTACLE_COMMON, sizeM: vector3('Edge lengths along x, y and z, m.', { exclusiveMinimum: 0 }) }, ['shape', 'centerM', 'sizeM', 'staticFriction', 'kineticFriction']) },
+    { if: { properties: { shape: { const: 'sphere' } }, required: ['shape'] }, then: closed('A sphere.', { shape: { const: 'sphere' }, ...OBSTACLE_COMMON, radiusM: valueSpecSchema('Radius, m.', { exclusiveMinimum: 0 }) }, ['shape', 'centerM', 'radiusM', 'staticFriction', 'kineticFriction']) },
+    {
+      if: { properties: { shape: { const: 'cylinder' } }, required: ['shape'] },
+      then: closed('A solid cylinder with flat ends.', {
+        shape: { const: 'cylinder' },
+        ...OBSTACLE_COMMON,
+        radiusM: valueSpecSchema('Radius, m.', { exclusiveMinimum: 0 }),
+        lengthM: valueSpecSchema('Length along its axis, m.', { exclusiveMinimum: 0 }),
+        axis: { ...AXES, default: 'y', description: 'Axis the cylinder lies along.' },
+      }, ['shape', 'centerM', 'radiusM', 'lengthM', 'staticFriction', 'kineticFriction']),
+    },
+  ],
+};
+
 const worldSchema = closed(
   'The surroundings: gravity, air drag, an optional ground plane and an optional fluid.',
   {
@@ -237,6 +264,7 @@ const worldSchema = closed(
       },
       ['densityKgPerM3', 'normalDragNsPerM3', 'tangentialDragNsPerM3'],
     ),
+    obstacles: { type: 'array', items: obstacleSchema, default: [], maxItems: 64, description: 'Static rigid obstacles besides the ground plane, at most 64; nodes do not collide with each other.' },
   },
   [],
 );
@@ -271,12 +299,18 @@ const timeSchema = closed(
     recordIntervalS: { type: 'number', exclusiveMinimum: 0, maximum: 3600, description: 'Time between records (and between control updates), s.' },
     recordedSteps: { type: 'integer', minimum: 1, maximum: MAX_RECORDED_STEPS, description: 'Records per episode after the initial state.' },
     substeps: {
-      type: ['integer', 'string'],
+      type: ['integer', 'string', 'object'],
       default: 'auto',
-      description: `Integration sub-steps per record interval: "auto" (from the stability bound) or a whole number from 1 to ${MAX_SUBSTEPS}.`,
+      description: `Integration sub-steps per record interval: "auto" (from the stability bound), {"accuracy": ε} ("auto", or more so that the fastest mode's energy swings within a relative band ε: ω_max·dt ≤ ε), or a whole number from 1 to ${MAX_SUBSTEPS}.`,
       if: { type: 'string' },
       then: { enum: ['auto'] },
-      else: { minimum: 1, maximum: MAX_SUBSTEPS },
+      else: {
+        if: { type: 'object' },
+        then: closed('Sub-steps for a target accuracy.', {
+          accuracy: { type: 'number', exclusiveMinimum: 0, maximum: 1, description: 'Target relative energy band (peak to peak over the energy) of the fastest mode, e.g. 0.05; sub-steps are at least those of "auto".' },
+        }, ['accuracy']),
+        else: { minimum: 1, maximum: MAX_SUBSTEPS },
+      },
     },
     autoSafety: { type: 'number', exclusiveMinimum: 0, maximum: 1, default: 0.5, description: 'Fraction of the critical time step that "auto" sub-steps stay within.' },
   },
@@ -350,6 +384,16 @@ const exportSchema = closed(
   {
     format: { type: 'string', enum: ['npz', 'hdf5', 'both'], default: 'npz', description: 'NPZ (zipped NPY arrays), HDF5, or both.' },
     dtype: { type: 'string', enum: ['float32', 'float64'], default: 'float32', description: 'Floating-point type of the recorded arrays.' },
+    forces: { type: 'boolean', default: false, description: 'Also store forces averaged over each record interval (impulse / interval): edge_tension, contact_normal_force, contact_friction_force, fluid_force.' },
+  },
+  [],
+);
+
+const numericsSchema = closed(
+  'Numerical-error estimates per episode, stored as labels under /numerics/ in the manifest.',
+  {
+    energyBalance: { type: 'boolean', default: false, description: 'Book every force\'s work and the contact losses: the energy_flows array and the energy balance labels. Off by default: it makes each sub-step some 2 to 4 times as long in the demo scenarios.' },
+    richardsonShare: { type: 'number', minimum: 0, maximum: 1, default: 0, description: 'Share of episodes (drawn from each episode\'s own stream) rerun at half the sub-step for a Richardson estimate of the position error.' },
   },
   [],
 );
@@ -443,6 +487,7 @@ export const SCENARIO_SCHEMA: JsonSchema = {
       maximum: 1,
       description: 'Largest share of the episodes of a run (or shard) that may be rejected as unstable; beyond it generation stops with exit code 2 and names the parameter ranges the rejected episodes come from. 0.5 when left out; 1 never stops.',
     },
+    numerics: { ...numericsSchema, default: {} },
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,

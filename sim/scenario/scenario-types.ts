@@ -109,6 +109,18 @@ export interface FluidSpec {
   buoyancy: boolean;
 }
 
+/** A static rigid obstacle; sizes by shape (box: sizeM; sphere: radiusM; cylinder: radiusM, lengthM, axis). */
+export interface ObstacleSpec {
+  shape: 'box' | 'sphere' | 'cylinder';
+  centerM: Vector3Spec;
+  sizeM?: Vector3Spec;
+  radiusM?: NumericValueSpec;
+  lengthM?: NumericValueSpec;
+  axis?: Axis;
+  staticFriction: NumericValueSpec;
+  kineticFriction: NumericValueSpec;
+}
+
 export interface WorldSpec {
   gravityMPerS2: Vector3Spec;
   airDragPerS: NumericValueSpec;
@@ -116,6 +128,8 @@ export interface WorldSpec {
   ground?: GroundSpec;
   /** Absent: no surrounding fluid. */
   fluid?: FluidSpec;
+  /** Static rigid obstacles (none by default). */
+  obstacles: ObstacleSpec[];
 }
 
 export interface ControlsSpec {
@@ -130,7 +144,8 @@ export interface ControlsSpec {
 export interface TimeSpec {
   recordIntervalS: number;
   recordedSteps: number;
-  substeps: number | 'auto';
+  /** A count, "auto", or {accuracy: ε}: "auto" plus enough sub-steps for a relative energy band ε. */
+  substeps: number | 'auto' | { accuracy: number };
   /** Fraction of the critical step that "auto" sub-steps stay within. */
   autoSafety: number;
 }
@@ -209,6 +224,15 @@ export interface SplitsSpec {
 export interface ExportSpec {
   format: 'npz' | 'hdf5' | 'both';
   dtype: 'float32' | 'float64';
+  /** Also store impulse-averaged forces: edge_tension, contact_normal_force, contact_friction_force, fluid_force. */
+  forces: boolean;
+}
+
+export interface NumericsSpec {
+  /** Book every force's work (energy_flows array, balance labels). */
+  energyBalance: boolean;
+  /** Share of episodes rerun at half the sub-step for a Richardson error estimate, 0 to 1. */
+  richardsonShare: number;
 }
 
 export interface Scenario {
@@ -235,4 +259,5 @@ export interface Scenario {
    * error naming the parameter ranges that fail; absent: DEFAULT_MAX_REJECTED_FRACTION (0.5).
    */
   maxRejectedFraction?: number;
+  numerics: NumericsSpec;
 }

@@ -2,6 +2,7 @@
 // draw: the stability bound of the demanding corner (stiffest, lightest, most damped) gives
 // the smallest critical step, which a fixed sub-step count must undercut and "auto" must reach
 // within the sub-step limit.
+import { accuracySubsteps } from '../core/accuracy-substeps.ts';
 import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import type { BuiltSystem } from '../systems/built-system.ts';
 import { DemandingCorner } from './demanding-corner.ts';
@@ -28,6 +29,19 @@ export function findStabilityProblems(scenario: Scenario, demandingSystems: read
   if (worst === undefined || !Number.isFinite(criticalDtS)) return [];
   const { recordIntervalS, substeps, autoSafety } = scenario.time;
   const where = cornerWords ? ` (${cornerWords})` : '';
+  if (typeof substeps === 'object') {
+    const bound = stabilityBound(worst.model, airDragPerS);
+    const needed = Math.max(autoSubsteps(recordIntervalS, bound, autoSafety), accuracySubsteps(recordIntervalS, bound, substeps.accuracy));
+    if (needed <= MAX_SUBSTEPS) return [];
+    return [
+      {
+        pointer: '/time/substeps/accuracy',
+        message:
+          `accuracy ${substeps.accuracy} would need ${needed} sub-steps per record interval for the stiffest, lightest system this scenario can draw${where} ` +
+          `(ω_max = ${bound.omegaMaxRadPerS.toPrecision(4)} rad/s); the limit is ${MAX_SUBSTEPS}. Loosen the accuracy target, shorten recordIntervalS, or make the stiffest case softer or heavier`,
+      },
+    ];
+  }
   if (substeps === 'auto') {
     const needed = autoSubsteps(recordIntervalS, stabilityBound(worst.model, airDragPerS), autoSafety);
     if (needed <= MAX_SUBSTEPS) return [];

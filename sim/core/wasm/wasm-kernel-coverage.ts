@@ -84,6 +84,14 @@ export const STEP_PASSES: readonly StepPass[] = [
     usedBy: (_m, w) => w.ground.enabled,
   },
   {
+    name: 'obstacle contact (boxes, spheres, cylinders)', jsFunction: 'obstacle-contact.ts projectObstacleContact', inWasmKernel: false,
+    modelFields: [], worldFields: ['obstacles'], usedBy: (_m, w) => w.obstacles.length > 0,
+  },
+  {
+    name: 'energy ledger and force recording', jsFunction: 'step-ledger.ts StepLedger beginStep, afterForceUpdate, afterContact, afterSupportsMoved', inWasmKernel: false,
+    modelFields: [], optionFields: ['ledger'], usedBy: (_m, _w, options) => options.ledger !== undefined,
+  },
+  {
     // Labels and cells for datasets and the energy measure; the step never reads them.
     name: 'labels and cells (not read by the step)', jsFunction: '—', inWasmKernel: true,
     modelFields: ['nodeMaterial', 'nodeChannel', 'springRelation', 'cellCornerCount', 'cellCount', 'cellCorners', 'cellMaterial', 'cellChannel'],

@@ -94,12 +94,13 @@ export class MarkerTrajectoryModel {
     return out;
   }
 
-  private recording(substeps: number | 'auto'): RecordingSettings {
+  private recording(substeps: RecordingSettings['substeps']): RecordingSettings {
     return { recordIntervalS: this.recordIntervalS, recordedSteps: this.measurement.frameCount - 1, substeps, autoSafety: this.scenario.time.autoSafety };
   }
 
   private chooseSubsteps(): number {
-    if (this.scenario.time.substeps !== 'auto') return this.scenario.time.substeps;
+    const choice = this.scenario.time.substeps;
+    if (typeof choice === 'number') return choice;
     const corner = this.selection.free.map((p) => {
       const { min, max } = specBounds(p.parameter.spec);
       return p.parameter.demanding === 'high' ? max : p.parameter.demanding === 'low' ? min : p.nominal;
@@ -107,7 +108,7 @@ export class MarkerTrajectoryModel {
     let substeps = 1;
     for (const values of [corner, this.selection.free.map((p) => p.nominal)]) {
       const { system, world } = buildCalibrationSystem(this.scenario, this.valueTable(values));
-      substeps = Math.max(substeps, resolveSubsteps(system.model, world, this.recording('auto')).substeps);
+      substeps = Math.max(substeps, resolveSubsteps(system.model, world, this.recording(choice)).substeps);
     }
     return substeps;
   }
