@@ -1,4 +1,5 @@
-// Files a careless or hostile user points Pliant at: a scenario that is a link to /dev/zero, a
+// Files a careless or hostile user points Pliant at: a scenario or a measurement table that is a
+// link to /dev/zero, a
 // file far larger than any scenario, JSON nested thousands of levels deep (in the CLI and in
 // the app's scenario check), and a UTF-8 byte-order mark. Each gets exit 2 (or a problem list in
 // the app) with a message naming the file and what is wrong, never a stack trace or an endless
@@ -44,6 +45,14 @@ describe('hostile and careless files', () => {
   it('a scenario file over 16 MiB is refused by its size', () => {
     writeFileSync(join(work, 'huge.json'), Buffer.alloc(17 * 1024 * 1024, 0x20));
     expectRefused(pliant('validate', 'huge.json'), 'the scenario file huge.json is 17 MiB, more than the 16 MiB');
+  });
+
+  it("a measurement's NPY table that is a link to /dev/zero is refused as not a regular file", () => {
+    const descriptor = JSON.parse(readFileSync(join(ROOT, 'scenarios/bench/korrin-tether-bench.json'), 'utf8')) as Record<string, unknown>;
+    descriptor.table = 'zero-table.npy';
+    writeFileSync(join(work, 'zero-measurement.json'), JSON.stringify(descriptor));
+    symlinkSync('/dev/zero', join(work, 'zero-table.npy'));
+    expectRefused(pliant('calibrate', join(ROOT, 'scenarios/korrin-tether.json'), 'zero-measurement.json', '--out', join(work, 'fitted.json')), 'zero-table.npy is not a regular file');
   });
 
   it('5,000 levels of nesting: exit 2 naming the line and column where the limit is passed', () => {

@@ -1,4 +1,4 @@
-// Reads a text file a user pointed at only when it is a regular file of a sane size, so a link
+// Reads a file a user pointed at only when it is a regular file of a sane size, so a link
 // to /dev/zero, a named pipe or a multi-gigabyte file gets a plain refusal instead of an
 // endless read or V8's "Invalid string length". The size is checked before reading and again
 // while reading (a file may grow, and some special files report size 0).
@@ -8,11 +8,19 @@ import { DatasetRequestError } from './dataset-request-error.ts';
 export const MiB = 1024 * 1024;
 
 /**
- * The UTF-8 text of the file at `path`, at most `maxBytes` long. `what` names the file in
+ * The UTF-8 text of the file at `path`, at most `maxBytes` long (see readBoundedBytes).
+ */
+export function readBoundedText(path: string, maxBytes: number, what: string): string {
+  const bytes = readBoundedBytes(path, maxBytes, what);
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
+}
+
+/**
+ * The bytes of the file at `path`, at most `maxBytes` long. `what` names the file in
  * messages ("the scenario file x.json"). Missing files and read errors are thrown as they come
  * (callers word ENOENT themselves); a file of the wrong type or size is a DatasetRequestError.
  */
-export function readBoundedText(path: string, maxBytes: number, what: string): string {
+export function readBoundedBytes(path: string, maxBytes: number, what: string): Uint8Array {
   const fd = openSync(path, 'r');
   try {
     const info = fstatSync(fd);
@@ -33,7 +41,7 @@ export function readBoundedText(path: string, maxBytes: number, what: string): s
       if (n === 0) break;
       filled += n;
     }
-    return buffer.toString('utf8', 0, filled);
+    return buffer.subarray(0, filled);
   } finally {
     closeSync(fd);
   }

@@ -1,7 +1,6 @@
 // Reads a measurement from its descriptor (JSON) and table (CSV with a header, NPY or NPZ) and
 // checks everything a calibration relies on, so that a mistake is reported at its place
 // (descriptor line:column and JSON pointer, CSV line and column name, NPZ member) with a fix.
-import { readFile } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
 import Ajv2020 from 'ajv/dist/2020.js';
 import { decodeNpy } from '../../dataset/npy.ts';
@@ -11,11 +10,13 @@ import { closestName } from '../../scenario/closest-name.ts';
 import { parseJsonText, placeProblems } from '../../scenario/json-source-map.ts';
 import { formatProblems } from '../../scenario/scenario-problem.ts';
 import { CalibrationInputError } from './calibration-input-error.ts';
-import { MiB, readBoundedText } from '../../dataset/bounded-text-file.ts';
+import { MiB, readBoundedBytes, readBoundedText } from '../../dataset/bounded-text-file.ts';
 import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
 
 /** A bench descriptor or CSV table: far below V8's longest string. */
 const MAX_MEASUREMENT_TEXT_BYTES = 256 * MiB;
+/** An NPY/NPZ table: 1 GiB is hours of marker tracks at high rate, and still fits in memory. */
+const MAX_MEASUREMENT_ARRAY_BYTES = 1024 * MiB;
 import type { MeasuredDrive, Measurement, MeasurementMarker } from './measurement.ts';
 import { MEASUREMENT_SCHEMA } from './measurement-schema.ts';
 import { parseMeasurementCsv } from './measurement-csv.ts';
@@ -128,8 +129,9 @@ async function readText(absolute: string, shown: string, what: string): Promise<
 async function readArrays(absolute: string, shown: string): Promise<NamedArray[]> {
   let bytes: Uint8Array;
   try {
-    bytes = new Uint8Array(await readFile(absolute));
+    bytes = readBoundedBytes(absolute, MAX_MEASUREMENT_ARRAY_BYTES, `the measurement table ${shown}`);
   } catch (error) {
+    if (error instanceof DatasetRequestError) throw new CalibrationInputError(error.message);
     const code = (error as NodeJS.ErrnoException).code;
     throw new CalibrationInputError(`cannot read the measurement table ${shown}: ${code === 'ENOENT' ? 'it does not exist' : (error as Error).message}; check the path`);
   }
