@@ -13,7 +13,7 @@ import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
 const EXAMPLES: ControlSpec[] = [
   { kind: 'none' },
   { kind: 'constant', value: { kind: 'uniform', min: 0.5, max: 2 } },
-  { kind: 'piecewise-constant', holdS: { kind: 'choice', values: [0.5, 1] }, min: -1, max: 1, clip: { min: -0.8 } },
+  { kind: 'piecewise-constant', holdS: { kind: 'categorical', values: [0.5, 1] }, min: -1, max: 1, clip: { min: -0.8 } },
   { kind: 'ornstein-uhlenbeck', meanValue: 1.5, std: 0.4, timeConstantS: { kind: 'log-uniform', min: 0.1, max: 2 } },
   { kind: 'band-limited', cutoffHz: 3, std: 0.5, componentCount: { kind: 'integer', min: 8, max: 32 } },
   { kind: 'sinusoid', amplitude: 0.8, frequencyHz: 1.2, phaseRad: 0, offset: 0.1 },

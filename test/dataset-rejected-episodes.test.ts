@@ -36,7 +36,7 @@ const scenario = {
     forceAxes: ['y'],
   },
   world: { gravityMPerS2: [0, -9.81, 0] },
-  controls: { default: { kind: 'constant', value: { kind: 'choice', values: [-50, -5000] } } },
+  controls: { default: { kind: 'constant', value: { kind: 'categorical', values: [-50, -5000] } } },
   time: { recordIntervalS: 0.005, recordedSteps: 100, substeps: 'auto' },
   episodes: 10,
   seed: 5,

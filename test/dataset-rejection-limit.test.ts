@@ -33,7 +33,7 @@ function scenario(extra: Record<string, unknown>, weights: number[]): Record<str
       forceAxes: ['y'],
     },
     world: { gravityMPerS2: [0, -9.81, 0] },
-    controls: { default: { kind: 'constant', value: { kind: 'choice', values: [-50, -5000], weights } } },
+    controls: { default: { kind: 'constant', value: { kind: 'categorical', values: [-50, -5000], weights } } },
     time: { recordIntervalS: 0.005, recordedSteps: 100, substeps: 'auto' },
     episodes: 12,
     seed: 5,

@@ -142,7 +142,7 @@ print(json.dumps({
     expect(integers).toEqual([10, 11, 12, 13, 14, 15]);
     expect(valueAtProbability({ kind: 'integer', min: 10, max: 15 }, 1 - 2 ** -53)).toBe(15);
     // Weights 1, 0, 3: value a on [0, 1/4), b never, c on [1/4, 1).
-    const weighted = { kind: 'choice' as const, values: ['a', 'b', 'c'], weights: [1, 0, 3] };
+    const weighted = { kind: 'categorical' as const, values: ['a', 'b', 'c'], weights: [1, 0, 3] };
     expect([0, 0.2499, 0.25, 0.9].map((u) => valueAtProbability(weighted, u))).toEqual(['a', 'a', 'c', 'c']);
     expect(() => valueAtProbability({ kind: 'uniform', min: 0, max: 1 }, 1)).toThrow(/outside \[0, 1\)/);
   });

@@ -1,10 +1,10 @@
 // Value specs: each distribution's samples against Debian SciPy (Kolmogorov–Smirnov for
-// uniform, loguniform and truncnorm; chi-square for integer and weighted choice), on fixed seeds
+// uniform, loguniform and truncnorm; chi-square for integer and weighted categorical), on fixed seeds
 // so the p-values are fixed numbers, not flaky draws. The bounds, constancy and error rules
 // are the spec format's own definition (common practice, no source).
 import { describe, expect, it } from 'vitest';
 import { isConstant, sampleValue, specBounds } from '../sim/random/distribution.ts';
-import type { ChoiceSpec, NumericValueSpec, ValueSpec } from '../sim/random/distribution.ts';
+import type { CategoricalSpec, NumericValueSpec, ValueSpec } from '../sim/random/distribution.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
 import { SpecError } from '../sim/random/spec-problem.ts';
 import { findValueSpecProblems } from '../sim/random/value-spec-problems.ts';
@@ -67,34 +67,34 @@ print(json.dumps({
     expect(result.truncatedAsNormal).toBeLessThan(1e-10);
   });
 
-  it('integer and weighted choice match their expected counts by scipy.stats.chisquare (p > 1e-3)', () => {
+  it('integer and weighted categorical match their expected counts by scipy.stats.chisquare (p > 1e-3)', () => {
     const segmentCount = { kind: 'integer', min: 8, max: 24 } as const;
     const integerCounts = new Array(17).fill(0);
     for (const k of samples(segmentCount, 3)) integerCounts[k - 8]++;
 
-    const finStiffness: ChoiceSpec<number> = { kind: 'choice', values: [0.5, 1, 2, 4], weights: [1, 2, 3, 4] };
+    const finStiffness: CategoricalSpec<number> = { kind: 'categorical', values: [0.5, 1, 2, 4], weights: [1, 2, 3, 4] };
     const choiceCounts = [0, 0, 0, 0];
     for (const v of samples(finStiffness, 4)) choiceCounts[finStiffness.values.indexOf(v)]++;
 
-    const result = runReferencePython<{ integer: number; choice: number; choiceAsEqual: number }>(
+    const result = runReferencePython<{ integer: number; categorical: number; categoricalAsEqual: number }>(
       `
 import json, sys
 import numpy as np
 from scipy import stats
 d = json.load(sys.stdin)
 w = np.array(d["weights"], dtype=float)
-expected = w / w.sum() * sum(d["choice"])
+expected = w / w.sum() * sum(d["categorical"])
 print(json.dumps({
   "integer": float(stats.chisquare(d["integer"]).pvalue),
-  "choice": float(stats.chisquare(d["choice"], expected).pvalue),
-  "choiceAsEqual": float(stats.chisquare(d["choice"]).pvalue),
+  "categorical": float(stats.chisquare(d["categorical"], expected).pvalue),
+  "categoricalAsEqual": float(stats.chisquare(d["categorical"]).pvalue),
 }))
 `,
-      { integer: integerCounts, choice: choiceCounts, weights: finStiffness.weights },
+      { integer: integerCounts, categorical: choiceCounts, weights: finStiffness.weights },
     );
     expect(result.integer).toBeGreaterThan(1e-3);
-    expect(result.choice).toBeGreaterThan(1e-3);
-    expect(result.choiceAsEqual).toBeLessThan(1e-10);
+    expect(result.categorical).toBeGreaterThan(1e-3);
+    expect(result.categoricalAsEqual).toBeLessThan(1e-10);
   });
 });
 
@@ -111,7 +111,7 @@ describe('value spec rules (definition of the spec format, common practice, no s
       { kind: 'log-uniform', min: 1e-6, max: 1e-3 },
       { kind: 'normal', mean: 0.3, std: 0.5, min: 0, max: 0.4 },
       { kind: 'integer', min: -2, max: 2 },
-      { kind: 'choice', values: [3, 1, 2], weights: [0, 1, 1] },
+      { kind: 'categorical', values: [3, 1, 2], weights: [0, 1, 1] },
     ];
     for (const spec of specs) {
       const { min, max } = specBounds(spec);
@@ -120,12 +120,12 @@ describe('value spec rules (definition of the spec format, common practice, no s
       expect(samples(spec, 9)).toEqual(a);
     }
     // A zero weight removes its value from the bounds.
-    expect(specBounds({ kind: 'choice', values: [3, 1, 2], weights: [0, 1, 1] })).toEqual({ min: 1, max: 2 });
-    expect(specBounds({ kind: 'choice', values: ['silicone-a', 'silicone-b'] })).toBeNull();
+    expect(specBounds({ kind: 'categorical', values: [3, 1, 2], weights: [0, 1, 1] })).toEqual({ min: 1, max: 2 });
+    expect(specBounds({ kind: 'categorical', values: ['silicone-a', 'silicone-b'] })).toBeNull();
   });
 
-  it('a choice may hold any JSON values; zero-weight values are never drawn', () => {
-    const spec: ValueSpec = { kind: 'choice', values: ['silicone-a', { shore: 30 }, null], weights: [1, 0, 1] };
+  it('a categorical spec may hold any JSON values; zero-weight values are never drawn', () => {
+    const spec: ValueSpec = { kind: 'categorical', values: ['silicone-a', { shore: 30 }, null], weights: [1, 0, 1] };
     const stream = new RandomStream(8, 0, StreamPurpose.shape);
     const seen = new Set<string>();
     for (let i = 0; i < 500; i++) seen.add(JSON.stringify(sampleValue(spec, stream)));
@@ -136,9 +136,9 @@ describe('value spec rules (definition of the spec format, common practice, no s
     expect(isConstant(4)).toBe(true);
     expect(isConstant({ kind: 'uniform', min: 2, max: 2 })).toBe(true);
     expect(isConstant({ kind: 'uniform', min: 2, max: 3 })).toBe(false);
-    expect(isConstant({ kind: 'choice', values: ['a', 'b'], weights: [0, 5] })).toBe(true);
-    expect(isConstant({ kind: 'choice', values: [1, 1] })).toBe(true);
-    expect(isConstant({ kind: 'choice', values: [1, 2] })).toBe(false);
+    expect(isConstant({ kind: 'categorical', values: ['a', 'b'], weights: [0, 5] })).toBe(true);
+    expect(isConstant({ kind: 'categorical', values: [1, 1] })).toBe(true);
+    expect(isConstant({ kind: 'categorical', values: [1, 2] })).toBe(false);
   });
 
   it('reports every problem with a JSON pointer and a fix, and sampling refuses the spec', () => {
@@ -150,9 +150,9 @@ describe('value spec rules (definition of the spec format, common practice, no s
       [{ kind: 'integer', min: 0.5, max: 3 }, `${pointer}/min`, /whole number/],
       [{ kind: 'uniform', min: 0, max: 1, mx: 2 }, `${pointer}/mx`, /not a member/],
       [{ kind: 'gaussian', mean: 1 }, `${pointer}/kind`, /unknown distribution kind/],
-      [{ kind: 'choice', values: [1, 2], weights: [1] }, `${pointer}/weights`, /one entry per value/],
-      [{ kind: 'choice', values: [1, 2], weights: [0, 0] }, `${pointer}/weights`, /all weights are zero/],
-      [{ kind: 'choice', values: [1, 2], weights: [1, -1] }, `${pointer}/weights/1`, /not a number >= 0/],
+      [{ kind: 'categorical', values: [1, 2], weights: [1] }, `${pointer}/weights`, /one entry per value/],
+      [{ kind: 'categorical', values: [1, 2], weights: [0, 0] }, `${pointer}/weights`, /all weights are zero/],
+      [{ kind: 'categorical', values: [1, 2], weights: [1, -1] }, `${pointer}/weights/1`, /not a number >= 0/],
       ['2e9', pointer, /expected a number/],
     ];
     for (const [spec, where, message] of cases) {

@@ -27,7 +27,7 @@ describe('valueSpecSchema under Ajv 2020-12 strict mode', () => {
       { kind: 'log-uniform', min: 1e6, max: 1e9 },
       { kind: 'normal', mean: 2.1e9, std: 3e8, min: 1.5e9, max: 3e9 },
       { kind: 'integer', min: 1, max: 5 },
-      { kind: 'choice', values: [1e6, 1e7], weights: [3, 1] },
+      { kind: 'categorical', values: [1e6, 1e7], weights: [3, 1] },
     ];
     for (const spec of good) {
       expect(validate(spec), JSON.stringify(validate.errors)).toBe(true);
@@ -39,7 +39,7 @@ describe('valueSpecSchema under Ajv 2020-12 strict mode', () => {
       { kind: 'log-uniform', min: 0, max: 1 },
       { kind: 'normal', mean: 1, std: 0, min: 0, max: 2 },
       { kind: 'integer', min: 1.5, max: 3 },
-      { kind: 'choice', values: [] },
+      { kind: 'categorical', values: [] },
       { kind: 'gaussian', mean: 1, std: 1 },
       'stiff',
       null,
@@ -57,23 +57,23 @@ describe('valueSpecSchema under Ajv 2020-12 strict mode', () => {
     expect(validate({ kind: 'uniform', min: -0.1, max: 0.2 })).toBe(false);
     expect(validate({ kind: 'normal', mean: 2, std: 1, min: 0, max: 1 })).toBe(true);
     expect(validate({ kind: 'normal', mean: 0.5, std: 1, min: 0, max: 1.2 })).toBe(false);
-    expect(validate({ kind: 'choice', values: [0.1, 2] })).toBe(false);
+    expect(validate({ kind: 'categorical', values: [0.1, 2] })).toBe(false);
   });
 
-  it('an integer quantity takes only whole constants, "integer" and "choice"', () => {
+  it('an integer quantity takes only whole constants, "integer" and "categorical"', () => {
     const validate = compile(valueSpecSchema('Number of tether segments.', { integer: true, minimum: 2 }));
     expect(validate(12)).toBe(true);
     expect(validate(12.5)).toBe(false);
     expect(validate(1)).toBe(false);
     expect(validate({ kind: 'integer', min: 8, max: 24 })).toBe(true);
     expect(validate({ kind: 'uniform', min: 8, max: 24 })).toBe(false);
-    expect(validate({ kind: 'choice', values: [8, 16, 24] })).toBe(true);
+    expect(validate({ kind: 'categorical', values: [8, 16, 24] })).toBe(true);
   });
 
-  it('a choice takes any JSON values only when asked to', () => {
+  it('a categorical spec takes any JSON values only when asked to', () => {
     const names = compile(valueSpecSchema('Fin material name.', { anyJsonChoice: true }));
     const numbers = compile(valueSpecSchema('Fin thickness, in m.'));
-    const spec = { kind: 'choice', values: ['silicone-a', 'silicone-b'] };
+    const spec = { kind: 'categorical', values: ['silicone-a', 'silicone-b'] };
     expect(names(spec)).toBe(true);
     expect(numbers(spec)).toBe(false);
   });

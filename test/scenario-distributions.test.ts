@@ -22,7 +22,7 @@ function sweep(): Scenario {
       totalMassKg: 0.8,
       axialStiffnessN: { kind: 'log-uniform', min: 1000, max: 20000 },
       dampingRatio: { kind: 'normal', mean: 0.1, std: 0.05, min: 0.02, max: 0.3 },
-      diameterM: { kind: 'choice', values: [0.008, 0.012, 0.02], weights: [1, 2, 1] },
+      diameterM: { kind: 'categorical', values: [0.008, 0.012, 0.02], weights: [1, 2, 1] },
       anchor: 'top-driven',
       drivenAxes: ['x'],
     },
@@ -50,7 +50,7 @@ counts = np.bincount(np.array(d['partCount']) - 10, minlength=31)
 out['integer'] = stats.chisquare(counts).pvalue
 choice = [d['diameterM'].count(v) for v in (0.008, 0.012, 0.02)]
 n = len(d['diameterM'])
-out['choice'] = stats.chisquare(choice, [n / 4, n / 2, n / 4]).pvalue
+out['categorical'] = stats.chisquare(choice, [n / 4, n / 2, n / 4]).pvalue
 out['independence'] = stats.spearmanr(d['lengthM'], d['axialStiffnessN']).pvalue
 out['controlIndependence'] = stats.spearmanr(d['lengthM'], d['controlValue']).pvalue
 out['minMax'] = [min(d['lengthM']), max(d['lengthM']), min(d['partCount']), max(d['partCount'])]
@@ -82,7 +82,7 @@ describe.runIf(python.available)(`parameter distributions over ${EPISODES} episo
   it('axialStiffnessN ~ log-uniform(1e3, 2e4): Kolmogorov–Smirnov against scipy.stats.loguniform', () => expect(p.logUniform).toBeGreaterThan(1e-3));
   it('dampingRatio ~ normal(0.1, 0.05) truncated to [0.02, 0.3]: Kolmogorov–Smirnov against scipy.stats.truncnorm', () => expect(p.truncatedNormal).toBeGreaterThan(1e-3));
   it('partCount ~ uniform whole numbers 10..40: chi-square', () => expect(p.integer).toBeGreaterThan(1e-3));
-  it('diameterM ~ choice with weights 1:2:1: chi-square', () => expect(p.choice).toBeGreaterThan(1e-3));
+  it('diameterM ~ categorical with weights 1:2:1: chi-square', () => expect(p.categorical).toBeGreaterThan(1e-3));
   it('a control parameter ~ uniform(0.05, 0.15): Kolmogorov–Smirnov', () => expect(p.control).toBeGreaterThan(1e-3));
   it('parameters on different pointers are uncorrelated (Spearman rank correlation test)', () => {
     expect(p.independence).toBeGreaterThan(1e-3);

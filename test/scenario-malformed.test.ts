@@ -128,6 +128,7 @@ const CASES: Case[] = [
   { name: 'abbreviated split name', edit: (s) => (s.splits.fractions = { train: 0.8, valid: 0.1, test: 0.1 }), pointer: '/splits/fractions/valid', at: '"valid"', message: 'did you mean "validation"?' },
   { name: 'misspelt anchor', edit: (s) => (s.system.anchor = 'top-pined'), pointer: '/system/anchor', at: '"anchor"', message: 'did you mean "top-pinned"?' },
   { name: 'misspelt distribution kind', edit: (s) => (s.system.lengthM.kind = 'unifrom'), pointer: '/system/lengthM/kind', at: '"kind"', after: '"lengthM"', message: 'did you mean "uniform"?' },
+  { name: 'the old name of the categorical kind', edit: (s) => (s.system.lengthM = { kind: 'choice', values: [1.5, 2] }), pointer: '/system/lengthM/kind', at: '"kind"', after: '"lengthM"', message: '"choice" is now called "categorical": write "categorical"' },
   { name: 'bad export format', edit: (s) => (s.export = { format: 'zip' }), pointer: '/export/format', at: '"format"', message: 'must be one of "npz", "hdf5", "both" (got "zip")' },
   { name: 'unknown control kind', edit: (s) => (s.controls.default.kind = 'sine'), pointer: '/controls/default/kind', at: '"kind"', after: '"controls"', message: 'must be one of "none"' },
   { name: 'misspelt control channel', edit: (s) => (s.controls.channels['top-ofset-x'] = { kind: 'none' }), pointer: '/controls/channels/top-ofset-x', at: '"top-ofset-x"', message: 'did you mean "top-offset-x"?' },

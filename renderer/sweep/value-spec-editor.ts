@@ -1,5 +1,5 @@
 // The editor of one numeric scenario value: a fixed number or a distribution drawn once per
-// episode (uniform, log-uniform, normal, integer, choice), each member with its unit, and a
+// episode (uniform, log-uniform, normal, integer, categorical), each member with its unit, and a
 // histogram of the draws the sweep will make.
 import type { ValueSpec } from '../../sim/random/distribution.ts';
 import { specBounds } from '../../sim/random/distribution.ts';
@@ -15,7 +15,7 @@ const KIND_LABELS: Record<string, string> = {
   'log-uniform': 'log-uniform',
   normal: 'normal (truncated)',
   integer: 'whole numbers',
-  choice: 'choice of values',
+  categorical: 'categorical (one of listed values)',
 };
 
 const MEMBERS: Record<string, string[]> = {
@@ -23,7 +23,7 @@ const MEMBERS: Record<string, string[]> = {
   'log-uniform': ['min', 'max'],
   normal: ['mean', 'std', 'min', 'max'],
   integer: ['min', 'max'],
-  choice: ['values', 'weights'],
+  categorical: ['values', 'weights'],
 };
 
 export interface ValueSpecEditorOptions {
@@ -111,7 +111,7 @@ function convertSpec(value: unknown, kind: string, integer: boolean): unknown {
       return { kind, mean: tidy(centre), std: tidy(spread / 4), min: tidy(lo), max: tidy(hi) };
     case 'integer':
       return { kind, min: Math.floor(lo), max: Math.max(Math.floor(lo) + 1, Math.ceil(hi)) };
-    case 'choice':
+    case 'categorical':
       return { kind, values: lo === hi ? [tidy(lo)] : [tidy(lo), tidy(hi)] };
     default:
       return value;

@@ -82,7 +82,7 @@ interface CheckContext {
 function isWhole(spec: NumericValueSpec): boolean {
   if (typeof spec === 'number') return Number.isInteger(spec);
   if (spec.kind === 'integer') return true;
-  if (spec.kind === 'choice') return spec.values.every((value) => Number.isInteger(value));
+  if (spec.kind === 'categorical') return spec.values.every((value) => Number.isInteger(value));
   return false;
 }
 
@@ -90,7 +90,7 @@ function isWhole(spec: NumericValueSpec): boolean {
 function checkMember(spec: unknown, pointer: string, rule: MemberRule, context: CheckContext): boolean {
   const valueProblems = findValueSpecProblems(spec, pointer);
   if (valueProblems.length === 0 && !isNumericChoice(spec)) {
-    valueProblems.push({ pointer, message: 'a choice here must list numbers only', fix: 'give numeric values' });
+    valueProblems.push({ pointer, message: 'a categorical spec here must list numbers only', fix: 'give numeric values' });
   }
   if (valueProblems.length > 0) {
     context.problems.push(...valueProblems);
@@ -134,7 +134,7 @@ function checkMember(spec: unknown, pointer: string, rule: MemberRule, context: 
     case 'component-count': {
       const low = rule === 'step-count' ? 0 : 1;
       const high = rule === 'step-count' ? MAX_STEP_COUNT : MAX_COMPONENT_COUNT;
-      if (!isWhole(numeric)) say('must be a whole number', 'give a whole number, or an "integer" or "choice" spec of whole numbers');
+      if (!isWhole(numeric)) say('must be a whole number', 'give a whole number, or an "integer" or "categorical" spec of whole numbers');
       else if (min < low || max > high) say(`can be outside ${low} to ${high} (range ${range})`, `keep it within ${low} to ${high}`);
       break;
     }
@@ -143,7 +143,7 @@ function checkMember(spec: unknown, pointer: string, rule: MemberRule, context: 
 }
 
 function isNumericChoice(spec: unknown): boolean {
-  if (typeof spec !== 'object' || spec === null || (spec as { kind?: unknown }).kind !== 'choice') return true;
+  if (typeof spec !== 'object' || spec === null || (spec as { kind?: unknown }).kind !== 'categorical') return true;
   return (spec as { values: unknown[] }).values.every((value) => typeof value === 'number');
 }
 

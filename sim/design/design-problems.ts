@@ -19,7 +19,7 @@ function valueCount(parameter: DesignParameter): number {
   const spec = parameter.spec;
   if (typeof spec === 'number') return 1;
   if (spec.kind === 'integer') return spec.max - spec.min + 1;
-  if (spec.kind === 'choice') return spec.weights === undefined ? spec.values.length : spec.weights.filter((w) => w > 0).length;
+  if (spec.kind === 'categorical') return spec.weights === undefined ? spec.values.length : spec.weights.filter((w) => w > 0).length;
   return Infinity;
 }
 

@@ -37,17 +37,17 @@ export interface IntegerSpec {
 }
 
 /** One of `values`, equally likely or in proportion to `weights` (same length, not all zero). */
-export interface ChoiceSpec<T extends JsonValue = JsonValue> {
-  kind: 'choice';
+export interface CategoricalSpec<T extends JsonValue = JsonValue> {
+  kind: 'categorical';
   values: T[];
   weights?: number[];
 }
 
-export type NumericValueSpec = number | UniformSpec | LogUniformSpec | TruncatedNormalSpec | IntegerSpec | ChoiceSpec<number>;
-export type ValueSpec = NumericValueSpec | ChoiceSpec;
+export type NumericValueSpec = number | UniformSpec | LogUniformSpec | TruncatedNormalSpec | IntegerSpec | CategoricalSpec<number>;
+export type ValueSpec = NumericValueSpec | CategoricalSpec;
 export type ValueSpecKind = Exclude<ValueSpec, number>['kind'];
 
-export const VALUE_SPEC_KINDS: readonly ValueSpecKind[] = ['uniform', 'log-uniform', 'normal', 'integer', 'choice'];
+export const VALUE_SPEC_KINDS: readonly ValueSpecKind[] = ['uniform', 'log-uniform', 'normal', 'integer', 'categorical'];
 
 export interface SpecBounds {
   min: number;
@@ -76,12 +76,12 @@ export function sampleValue(spec: ValueSpec, stream: RandomStream, pointer = '')
     }
     case 'integer':
       return stream.nextIntInclusive(spec.min, spec.max);
-    case 'choice':
+    case 'categorical':
       return spec.values[chooseIndex(spec, stream)];
   }
 }
 
-function chooseIndex(spec: ChoiceSpec, stream: RandomStream): number {
+function chooseIndex(spec: CategoricalSpec, stream: RandomStream): number {
   const weights = spec.weights;
   if (weights === undefined) return stream.nextIntInclusive(0, spec.values.length - 1);
   let total = 0;
@@ -100,14 +100,14 @@ function chooseIndex(spec: ChoiceSpec, stream: RandomStream): number {
 }
 
 /**
- * The smallest interval holding every value the spec can produce; null for a choice whose
+ * The smallest interval holding every value the spec can produce; null for a categorical spec whose
  * possible values are not all numbers.
  */
 export function specBounds(spec: NumericValueSpec): SpecBounds;
 export function specBounds(spec: ValueSpec): SpecBounds | null;
 export function specBounds(spec: ValueSpec): SpecBounds | null {
   if (typeof spec === 'number') return { min: spec, max: spec };
-  if (spec.kind !== 'choice') return { min: spec.min, max: spec.max };
+  if (spec.kind !== 'categorical') return { min: spec.min, max: spec.max };
   let min = Infinity;
   let max = -Infinity;
   for (let i = 0; i < spec.values.length; i++) {
@@ -123,7 +123,7 @@ export function specBounds(spec: ValueSpec): SpecBounds | null {
 /** True when the spec can produce only one value, so it needs no histogram and no label column. */
 export function isConstant(spec: ValueSpec): boolean {
   if (typeof spec === 'number') return true;
-  if (spec.kind !== 'choice') return spec.min === spec.max;
+  if (spec.kind !== 'categorical') return spec.min === spec.max;
   let first: string | undefined;
   for (let i = 0; i < spec.values.length; i++) {
     if (spec.weights !== undefined && !(spec.weights[i] > 0)) continue;

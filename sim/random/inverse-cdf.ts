@@ -5,7 +5,7 @@
 // solving its distribution function (standard-normal-tails.ts) by bracketed Newton steps, and
 // integer and categorical values by the stratum u falls in: floor(u × count), or the first
 // value whose cumulative weight exceeds u × total.
-import type { ChoiceSpec, ValueSpec } from './distribution.ts';
+import type { CategoricalSpec, ValueSpec } from './distribution.ts';
 import type { JsonValue } from './json-value.ts';
 import { SpecError } from './spec-problem.ts';
 import { standardNormalCdf, standardNormalDensity, standardNormalUpperTail } from './standard-normal-tails.ts';
@@ -32,12 +32,12 @@ export function valueAtProbability(spec: ValueSpec, u: number, pointer = ''): Js
     }
     case 'integer':
       return Math.min(spec.max, spec.min + Math.floor(u * (spec.max - spec.min + 1)));
-    case 'choice':
+    case 'categorical':
       return spec.values[categoryAtProbability(spec, u)];
   }
 }
 
-function categoryAtProbability(spec: ChoiceSpec, u: number): number {
+function categoryAtProbability(spec: CategoricalSpec, u: number): number {
   const weights = spec.weights;
   if (weights === undefined) return Math.min(spec.values.length - 1, Math.floor(u * spec.values.length));
   let total = 0;

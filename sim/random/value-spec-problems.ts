@@ -9,7 +9,7 @@ const MEMBERS: Record<string, readonly string[]> = {
   'log-uniform': ['kind', 'min', 'max'],
   normal: ['kind', 'mean', 'std', 'min', 'max'],
   integer: ['kind', 'min', 'max'],
-  choice: ['kind', 'values', 'weights'],
+  categorical: ['kind', 'values', 'weights'],
 };
 
 /** Problems of one value spec found at `pointer`; an empty list means it can be sampled. */
@@ -35,7 +35,7 @@ export function findValueSpecProblems(spec: unknown, pointer: string): SpecProbl
     return problems;
   }
   problems.push(...unknownMemberProblems(record, members, pointer, `a ${kind} spec`));
-  if (kind === 'choice') {
+  if (kind === 'categorical') {
     checkChoice(record, pointer, problems);
     return problems;
   }

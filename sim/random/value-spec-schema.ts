@@ -10,7 +10,7 @@ export interface ValueSpecSchemaOptions {
   exclusiveMinimum?: number;
   maximum?: number;
   exclusiveMaximum?: number;
-  /** Whole numbers only: constants, "integer" and "choice" of whole numbers. */
+  /** Whole numbers only: constants, "integer" and "categorical" of whole numbers. */
   integer?: boolean;
   /** Choice values may be any JSON value (names, flags), not only numbers. */
   anyJsonChoice?: boolean;
@@ -76,10 +76,10 @@ export function valueSpecSchema(description: string, options: ValueSpecSchemaOpt
       ),
     );
   }
-  kinds.push('integer', 'choice');
+  kinds.push('integer', 'categorical');
   branches.push(
     branch('integer', { min: boundedNumber('Smallest whole number, included.', options, true), max: boundedNumber('Largest whole number, included.', options, true) }, ['min', 'max']),
-    branch('choice', { values: choiceValues, weights }, ['values']),
+    branch('categorical', { values: choiceValues, weights }, ['values']),
   );
   const constant = boundedNumber(description, options, integer);
   if (options.default !== undefined) constant.default = options.default;

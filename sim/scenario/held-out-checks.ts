@@ -50,7 +50,7 @@ export function findHeldOutProblems(rules: readonly HeldOutRule[], sites: readon
 
 function canMatch(rule: HeldOutRule, spec: NumericValueSpec): boolean {
   if (typeof spec === 'number') return ruleMatches(rule, spec);
-  if (spec.kind === 'choice') return spec.values.some((v, i) => (spec.weights === undefined || spec.weights[i] > 0) && ruleMatches(rule, v));
+  if (spec.kind === 'categorical') return spec.values.some((v, i) => (spec.weights === undefined || spec.weights[i] > 0) && ruleMatches(rule, v));
   let lower = Math.max(spec.min, rule.inside?.[0] ?? -Infinity);
   let upper = Math.min(spec.max, rule.inside?.[1] ?? Infinity);
   let lowerOpen = false;

@@ -20,7 +20,7 @@ export function isGeneratedShape(shape: LatticeShapeSpec): shape is { generator:
 export function resolveShapeParameters(shape: LatticeShapeSpec, resolver: ParameterResolver): ShapeParameters {
   if (!isGeneratedShape(shape)) {
     const values = shape.maps.map((_, i) => i);
-    const mapIndex = resolver.value({ kind: 'choice', values, ...(shape.weights ? { weights: shape.weights } : {}) }, '/system/shape/maps', 'none');
+    const mapIndex = resolver.value({ kind: 'categorical', values, ...(shape.weights ? { weights: shape.weights } : {}) }, '/system/shape/maps', 'none');
     return { kind: 'map', mapIndex };
   }
   const g = shape.generator;

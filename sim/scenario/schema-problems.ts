@@ -33,6 +33,9 @@ export function findSchemaProblems(value: unknown): ScenarioProblem[] {
 }
 
 // Keywords that change which part of the instance a subschema applies to.
+/** Values earlier Pliant versions accepted, by their new names (the distribution kind "choice"). */
+const RENAMED_VALUES: Readonly<Record<string, string>> = { choice: 'categorical' };
+
 const DESCENDING = new Set(['properties', 'patternProperties', 'prefixItems', 'dependentSchemas', '$defs']);
 const DESCENDING_LEAF = new Set(['items', 'additionalProperties', 'contains', 'propertyNames', 'unevaluatedProperties', 'unevaluatedItems']);
 const COMBINING = new Set(['allOf', 'anyOf', 'oneOf']);
@@ -181,11 +184,16 @@ function describeOne(error: ErrorObject, root: unknown): Described | undefined {
       return { pointer: `${pointer}/${escaped}`, message: `unknown key "${key}"; ${advice}`, isType: false };
     }
     case 'enum': {
+      // A name Pliant used before gets its new name, not the nearest spelling.
       const allowed = (params.allowedValues as unknown[]) ?? [];
+      const renamed = typeof value === 'string' && Object.hasOwn(RENAMED_VALUES, value) ? RENAMED_VALUES[value] : undefined;
       const suggestion = typeof value === 'string' ? closestName(value, allowed.filter((a): a is string => typeof a === 'string')) : undefined;
+      const advice = renamed !== undefined && allowed.includes(renamed)
+        ? `; "${value as string}" is now called "${renamed}": write "${renamed}"`
+        : suggestion !== undefined ? `; did you mean "${suggestion}"?` : '';
       return {
         pointer,
-        message: `must be one of ${quoteList(allowed)} (got ${describeValue(value)})${suggestion !== undefined ? `; did you mean "${suggestion}"?` : ''}`,
+        message: `must be one of ${quoteList(allowed)} (got ${describeValue(value)})${advice}`,
         isType: false,
       };
     }

@@ -79,7 +79,7 @@ export function selectParameters(scenario: Scenario, knownParameters: Record<str
   }
   const free: FreeParameter[] = [];
   for (const p of chosen) {
-    if (p.nominal === null || (typeof p.spec !== 'number' && (p.spec.kind === 'integer' || p.spec.kind === 'choice'))) {
+    if (p.nominal === null || (typeof p.spec !== 'number' && (p.spec.kind === 'integer' || p.spec.kind === 'categorical'))) {
       throw new CalibrationInputError(
         `${p.pointer} is drawn as a whole number or from a list, which a least-squares fit cannot move; state the bench's value in ${knownSource} under "knownParameters": { "${p.pointer}": … }`,
       );

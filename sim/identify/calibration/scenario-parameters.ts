@@ -53,13 +53,13 @@ export function nominalValue(spec: NumericValueSpec): number | null {
     case 'normal':
       return spec.mean;
     case 'integer':
-    case 'choice':
+    case 'categorical':
       return isConstant(spec) ? firstValue(spec) : null;
   }
 }
 
 function firstValue(spec: NumericValueSpec): number {
   if (typeof spec === 'number') return spec;
-  if (spec.kind === 'choice') return spec.values[0];
+  if (spec.kind === 'categorical') return spec.values[0];
   return spec.min;
 }
