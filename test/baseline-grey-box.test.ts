@@ -68,7 +68,7 @@ const FIN_PAIR = {
     kind: 'lattice', cellSizeM: 0.02, shape: { maps: [[[1, 2]]] }, originM: [0, 1, 0],
     materials: [
       { name: 'skin', youngsModulusPa: 20000, densityKgPerM3: 1100, dampingRatio: 0.1 },
-      { name: 'muscle', youngsModulusPa: 20000, densityKgPerM3: 1100, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.2 },
+      { name: 'actuator', youngsModulusPa: 20000, densityKgPerM3: 1100, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.2 },
     ],
   },
   world: { gravityMPerS2: [0, -9.81, 0] },

@@ -64,9 +64,9 @@ describe('graph labels of a chain (definitions in sim/systems/chain.ts)', () => 
 describe('graph labels of a lattice (material map definitions in sim/systems/lattice.ts)', () => {
   const materials: LatticeMaterial[] = [
     { name: 'eel body', youngsModulusPa: 3e4, densityKgPerM3: 1000, dampingRatio: 0.1, actuatorChannel: null, actuationStrainMax: 0 },
-    { name: 'eel muscle', youngsModulusPa: 2e4, densityKgPerM3: 1050, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.2 },
+    { name: 'eel actuator', youngsModulusPa: 2e4, densityKgPerM3: 1050, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.2 },
   ];
-  // 2-D rows [y][x]: bottom row passive, top row: muscle, passive, muscle.
+  // 2-D rows [y][x]: bottom row passive, top row: actuator, passive, actuator.
   const system = buildLattice({ cellSizeM: 0.02, materialMap: [[1, 1, 1], [2, 1, 2]], materials, base: 'free', originM: [0, 0, 0] });
   const model = system.model;
   const labels = graphLabels(model);
@@ -88,7 +88,7 @@ describe('graph labels of a lattice (material map definitions in sim/systems/lat
   it('node features give the first owning cell\'s material and the channel of any actuated cell', () => {
     // Worked from the map (cells are visited row by row from the bottom): nodes of rows y = 0
     // and 1 first belong to bottom-row (passive) cells; on row 2 the first owner of x = 0, 1
-    // and 3 is a muscle cell, of x = 2 the passive middle cell. Every node touching a muscle
+    // and 3 is a actuator cell, of x = 2 the passive middle cell. Every node touching a actuator
     // cell (all of rows 1 and 2) reads its channel 0.
     const expectedMaterial = [[0, 0, 0, 0], [0, 0, 0, 0], [1, 1, 0, 1]];
     const expectedChannel = [[-1, -1, -1, -1], [0, 0, 0, 0], [0, 0, 0, 0]];

@@ -115,10 +115,10 @@ describe('lattice bar in uniaxial tension (Hooke\'s law, Gere & Timoshenko; Cauc
 
 describe('actuated free voxel cell settles to volume (1 ± strainMax)³·a³ (geometric similarity; common practice)', () => {
   const strainMax = 0.12;
-  const muscle: LatticeMaterial = { name: 'fin actuator', youngsModulusPa: 5e4, densityKgPerM3: 1050, dampingRatio: 0.5, actuatorChannel: 0, actuationStrainMax: strainMax };
+  const actuator: LatticeMaterial = { name: 'fin actuator', youngsModulusPa: 5e4, densityKgPerM3: 1050, dampingRatio: 0.5, actuatorChannel: 0, actuationStrainMax: strainMax };
   for (const u of [1, -1]) {
     it(`u = ${u}: volume within 2% of (1 ${u > 0 ? '+' : '−'} ${strainMax})³·a³`, () => {
-      const system = buildLattice({ cellSizeM: CELL_M, materialMap: [[[1]]], materials: [muscle], base: 'free', originM: [0, 0, 0] });
+      const system = buildLattice({ cellSizeM: CELL_M, materialMap: [[[1]]], materials: [actuator], base: 'free', originM: [0, 0, 0] });
       const model = system.model;
       expect(system.controlChannels.map((c) => c.kind)).toEqual(['actuator']);
       const corners = model.cellCorners.subarray(0, 8);

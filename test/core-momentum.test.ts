@@ -140,7 +140,7 @@ describe('constant force on a free body: centre of mass accelerates at F/M (Newt
   it('3-D lattice with an actuated material pulsing while one corner is pushed', () => {
     const materials: LatticeMaterial[] = [
       { name: 'passive', youngsModulusPa: 2e4, densityKgPerM3: 1100, dampingRatio: 0.1, actuatorChannel: null, actuationStrainMax: 0 },
-      { name: 'muscle', youngsModulusPa: 1e4, densityKgPerM3: 1000, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.15 },
+      { name: 'actuator', youngsModulusPa: 1e4, densityKgPerM3: 1000, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.15 },
     ];
     const system = buildLattice({
       cellSizeM: 0.02, materials, base: 'free', originM: [0, 0.1, 0],

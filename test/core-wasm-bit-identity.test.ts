@@ -99,8 +99,8 @@ const TETHER_SEGMENT: ChainParameters = {
 };
 
 const FIN_PAD: LatticeMaterial = { name: 'fin pad', youngsModulusPa: 5e4, densityKgPerM3: 1100, dampingRatio: 0.2, actuatorChannel: null, actuationStrainMax: 0 };
-const FIN_MUSCLE: LatticeMaterial = { name: 'fin muscle', youngsModulusPa: 8e4, densityKgPerM3: 1060, dampingRatio: 0.15, actuatorChannel: 0, actuationStrainMax: 0.12 };
-const FIN_MUSCLE_B: LatticeMaterial = { ...FIN_MUSCLE, name: 'fin muscle b', actuatorChannel: 1 };
+const FIN_ACTUATOR: LatticeMaterial = { name: 'fin actuator', youngsModulusPa: 8e4, densityKgPerM3: 1060, dampingRatio: 0.15, actuatorChannel: 0, actuationStrainMax: 0.12 };
+const FIN_ACTUATOR_B: LatticeMaterial = { ...FIN_ACTUATOR, name: 'fin actuator b', actuatorChannel: 1 };
 
 function chainSystem(over: Partial<ChainParameters>, world: World): { model: Model; world: World } {
   return { model: buildChain({ ...TETHER_SEGMENT, ...over }).model, world };
@@ -175,10 +175,10 @@ const ROWS: Row[] = [
     return s;
   }, 20, (t, u) => { u[0] = 0.02 * wave(1)(t); u[1] = 0.05 * wave(2)(t); }),
   intervalsRow('actuated 3-D fin in a flowing fluid (quad drag), two channels, clamped base', () => latticeSystem(
-    [[[1, 1, 1], [1, 1, 1]], [[2, 3, 2], [3, 2, 3]]], [FIN_PAD, FIN_MUSCLE, FIN_MUSCLE_B], 'clamped', [0, 0, 0], inFluid([0.05, 0.01, 0], true),
+    [[[1, 1, 1], [1, 1, 1]], [[2, 3, 2], [3, 2, 3]]], [FIN_PAD, FIN_ACTUATOR, FIN_ACTUATOR_B], 'clamped', [0, 0, 0], inFluid([0.05, 0.01, 0], true),
   ), 20, (t, u) => { u[0] = wave(2)(t); u[1] = -wave(2, 0.3)(t); }),
   intervalsRow('actuated 2-D swimmer outline in still fluid (segment drag on a lattice)', () => latticeSystem(
-    [[2, 3, 2, 3, 2], [1, 1, 1, 1, 1]], [FIN_PAD, FIN_MUSCLE, FIN_MUSCLE_B], 'free', [0, 0, 0], inFluid([0, 0, 0], false),
+    [[2, 3, 2, 3, 2], [1, 1, 1, 1, 1]], [FIN_PAD, FIN_ACTUATOR, FIN_ACTUATOR_B], 'free', [0, 0, 0], inFluid([0, 0, 0], false),
   ), 20, (t, u) => { u[0] = wave(3)(t); u[1] = wave(3, Math.PI / 2)(t); }),
   intervalsRow('EI, clamped at the top (hinges and one clamp, no bending damping)', () => bentChain({ clampedEnds: ['top'] }, defaultWorld(), false), 30, () => {}),
   intervalsRow('EI, clamped at both ends, pushed in the middle', () => bentChain({ anchor: 'free', clampedEnds: ['top', 'bottom'], forceHandles: [12], forceAxes: ['y', 'z'] }, defaultWorld(), false), 30, (t, u) => {
@@ -199,13 +199,13 @@ const ROWS: Row[] = [
   }, inFluid([0.1, 0, 0.05], true), true), 30, (t, u) => { u[0] = 0.05 * wave(1)(t); u[1] = 0.05 * wave(2)(t); }),
   intervalsRow('lattice with a shaking-table clamp group (driven face) and a pinned cell group', () => ({
     model: buildLattice({
-      cellSizeM: 0.02, materialMap: [[[1, 1, 1], [1, 1, 1]], [[2, 1, 2], [1, 2, 1]]], materials: [FIN_PAD, FIN_MUSCLE], base: 'free', originM: [0, 0, 0],
+      cellSizeM: 0.02, materialMap: [[[1, 1, 1], [1, 1, 1]], [[2, 1, 2], [1, 2, 1]]], materials: [FIN_PAD, FIN_ACTUATOR], base: 'free', originM: [0, 0, 0],
       clamps: [{ name: 'table', face: '-y', drivenAxes: ['x', 'y'] }, { name: 'peg', cells: [[2, 1, 1]], drivenAxes: [] }],
     }).model,
     world: defaultWorld(),
   }), 20, (t, u) => { u[0] = wave(3)(t); u[1] = 0.002 * wave(2)(t); u[2] = 0.001 * wave(5)(t); }),
   intervalsRow('actuated block on the ground in air (contact and actuation together)', () => latticeSystem(
-    [[[1, 1], [1, 1]], [[2, 2], [2, 2]]], [FIN_PAD, FIN_MUSCLE], 'free', [0, 0, 0], withGround(0.8, 0.6),
+    [[[1, 1], [1, 1]], [[2, 2], [2, 2]]], [FIN_PAD, FIN_ACTUATOR], 'free', [0, 0, 0], withGround(0.8, 0.6),
   ), 20, (t, u) => { u[0] = wave(4)(t); }),
 ];
 

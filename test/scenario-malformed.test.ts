@@ -58,7 +58,7 @@ function finScenario(): Json {
       shape: { maps: [[[1, 1, 1], [2, 2, 2], [2, 0, 2]]] },
       materials: [
         { name: 'root', youngsModulusPa: 5e5, densityKgPerM3: 1100, dampingRatio: 0.05 },
-        { name: 'muscle', youngsModulusPa: 2e5, densityKgPerM3: 1050, dampingRatio: 0.05, actuatorChannel: 0, actuationStrainMax: 0.1 },
+        { name: 'actuator', youngsModulusPa: 2e5, densityKgPerM3: 1050, dampingRatio: 0.05, actuatorChannel: 0, actuationStrainMax: 0.1 },
       ],
     },
     time: { recordIntervalS: 0.01, recordedSteps: 100 },
@@ -137,7 +137,7 @@ const CASES: Case[] = [
   // Numbers out of range.
   { name: 'negative mass', edit: (s) => (s.system.totalMassKg = -1), pointer: '/system/totalMassKg', at: '"totalMassKg"', message: 'must be > 0 (got -1)' },
   { name: 'mass range reaching below zero', edit: (s) => (s.system.totalMassKg = { kind: 'uniform', min: -1, max: 2 }), pointer: '/system/totalMassKg/min', at: '"min"', after: '"totalMassKg"', message: 'must be > 0 (got -1)' },
-  { name: 'negative lattice density', fixture: finScenario, edit: (s) => (s.system.materials[1].densityKgPerM3 = -1050), pointer: '/system/materials/1/densityKgPerM3', at: '"densityKgPerM3"', after: '"muscle"', message: 'must be > 0 (got -1050)' },
+  { name: 'negative lattice density', fixture: finScenario, edit: (s) => (s.system.materials[1].densityKgPerM3 = -1050), pointer: '/system/materials/1/densityKgPerM3', at: '"densityKgPerM3"', after: '"actuator"', message: 'must be > 0 (got -1050)' },
   { name: 'number beyond double range', text: tetherText.replace('"totalMassKg": 0.8', '"totalMassKg": 1e400'), pointer: '/system/totalMassKg', at: '"totalMassKg"', message: 'must be a finite number' },
   { name: 'huge episode count', edit: (s) => (s.episodes = 1e12), pointer: '/episodes', at: '"episodes"', message: 'must be ≤ 100000000 (got 1000000000000)' },
   { name: 'chain above the node limit', edit: (s) => (s.system.partCount = 200000), pointer: '/system/partCount', at: '"partCount"', message: 'must be ≤ 99999 (got 200000)' },

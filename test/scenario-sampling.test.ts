@@ -160,7 +160,7 @@ describe('labels are the parameters the built system has (k = EA·n/L for a bar;
         shape: { maps: [[[1, 1, 1], [2, 2, 2], [2, 0, 2]], [[1, 1], [2, 2], [2, 2]]] },
         materials: [
           { name: 'root', youngsModulusPa: 5e5, densityKgPerM3: { kind: 'uniform', min: 1000, max: 1200 }, dampingRatio: 0.05 },
-          { name: 'muscle', youngsModulusPa: 2e5, densityKgPerM3: 1050, dampingRatio: 0.05, actuatorChannel: 0, actuationStrainMax: 0.1 },
+          { name: 'actuator', youngsModulusPa: 2e5, densityKgPerM3: 1050, dampingRatio: 0.05, actuatorChannel: 0, actuationStrainMax: 0.1 },
         ],
       },
       time: { recordIntervalS: 0.01, recordedSteps: 5 },
@@ -174,10 +174,10 @@ describe('labels are the parameters the built system has (k = EA·n/L for a bar;
       const rootDensity = e.labels['/system/materials/0/densityKgPerM3'] as number;
       const mapIndex = e.labels['/system/shape/maps'] as number;
       seen.add(mapIndex);
-      const [rootCells, muscleCells] = mapIndex === 0 ? [3, 5] : [2, 4];
-      const expected = (rootCells * rootDensity + muscleCells * 1050) * a * a * a;
+      const [rootCells, actuatorCells] = mapIndex === 0 ? [3, 5] : [2, 4];
+      const expected = (rootCells * rootDensity + actuatorCells * 1050) * a * a * a;
       expect(e.system.model.massKg.reduce((x, y) => x + y, 0)).toBeCloseTo(expected, 12);
-      expect(e.system.model.cellCount).toBe(rootCells + muscleCells);
+      expect(e.system.model.cellCount).toBe(rootCells + actuatorCells);
     }
     expect(seen).toEqual(new Set([0, 1]));
   });

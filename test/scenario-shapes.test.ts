@@ -30,7 +30,7 @@ function swimmer(dimension: 2 | 3, base: 'free' | 'clamped'): Scenario {
       },
       materials: [
         { name: 'skin', youngsModulusPa: 2e5, densityKgPerM3: 1000, dampingRatio: 0.1 },
-        { name: 'muscle', youngsModulusPa: 1e5, densityKgPerM3: 1060, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.15 },
+        { name: 'actuator', youngsModulusPa: 1e5, densityKgPerM3: 1060, dampingRatio: 0.1, actuatorChannel: 0, actuationStrainMax: 0.15 },
       ],
     },
     world: { gravityMPerS2: [0, 0, 0], fluid: { densityKgPerM3: 1000, normalDragNsPerM3: 200, tangentialDragNsPerM3: 20, buoyancy: false } },
@@ -124,7 +124,7 @@ for (const [dimension, base] of [[3, 'free'], [2, 'clamped']] as const) {
 
     it('give materials by weight 1:3 and actuated cells a uniformly drawn channel among actuatedChannelCount', () => {
       let skin = 0;
-      let muscle = 0;
+      let actuator = 0;
       const channelCounts = new Map<number, number[]>();
       for (const e of episodes) {
         const parameters = e.system.parameters as LatticeParameters;
@@ -137,15 +137,15 @@ for (const [dimension, base] of [[3, 'free'], [2, 'clamped']] as const) {
             expect(material.name).toBe('skin');
             skin++;
           } else {
-            expect(material.name).toBe(`muscle@${material.actuatorChannel}`);
+            expect(material.name).toBe(`actuator@${material.actuatorChannel}`);
             tally[material.actuatorChannel]++;
-            muscle++;
+            actuator++;
           }
         }
         channelCounts.set(count, tally);
       }
-      const n = skin + muscle;
-      expect(Math.abs(muscle - 0.75 * n)).toBeLessThan(4.5 * Math.sqrt(n * 0.75 * 0.25));
+      const n = skin + actuator;
+      expect(Math.abs(actuator - 0.75 * n)).toBeLessThan(4.5 * Math.sqrt(n * 0.75 * 0.25));
       for (const [count, tally] of channelCounts) {
         const total = tally.reduce((a, b) => a + b, 0);
         for (const k of tally) expect(Math.abs(k - total / count)).toBeLessThan(4.5 * Math.sqrt(total * (1 / count) * (1 - 1 / count)) + 1);

@@ -6,6 +6,7 @@
 // where the member is missing, before its members, if/then/else branches and allOf parts are
 // visited — and the end-to-end suite compares the result with checkScenarioText's on every demo.
 import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
+import { drawTextMaps } from '../../sim/scenario/draw-text-maps.ts';
 import type { Scenario } from '../../sim/scenario/scenario-types.ts';
 
 type Schema = { [keyword: string]: unknown };
@@ -23,7 +24,11 @@ export function checkedScenario(text: string, fileName: string): CheckedScenario
     return { ok: false, message: `${fileName} holds no JSON object. A scenario is one object; see the Sweep screen.` };
   }
   fillDefaults(SCENARIO_SCHEMA as Schema, value);
-  return { ok: true, scenario: value as Scenario };
+  const scenario = value as Scenario;
+  // The shell's check drew the same maps without problems; a problem here means it was skipped.
+  const drawn = drawTextMaps(scenario);
+  if (drawn.length > 0) return { ok: false, message: `${fileName} ${drawn[0].pointer}: ${drawn[0].message}. Fix it on the Sweep screen.` };
+  return { ok: true, scenario };
 }
 
 /**

@@ -6,6 +6,7 @@ import { findPhysicalProblems } from './physical-checks.ts';
 import { findSchemaProblems } from './schema-problems.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
+import { drawTextMaps } from './draw-text-maps.ts';
 
 export type ScenarioCheck = { ok: true; scenario: Scenario } | { ok: false; problems: ScenarioProblem[] };
 
@@ -26,6 +27,8 @@ export function checkScenarioValue(value: unknown): ScenarioCheck {
   const schemaProblems = findSchemaProblems(copy);
   if (schemaProblems.length > 0) return { ok: false, problems: schemaProblems };
   const scenario = copy as Scenario;
+  const drawn = drawTextMaps(scenario);
+  if (drawn.length > 0) return { ok: false, problems: drawn };
   const physical = findPhysicalProblems(scenario);
   if (physical.length > 0) return { ok: false, problems: physical };
   return { ok: true, scenario };

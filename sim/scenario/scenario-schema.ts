@@ -102,6 +102,36 @@ const materialMapSchema: JsonSchema = {
   },
 };
 
+const textRow: JsonSchema = { type: 'string', minLength: 1, description: 'One row of cells, one character per cell along x; "." is empty.' };
+const legendSchema: JsonSchema = {
+  type: 'object',
+  minProperties: 1,
+  propertyNames: { minLength: 1, maxLength: 2 },
+  additionalProperties: { type: ['string', 'null'], minLength: 1 },
+  description: 'Each character the rows use and the material it stands for, by its name in /system/materials (null: an empty cell). "." is empty without an entry.',
+};
+
+const textMaterialMapSchema: JsonSchema = {
+  type: 'object',
+  description: 'A material map drawn as text, written top first as the body looks: "rows" for 2-D, or "levels" for 3-D (each level a plan from above, one row per z).',
+  if: { properties: { levels: {} }, required: ['levels'] },
+  then: closed('A 3-D map drawn as text.', {
+    legend: legendSchema,
+    levels: { type: 'array', minItems: 1, items: { type: 'array', minItems: 1, items: textRow }, description: 'Levels from the top down; each a plan seen from above, rows z = 0, 1, … and characters along x.' },
+  }, ['legend', 'levels']),
+  else: closed('A 2-D map drawn as text.', {
+    legend: legendSchema,
+    rows: { type: 'array', minItems: 1, items: textRow, description: 'Rows from the top down, characters along x.' },
+  }, ['legend', 'rows']),
+};
+
+const anyMaterialMapSchema: JsonSchema = {
+  description: 'A material map: numbers (rows [y][x] or layers [y][z][x], bottom first) or text with a legend (top first, as the body looks).',
+  if: { type: 'object' },
+  then: textMaterialMapSchema,
+  else: materialMapSchema,
+};
+
 const generatorSchema = closed(
   'Random face-connected bodies: grown cell by cell from a seed cell inside a box, each cell given a material by materialWeights.',
   {
@@ -139,7 +169,7 @@ const shapeSchema: JsonSchema = {
       maps: {
         type: 'array',
         minItems: 1,
-        items: materialMapSchema,
+        items: anyMaterialMapSchema,
         description: 'Material maps, one drawn per episode (equally likely unless "weights" is given); or give "generator" instead of "maps" for random shapes.',
       },
       weights: { type: 'array', items: { type: 'number', minimum: 0 }, description: 'Relative chance of each map, one per map (optional).' },
