@@ -179,6 +179,33 @@ describe('pliant inspect', () => {
     expect(outcome.stdout).toMatch(new RegExp(`split HDF5\\s+${m.files.filter((f) => f.kind === 'split-hdf5').length}\\s`));
     expect(outcome.stdout).toContain('Rejected episodes: none');
   });
+
+  it.skipIf(!python.available)('--json gives the same facts as one JSON document, ranges as Python computes them from manifest.json', async () => {
+    const outcome = await cli(['inspect', dataset, '--json']);
+    expect(outcome.code, outcome.stderr).toBe(0);
+    const inspected = JSON.parse(outcome.stdout) as { inspectFormat: number; state: string; splits: { split: string; ok: number; rejected: number }[]; parameters: { pointer: string; min: number | null; max: number | null; episodes: number }[] };
+    expect(inspected.inspectFormat).toBe(1);
+    expect(inspected.state).toBe('complete');
+    // Reference: Python's json module and built-in min/max over the manifest's labels.
+    const reference = runReferencePython<{ splits: Record<string, { ok: number; rejected: number }>; ranges: Record<string, [number, number, number]> }>(
+      `
+import json, sys
+m = json.load(open(json.load(sys.stdin)["path"]))
+ranges = {}
+for e in m["episodes"]:
+    for k, v in e["labels"].items():
+        if isinstance(v, (int, float)) and not isinstance(v, bool):
+            lo, hi, n = ranges.get(k, (v, v, 0))
+            ranges[k] = (min(lo, v), max(hi, v), n + 1)
+print(json.dumps({"splits": {k: {"ok": v["ok"], "rejected": v["rejected"]} for k, v in m["splits"].items()}, "ranges": ranges}))
+`,
+      { path: join(dataset, 'manifest.json') },
+    );
+    expect(Object.fromEntries(inspected.splits.map((s) => [s.split, { ok: s.ok, rejected: s.rejected }]))).toEqual(reference.splits);
+    const numeric = inspected.parameters.filter((p) => p.min !== null);
+    expect(numeric.length).toBeGreaterThan(3);
+    for (const p of numeric) expect([p.min, p.max, p.episodes], p.pointer).toEqual(reference.ranges[p.pointer]);
+  });
 });
 
 describe.runIf(python.available)('replayed controls from a NumPy .npy table', () => {

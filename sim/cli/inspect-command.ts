@@ -7,6 +7,9 @@ import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { inspectDataset } from '../dataset/inspect-dataset.ts';
 
+/** Version of the --json document; raised when a member changes meaning or goes away. */
+export const INSPECT_JSON_FORMAT = 1;
+
 function bytes(n: number): string {
   if (n < 1024) return `${n} B`;
   if (n < 1024 ** 2) return `${(n / 1024).toFixed(1)} KiB`;
@@ -22,12 +25,22 @@ function table(rows: string[][]): string[] {
 export const inspectCommand: CliCommand = {
   name: 'inspect',
   summary: 'summarise a dataset folder: splits, parameter ranges, sizes, rejected episodes',
-  usage: ['Usage: pliant inspect DIR', '', 'Prints episodes per split, the range of every sampled parameter, file sizes and rejected episodes.'].join('\n'),
+  usage: [
+    'Usage: pliant inspect DIR [--json]',
+    '',
+    'Prints episodes per split, the range of every sampled parameter, file sizes and rejected episodes.',
+    '',
+    `  --json   print the same as one JSON document (inspectFormat ${INSPECT_JSON_FORMAT}) for scripts; see sim/dataset/LAYOUT.md`,
+  ].join('\n'),
   async run(args, io) {
-    const parsed = parseArguments('inspect', args, { valued: [], switches: [] });
+    const parsed = parseArguments('inspect', args, { valued: [], switches: ['--json'] });
     if (parsed.positionals.length !== 1) throw new CliUsageError('give exactly one dataset folder: pliant inspect DIR');
     const dir = parsed.positionals[0];
     const r = await withCliFailures('', () => inspectDataset(resolve(io.cwd, dir)));
+    if (parsed.switches.has('--json')) {
+      io.stdout(`${JSON.stringify({ inspectFormat: INSPECT_JSON_FORMAT, ...r }, null, 2)}\n`);
+      return 0;
+    }
     const lines: string[] = [];
     lines.push(`${dir}: ${r.name || 'dataset'} (${r.state}${r.shard ? `, shard ${r.shard.index}/${r.shard.count}` : ''}), ${r.listedEpisodes} of ${r.episodeCount} episodes`);
     lines.push('', 'Splits:', ...table([['split', 'ok', 'rejected'], ...r.splits.map((s) => [s.split, String(s.ok), String(s.rejected)])]));

@@ -22,7 +22,12 @@ export interface DatasetInspection {
   episodeCount: number;
   listedEpisodes: number;
   splits: Array<{ split: string; ok: number; rejected: number }>;
-  parameters: Array<{ pointer: string; unit: string; summary: string }>;
+  /**
+   * Every label: `summary` for people; for programs, the range of a numeric label (min and max
+   * over the listed episodes, null otherwise) and up to DISTINCT_SHOWN distinct values as
+   * written in the manifest (null when there are more).
+   */
+  parameters: Array<{ pointer: string; unit: string; summary: string; episodes: number; min: number | null; max: number | null; distinctValues: string[] | null }>;
   sizes: Array<{ kind: string; files: number; bytes: number }>;
   /** The first MAX_LISTED_REJECTED rejected episodes. */
   rejected: Array<{ id: string; split: string; step: number; node: number; kind: string; cause: string }>;
@@ -82,7 +87,16 @@ class ParameterRanges {
       } else {
         summary = range.distinct.size <= DISTINCT_SHOWN ? [...range.distinct].join(', ') : `more than ${DISTINCT_SHOWN} distinct values`;
       }
-      return { pointer, unit: unitOfLabel(pointer, this.channelUnits), summary };
+      const numeric = range.numeric && range.count > 0;
+      return {
+        pointer,
+        unit: unitOfLabel(pointer, this.channelUnits),
+        summary,
+        episodes: range.count,
+        min: numeric ? range.min : null,
+        max: numeric ? range.max : null,
+        distinctValues: range.distinct.size <= DISTINCT_SHOWN ? [...range.distinct] : null,
+      };
     });
   }
 }
