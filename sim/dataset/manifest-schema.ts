@@ -93,6 +93,10 @@ const episodeRecord = {
           kind: { enum: ['handle-force', 'driven-offset', 'actuator'] },
           unit: { enum: ['N', 'm', '1'] },
           description: { type: 'string' },
+          // Where a channel acts; optional so manifests written before these fields still read.
+          axis: { enum: ['x', 'y', 'z', null] },
+          node: { type: ['integer', 'null'], minimum: 0 },
+          clamp: { type: ['string', 'null'] },
         },
       },
     },

@@ -125,7 +125,7 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
     const axes: [number, number, number] = [-1, -1, -1];
     for (const axis of p.drivenAxes) {
       axes[AXIS_INDEX[axis]] = channels.length;
-      channels.push({ index: channels.length, name: `top-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of the driven top along ${axis} from its start, reached at the end of each control interval` });
+      channels.push({ index: channels.length, name: `top-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of the driven top along ${axis} from its start, reached at the end of each control interval`, axis, node: 0, clamp: null });
     }
     builder.addDriven(0, axes);
   }
@@ -135,7 +135,7 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
     const axes: [number, number, number] = [-1, -1, -1];
     for (const axis of p.drivenAxes) {
       axes[AXIS_INDEX[axis]] = channels.length;
-      channels.push({ index: channels.length, name: `${label}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of node ${node} (${label}) along ${axis} from its start, reached at the end of each control interval` });
+      channels.push({ index: channels.length, name: `${label}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement of node ${node} (${label}) along ${axis} from its start, reached at the end of each control interval`, axis, node, clamp: null });
     }
     builder.addDriven(node, axes);
   }
@@ -145,7 +145,7 @@ export function buildChain(p: ChainParameters): BuiltSystem<ChainParameters> {
     const label = handleLabel(handle);
     for (const axis of p.forceAxes) {
       axes[AXIS_INDEX[axis]] = channels.length;
-      channels.push({ index: channels.length, name: `force-${label}-${axis}`, kind: 'handle-force', unit: 'N', description: `external force on node ${node} (${label}) along ${axis}` });
+      channels.push({ index: channels.length, name: `force-${label}-${axis}`, kind: 'handle-force', unit: 'N', description: `external force on node ${node} (${label}) along ${axis}`, axis, node, clamp: null });
     }
     builder.addHandle(node, axes);
   }

@@ -185,7 +185,7 @@ export function buildLattice(p: LatticeParameters): BuiltSystem<LatticeParameter
   const channelCount = Math.max(0, ...p.materials.map((m) => (m.actuatorChannel ?? -1) + 1));
   for (let ch = 0; ch < channelCount; ch++) {
     const names = p.materials.filter((m) => m.actuatorChannel === ch).map((m) => m.name);
-    channels.push({ index: ch, name: `actuator-${ch}`, kind: 'actuator', unit: '1', description: `actuation level of ${names.length ? names.join(', ') : 'no'} cells: −1 contracts, +1 expands by the material's strain limit` });
+    channels.push({ index: ch, name: `actuator-${ch}`, kind: 'actuator', unit: '1', description: `actuation level of ${names.length ? names.join(', ') : 'no'} cells: −1 contracts, +1 expands by the material's strain limit`, axis: null, node: null, clamp: null });
     builder.useChannel(ch);
   }
   // Driven groups take the channels after the actuators, in the order the clamps are listed.
@@ -202,7 +202,7 @@ export function buildLattice(p: LatticeParameters): BuiltSystem<LatticeParameter
     const axes: [number, number, number] = [-1, -1, -1];
     for (const axis of clamp.drivenAxes) {
       axes[AXIS_INDEX[axis]] = channels.length;
-      channels.push({ index: channels.length, name: `${clamp.name}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement along ${axis} of the ${nodes.length} nodes held by clamp "${clamp.name}" from their built positions, reached at the end of each control interval` });
+      channels.push({ index: channels.length, name: `${clamp.name}-offset-${axis}`, kind: 'driven-offset', unit: 'm', description: `displacement along ${axis} of the ${nodes.length} nodes held by clamp "${clamp.name}" from their built positions, reached at the end of each control interval`, axis, node: null, clamp: clamp.name });
     }
     for (const node of nodes) {
       if (clamp.drivenAxes.length > 0) builder.addDriven(node, axes);
