@@ -228,13 +228,16 @@ print(json.dumps({"nodeCounts": counts, "nodeMax": n_max, "wrong": wrong}))
     expect(result.nodeMax).toBe(Math.max(...result.nodeCounts));
   });
 
-  it('computes per-split statistics equal to numpy.mean / numpy.std over the split, and normalised arrays have mean 0 and std 1', () => {
+  it('the manifest\'s per-split statistics and the loader\'s own pass equal numpy.mean / numpy.std / min / max over the split, and normalised arrays have mean 0 and std 1', () => {
     // Reference: numpy.mean and numpy.std (ddof=0) over every record and node of the split's
     // episodes at once, in float64. The loader gets there in one Welford/Chan pass per episode.
     const result = py<{ statWorst: number; meanWorst: number; stdWorst: number; count: number; refCount: number }>(`
 import pliant_data
 ds = pliant_data.PliantDataset(args["dir"])
 stats = ds.statistics("train")
+# The manifest's statistics (Pliant's Chan combination in index order) and the loader's own pass.
+assert "train" in ds.manifest["normalisation"]
+streamed = ds._stream_statistics("train", None)
 raw = {n: [] for n in pliant_data.NORMALISED_ARRAYS}
 for record in ds.episodes("train"):
     with np.load(args["dir"] + "/episodes/" + record["id"] + ".npz") as a:
@@ -243,7 +246,10 @@ stat_worst = 0.0
 for n, blocks in raw.items():
     whole = np.concatenate(blocks)
     ref_mean, ref_std = np.mean(whole, axis=0), np.std(whole, axis=0)
-    stat_worst = max(stat_worst, float(np.max(np.abs(stats[n]["mean"] - ref_mean) / ref_std)), float(np.max(np.abs(stats[n]["std"] / ref_std - 1))))
+    for st in (stats, streamed):
+        stat_worst = max(stat_worst, float(np.max(np.abs(st[n]["mean"] - ref_mean) / ref_std)), float(np.max(np.abs(st[n]["std"] / ref_std - 1))))
+    if "min" in stats[n]:
+        stat_worst = max(stat_worst, float(np.max(np.abs(np.asarray(stats[n]["min"]) - whole.min(axis=0)))), float(np.max(np.abs(np.asarray(stats[n]["max"]) - whole.max(axis=0)))))
 # One window per episode covering every record: history = T+1 states, horizon 0.
 T1 = ds.episodes("train")[0]["simulation"]["recordedSteps"] + 1
 norm = {n: [] for n in raw}

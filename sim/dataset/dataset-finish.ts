@@ -11,7 +11,10 @@
 // scalar labels the card's histograms need).
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead } from './dataset-manifest.ts';
+import { NORMALISED_ARRAYS } from './dataset-manifest.ts';
+import type { ColumnStatistics, DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead, NormalisedArrayName } from './dataset-manifest.ts';
+import { combineMoments } from './column-moments.ts';
+import type { ColumnMoments } from './column-moments.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
 import type { ArrayLayout } from './episode-outcome.ts';
 import { describeArray } from './episode-array-catalogue.ts';
@@ -93,21 +96,64 @@ export function orderedSplits(seed: SeedFile, present: Iterable<string>): string
 /** A split file's record as it is written: its id and array lists are made again from the completions. */
 type SplitFileRecord = Omit<DataFileRecord, 'episodes' | 'arrays'> & { episodes: StreamedList; arrays: StreamedList };
 
+/**
+ * Per split, the moments of each normalised array, combined in the order the episodes come
+ * (index order), so a single run, a resumed one and a merge of shards agree bit for bit. An
+ * array whose column count changes within a split (control channels that vary) is dropped.
+ */
+class SplitMoments {
+  private readonly bySplit = new Map<string, Map<NormalisedArrayName, ColumnMoments | null>>();
+
+  add(record: EpisodeRecord): void {
+    if (record.status !== 'ok' || record.arrayMoments === undefined) return;
+    let arrays = this.bySplit.get(record.split);
+    if (arrays === undefined) this.bySplit.set(record.split, (arrays = new Map()));
+    for (const name of NORMALISED_ARRAYS) {
+      const episode = record.arrayMoments[name];
+      if (episode === undefined) continue;
+      if (!arrays.has(name)) {
+        arrays.set(name, episode);
+        continue;
+      }
+      const sofar = arrays.get(name)!;
+      arrays.set(name, sofar === null ? null : combineMoments(sofar, episode));
+    }
+  }
+
+  statistics(splits: readonly string[]): NonNullable<DatasetManifest['normalisation']> {
+    const out: NonNullable<DatasetManifest['normalisation']> = {};
+    for (const split of splits) {
+      const arrays = this.bySplit.get(split);
+      if (arrays === undefined) continue;
+      const entry: Partial<Record<NormalisedArrayName, ColumnStatistics>> = {};
+      for (const [name, m] of arrays) {
+        if (m === null) continue;
+        entry[name] = { count: m.count, mean: m.mean, std: m.m2.map((v) => Math.sqrt(v / m.count)), min: m.min, max: m.max };
+      }
+      out[split] = entry;
+    }
+    return out;
+  }
+}
+
 /** One pass over every episode: the card's tally, and per split its counts and the positions of its recorded episodes. */
 interface SweepSummary {
   tally: CardTally;
   splits: string[];
   counts: DatasetManifest['splits'];
   okPositions: Map<string, number[]>;
+  normalisation: NonNullable<DatasetManifest['normalisation']>;
 }
 
 function summarise(request: FinishRequest): SweepSummary {
   const tally = new CardTally();
   const okPositions = new Map<string, number[]>();
   const rejectedCount = new Map<string, number>();
+  const moments = new SplitMoments();
   for (let p = 0; p < request.completions.count; p++) {
     const { record } = request.completions.at(p);
     tally.add(record);
+    moments.add(record);
     if (!okPositions.has(record.split)) okPositions.set(record.split, []);
     if (record.status === 'ok') okPositions.get(record.split)!.push(p);
     else rejectedCount.set(record.split, (rejectedCount.get(record.split) ?? 0) + 1);
@@ -115,7 +161,7 @@ function summarise(request: FinishRequest): SweepSummary {
   const splits = orderedSplits(request.seed, okPositions.keys());
   const counts: DatasetManifest['splits'] = {};
   for (const split of splits) counts[split] = { ok: okPositions.get(split)?.length ?? 0, rejected: rejectedCount.get(split) ?? 0 };
-  return { tally, splits, counts, okPositions };
+  return { tally, splits, counts, okPositions, normalisation: moments.statistics(splits) };
 }
 
 function* splitEpisodes(request: FinishRequest, positions: readonly number[]): Generator<SplitEpisode> {
@@ -181,6 +227,7 @@ export async function finishDataset(request: FinishRequest): Promise<FinishedDat
     shard: shard ? { index: shard.index, count: shard.count } : null,
     export: { format: seed.export.format, dtype: seed.export.dtype },
     splits: summary.counts,
+    normalisation: summary.normalisation,
     scenario: seed.scenario,
   };
   const card = writeDatasetFile(request.outDir, CARD_FILE, renderDatasetCard({

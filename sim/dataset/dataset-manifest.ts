@@ -7,6 +7,7 @@ import type { BlowUpKind } from '../core/simulation-error.ts';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
 import type { ControlChannelInfo } from '../systems/control-channel.ts';
 import type { CatalogueDtype } from './episode-array-catalogue.ts';
+import type { ColumnMoments } from './column-moments.ts';
 
 export const MANIFEST_FORMAT_VERSION = 1;
 
@@ -69,6 +70,19 @@ export interface EpisodeSimulation {
   recordedSteps: number;
 }
 
+/** The arrays a split's normalisation statistics cover; the last axis is the column. */
+export const NORMALISED_ARRAYS = ['positions', 'velocities', 'controls'] as const;
+export type NormalisedArrayName = (typeof NORMALISED_ARRAYS)[number];
+
+/** One array's statistics over a split, per column, population standard deviation. */
+export interface ColumnStatistics {
+  count: number;
+  mean: number[];
+  std: number[];
+  min: number[];
+  max: number[];
+}
+
 export interface EpisodeRecord {
   id: string;
   index: number;
@@ -82,6 +96,11 @@ export interface EpisodeRecord {
   labels: Record<string, LabelValue>;
   simulation: EpisodeSimulation;
   controlChannels: ControlChannelInfo[];
+  /**
+   * Per-column moments of the recorded arrays the normalisation statistics cover, as written
+   * (recorded episodes only; absent in manifests written before them).
+   */
+  arrayMoments?: Partial<Record<NormalisedArrayName, ColumnMoments>>;
   /** Paths of the data files that hold this episode (none when rejected). */
   files: string[];
 }
@@ -103,6 +122,11 @@ export interface DatasetManifest {
   export: { format: ExportFormat; dtype: ExportDtype };
   /** Episodes per split, ok and rejected. */
   splits: Record<string, { ok: number; rejected: number }>;
+  /**
+   * Per split, the statistics of each normalised array over its recorded episodes (an array
+   * whose column count differs between episodes is left out); absent in older manifests.
+   */
+  normalisation?: Record<string, Partial<Record<NormalisedArrayName, ColumnStatistics>>>;
   scenario: unknown;
   episodes: EpisodeRecord[];
   /** SHA-256 over the episode records (episode-records-digest.ts); absent in older manifests. */

@@ -10,7 +10,9 @@ import { richardsonEstimate, startStateOf } from '../episode/richardson-estimate
 import { numericsLabels } from './numerics-labels.ts';
 import { SimulationBlowUpError, likelyCause } from '../core/simulation-error.ts';
 import { graphLabels } from '../systems/graph-labels.ts';
+import { NORMALISED_ARRAYS } from './dataset-manifest.ts';
 import type { EpisodeRecord, EpisodeRejection, ExportDtype } from './dataset-manifest.ts';
+import { columnMoments } from './column-moments.ts';
 import { episodeArrays } from './episode-arrays.ts';
 import type { EpisodeArray } from './episode-arrays.ts';
 import { episodeId } from './dataset-files.ts';
@@ -48,6 +50,18 @@ function rejectionOf(error: SimulationBlowUpError): EpisodeRejection {
     message: error.message,
     likelyCause: likelyCause(d),
   };
+}
+
+/** Moments of the normalised arrays as written, one column per last-axis entry. */
+function arrayMomentsOf(arrays: readonly EpisodeArray[]): EpisodeRecord['arrayMoments'] {
+  const moments: NonNullable<EpisodeRecord['arrayMoments']> = {};
+  for (const name of NORMALISED_ARRAYS) {
+    const array = arrays.find((a) => a.name === name);
+    if (array === undefined) continue;
+    const found = columnMoments(array.data, array.shape[array.shape.length - 1] ?? 0);
+    if (found !== null) moments[name] = found;
+  }
+  return moments;
 }
 
 export function produceEpisode(scenario: Scenario, index: number, dtype: ExportDtype, replay: ReplayTable, kernel?: StepKernel): EpisodeProduct {
@@ -88,7 +102,7 @@ export function produceEpisode(scenario: Scenario, index: number, dtype: ExportD
     const trajectory = recordTrajectory(model, sampled.world, sampled.controls, sampled.recording, kernel);
     const arrays = episodeArrays(trajectory, graph, model.cellCornerCount, dtype, observeEpisode(sampled, trajectory));
     const richardson = start === null ? null : richardsonEstimate(model, start, sampled.world, sampled.controls, sampled.recording, trajectory);
-    return { record: { ...record, labels: { ...record.labels, ...numericsLabels(trajectory, richardson) } }, arrays };
+    return { record: { ...record, labels: { ...record.labels, ...numericsLabels(trajectory, richardson) }, arrayMoments: arrayMomentsOf(arrays) }, arrays };
   } catch (error) {
     if (!(error instanceof SimulationBlowUpError)) throw EpisodeBuildError.of(index, error);
     return { record: { ...record, status: 'rejected', rejection: rejectionOf(error.inEpisode(index)) }, arrays: null };

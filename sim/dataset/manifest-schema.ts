@@ -49,6 +49,20 @@ const rejection = {
   },
 };
 
+const numberList = { type: 'array', items: { type: 'number' } };
+const columnMoments = {
+  type: 'object',
+  additionalProperties: false,
+  required: ['count', 'mean', 'm2', 'min', 'max'],
+  properties: { count: { type: 'integer', minimum: 1 }, mean: numberList, m2: numberList, min: numberList, max: numberList },
+};
+const columnStatistics = {
+  type: 'object',
+  additionalProperties: false,
+  required: ['count', 'mean', 'std', 'min', 'max'],
+  properties: { count: { type: 'integer', minimum: 1 }, mean: numberList, std: numberList, min: numberList, max: numberList },
+};
+
 const episodeRecord = {
   type: 'object',
   additionalProperties: false,
@@ -81,6 +95,11 @@ const episodeRecord = {
         recordIntervalS: { type: 'number', exclusiveMinimum: 0 },
         recordedSteps: { type: 'integer', minimum: 1 },
       },
+    },
+    arrayMoments: {
+      type: 'object',
+      additionalProperties: false,
+      properties: { positions: columnMoments, velocities: columnMoments, controls: columnMoments },
     },
     controlChannels: {
       type: 'array',
@@ -147,6 +166,15 @@ export const MANIFEST_SCHEMA = {
         additionalProperties: false,
         required: ['ok', 'rejected'],
         properties: { ok: count, rejected: count },
+      },
+    },
+    normalisation: {
+      type: 'object',
+      description: 'per split, per-column statistics of positions, velocities and controls over its recorded episodes (absent in older manifests)',
+      additionalProperties: {
+        type: 'object',
+        additionalProperties: false,
+        properties: { positions: columnStatistics, velocities: columnStatistics, controls: columnStatistics },
       },
     },
     scenario: { type: 'object', description: 'the resolved scenario the episodes were sampled from' },

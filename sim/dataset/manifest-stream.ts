@@ -49,7 +49,7 @@ export const KEPT_LIST_ITEMS = 4096;
 export const MAX_MANIFEST_PIECE_BYTES = 64 * 1024 * 1024;
 const MAX_PIECE_DEPTH = 64;
 
-const HEAD_MEMBERS = ['manifestFormat', 'pliantVersion', 'name', 'description', 'masterSeed', 'episodeCount', 'shard', 'export', 'splits', 'scenario'] as const;
+const HEAD_MEMBERS = ['manifestFormat', 'pliantVersion', 'name', 'description', 'masterSeed', 'episodeCount', 'shard', 'export', 'splits', 'normalisation', 'scenario'] as const;
 const TOP_MEMBERS = new Set<string>([...HEAD_MEMBERS, 'episodes', EPISODE_RECORDS_DIGEST_MEMBER, 'files', 'documents', 'run']);
 
 function walked(path: JsonPath): boolean {

@@ -186,6 +186,10 @@ class PliantDataset:
                 out[name] = {"mean": np.asarray(entry["mean"], dtype=np.float64),
                              "std": np.asarray(entry["std"], dtype=np.float64),
                              "count": entry.get("count")}
+                # Pliant's manifests also carry the range of each column.
+                for bound in ("min", "max"):
+                    if bound in entry:
+                        out[name][bound] = np.asarray(entry[bound], dtype=np.float64)
             if out:
                 return out
         if split not in self._computed_statistics:
