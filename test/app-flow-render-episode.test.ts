@@ -105,7 +105,7 @@ describe.runIf(python.available)('render.begin: saving an episode as pictures', 
     expect(existsSync(join(outside, 'escape.gif'))).toBe(false);
   });
 
-  it('never replaces a file already there, and asks for .gif', async () => {
+  it('never replaces a file already there, asks for .gif and keeps sizes within bounds', async () => {
     const taken = join(work, 'taken.gif');
     writeFileSync(taken, 'keep me');
     const refused = await session.refusal('render.begin', { datasetPath: dataset, episodeId: 'ep-000000', output: 'gif', outPath: taken });
@@ -114,6 +114,9 @@ describe.runIf(python.available)('render.begin: saving an episode as pictures', 
     const wrongName = await session.refusal('render.begin', { datasetPath: dataset, episodeId: 'ep-000000', output: 'gif', outPath: join(work, 'picture.png') });
     expect(wrongName.code).toBe('invalid-arguments');
     expect(wrongName.message).toContain('.gif');
+    // The same picture-size bounds as `pliant render --size` (32 to 4096 pixels a side).
+    const huge = await session.refusal('render.begin', { datasetPath: dataset, episodeId: 'ep-000000', output: 'gif', outPath: join(work, 'huge.gif'), widthPx: 4097 });
+    expect(huge.code).toBe('invalid-arguments');
   });
 
   it('an unknown episode ends the job with the app\'s words, no command-line flags, and writes nothing', async () => {
