@@ -7,6 +7,8 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, realpathSync, rmSyn
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runRenderJob } from '../sim/render/render-job.ts';
+import type { RenderJobMessage } from '../sim/render/render-job.ts';
 import { cutDownScenario, runPliant, startDesktopSession } from './support/app-flow-session.ts';
 import type { AppSession } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
@@ -128,4 +130,18 @@ describe.runIf(python.available)('render.begin: saving an episode as pictures', 
     expect(last.message).not.toMatch(/--|pliant /);
     expect(existsSync(gifPath)).toBe(false);
   }, 120_000);
+
+  it('a render job cancelled while drawing says how far it got and writes no GIF', async () => {
+    const gifPath = join(work, 'cancelled.gif');
+    const messages: RenderJobMessage[] = [];
+    let asked = 0;
+    // Cancelled once the tenth picture is drawn: the job stops before the eleventh.
+    await runRenderJob(
+      { kind: 'render', datasetDir: dataset, episodeId: 'ep-000000', output: 'gif', outPath: gifPath, view: 'both', widthPx: 64, heightPx: 32, speed: 1 },
+      (m) => messages.push(m),
+      () => ++asked >= 10,
+    );
+    expect(messages[messages.length - 1]).toEqual({ type: 'cancelled', done: 10, total: RECORDED_STEPS + 1 });
+    expect(existsSync(gifPath)).toBe(false);
+  });
 });

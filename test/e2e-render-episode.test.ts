@@ -72,6 +72,7 @@ describe.runIf(chromium.available && python.available)('Datasets screen: Save as
     expect(existsSync(gifPath)).toBe(true);
     expect(await page.getAttribute('[data-role="picture-result"]', 'data-path')).toBe(gifPath);
     expect(await page.getAttribute('[data-role="picture-progress-text"]', 'data-done')).toBe(String(RECORDED_STEPS + 1));
+    expect(await page.textContent('[data-role="picture-progress-text"]')).toContain(`${RECORDED_STEPS + 1} of ${RECORDED_STEPS + 1} pictures · done`);
     const seen = runReferencePython<{ format: string; size: number[]; frames: number; bytes: number }>(
       'import sys, json, os\nfrom PIL import Image\np = json.load(sys.stdin)\nim = Image.open(p)\nprint(json.dumps({"format": im.format, "size": list(im.size), "frames": im.n_frames, "bytes": os.path.getsize(p)}))',
       gifPath,
