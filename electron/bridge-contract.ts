@@ -27,6 +27,11 @@ export const BRIDGE_LIMITS = {
   maxEpisodePage: 1000,
   /** Largest accepted request body in web mode, in bytes (scenario text plus JSON overhead). */
   webBodyBytes: 4 * 1024 * 1024,
+  /** Smallest and largest side of a rendered episode picture, in pixels (as `pliant render --size`). */
+  minPictureSidePx: 32,
+  maxPictureSidePx: 4096,
+  /** Fastest GIF playback a render may ask for, times real time. */
+  maxPictureSpeed: 1000,
 } as const;
 
 // ---------------------------------------------------------------------------------------------
@@ -34,10 +39,10 @@ export const BRIDGE_LIMITS = {
 
 /**
  * What a chosen folder is for: a dataset to open, a folder to export into, a scenario's folder,
- * a model's predictions folder (read), or a report folder (a score or calibration report to open,
- * or the folder a score job writes into).
+ * a model's predictions folder (read), a report folder (a score or calibration report to open,
+ * or the folder a score job writes into), or the folder an episode's pictures are saved into.
  */
-export type FolderPurpose = 'dataset' | 'export' | 'scenario' | 'predictions' | 'report';
+export type FolderPurpose = 'dataset' | 'export' | 'scenario' | 'predictions' | 'report' | 'pictures';
 export type ExportFormat = 'npz' | 'hdf5' | 'both';
 /**
  * A split's name. Every scenario has 'train', 'validation' and 'test'; held-out rules add splits
@@ -46,7 +51,11 @@ export type ExportFormat = 'npz' | 'hdf5' | 'both';
 export type DatasetSplit = string;
 /** The splits every dataset has, in the order screens list them before any held-out split. */
 export const STANDARD_SPLITS = ['train', 'validation', 'test'] as const;
-export type JobKind = 'export' | 'reproduce' | 'score';
+export type JobKind = 'export' | 'reproduce' | 'score' | 'render';
+/** What a render job writes: one looping GIF, or a new folder of frame-00000.png, frame-00001.png, …. */
+export type PictureOutput = 'gif' | 'frames';
+/** Seen from the side (x right, y up), from above (x right, z down) or both side by side. */
+export type PictureView = 'side' | 'above' | 'both';
 export type JobState = 'running' | 'done' | 'cancelled' | 'failed';
 /** Element types an episode array may have; bytes are little-endian. */
 export type ArrayDtype = 'float64' | 'float32' | 'int32' | 'uint32' | 'int16' | 'uint16' | 'int8' | 'uint8';
@@ -354,9 +363,9 @@ export interface CalibrationReport {
 export interface JobProgress {
   jobId: string;
   kind: JobKind;
-  /** Episodes finished so far. */
+  /** Episodes finished so far (pictures drawn, for a render job). */
   done: number;
-  /** Episodes in the whole job. */
+  /** Episodes in the whole job (pictures to draw, for a render job). */
   total: number;
   episodesPerS: number;
   /** Seconds left at the current rate; null before the rate is known. */
@@ -397,6 +406,16 @@ export interface RequestMap {
   'score.read': { args: { path: string }; result: ScoreReport };
   'predictions.episodeArrays': { args: { path: string; episodeId: string }; result: EpisodeArrays };
   'calibration.read': { args: { path: string }; result: CalibrationReport };
+  /**
+   * Draws one recorded episode from its files, as `pliant render` does (same pictures, same
+   * bytes), in a job whose progress counts pictures; cancel it with `export.cancel`. For 'gif'
+   * `outPath` is a new .gif file, for 'frames' a new folder; either must lie in a folder chosen
+   * for writing and must not exist yet. View, size and speed default to 'both', 640×320 and 1.
+   */
+  'render.begin': {
+    args: { datasetPath: string; episodeId: string; output: PictureOutput; outPath: string; view?: PictureView; widthPx?: number; heightPx?: number; speed?: number };
+    result: JobStarted;
+  };
 }
 
 export type RequestName = keyof RequestMap;
@@ -426,6 +445,7 @@ export const REQUEST_NAMES = [
   'score.read',
   'predictions.episodeArrays',
   'calibration.read',
+  'render.begin',
 ] as const satisfies readonly RequestName[];
 
 export function isRequestName(value: unknown): value is RequestName {
@@ -544,7 +564,7 @@ const pathSchema = (description: string): JsonSchema => ({
   pattern: '^[^\\u0000]*$',
 });
 
-const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario', 'predictions', 'report'] };
+const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario', 'predictions', 'report', 'pictures'] };
 
 function closedObject(name: string, properties: Record<string, JsonSchema>, required: string[]): JsonSchema {
   return {
@@ -676,6 +696,20 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
     ['path', 'episodeId'],
   ),
   'calibration.read': closedObject('calibration.read', { path: pathSchema('Calibration report folder holding calibration.json.') }, ['path']),
+  'render.begin': closedObject(
+    'render.begin',
+    {
+      datasetPath: pathSchema('Dataset folder holding the episode.'),
+      episodeId: { type: 'string', minLength: 1, maxLength: 128, pattern: '^[A-Za-z0-9_.-]+$' },
+      output: { type: 'string', enum: ['gif', 'frames'] },
+      outPath: pathSchema('The new .gif file, or the new folder for the PNG pictures.'),
+      view: { type: 'string', enum: ['side', 'above', 'both'] },
+      widthPx: { type: 'integer', minimum: BRIDGE_LIMITS.minPictureSidePx, maximum: BRIDGE_LIMITS.maxPictureSidePx },
+      heightPx: { type: 'integer', minimum: BRIDGE_LIMITS.minPictureSidePx, maximum: BRIDGE_LIMITS.maxPictureSidePx },
+      speed: { type: 'number', minimum: 0.001, maximum: BRIDGE_LIMITS.maxPictureSpeed },
+    },
+    ['datasetPath', 'episodeId', 'output', 'outPath'],
+  ),
 };
 
 function splitSchema(): JsonSchema {

@@ -10,6 +10,7 @@ const WORDING: Readonly<Record<FolderPurpose, { title: string; buttonLabel: stri
   export: { title: 'Where should the dataset go?', buttonLabel: 'Write here', message: 'Pick or create the folder the new dataset is written into.' },
   scenario: { title: 'Scenario folder', buttonLabel: 'Use this folder', message: 'Pick the folder your scenario files live in.' },
   predictions: { title: 'Open a predictions folder', buttonLabel: 'Open predictions', message: "Pick the folder of a model's predictions: one <episode id>.npz per episode." },
+  pictures: { title: 'Where should the pictures go?', buttonLabel: 'Save here', message: "Pick or create the folder the episode's GIF or PNG pictures are saved into." },
   report: { title: 'Report folder', buttonLabel: 'Use this folder', message: 'Pick a score or calibration report folder, or the folder a new score report is written into.' },
 };
 

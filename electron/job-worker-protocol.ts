@@ -1,8 +1,9 @@
 // The messages between the job runner (main process or web server) and a worker thread that
-// does one long job: writing a dataset from a scenario, or regenerating one from a seed file.
+// does one long job: writing a dataset from a scenario, regenerating one from a seed file,
+// scoring predictions, or drawing an episode's pictures.
 // The dataset pipeline provides the worker entry; this file is all it needs to know about us.
 // Imports nothing at run time so a worker bundle stays free of the shell's code.
-import type { ExportFormat, JobKind } from './bridge-contract.ts';
+import type { ExportFormat, JobKind, PictureOutput, PictureView } from './bridge-contract.ts';
 
 export interface ExportJobSpec {
   kind: 'export';
@@ -31,7 +32,21 @@ export interface ScoreJobSpec {
   allowMissing: boolean;
 }
 
-export type JobSpec = ExportJobSpec | ReproduceJobSpec | ScoreJobSpec;
+export interface RenderJobSpec {
+  kind: 'render';
+  /** Real absolute path, already checked. */
+  datasetDir: string;
+  episodeId: string;
+  output: PictureOutput;
+  /** The .gif file or the pictures' folder; real, absolute, checked writable and not there yet. */
+  outPath: string;
+  view: PictureView;
+  widthPx: number;
+  heightPx: number;
+  speed: number;
+}
+
+export type JobSpec = ExportJobSpec | ReproduceJobSpec | ScoreJobSpec | RenderJobSpec;
 
 /** What the worker finds in `workerData`. */
 export interface JobWorkerData {

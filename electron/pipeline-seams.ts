@@ -4,6 +4,7 @@
 // tests may replace single parts.
 import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/app-worker-urls.ts';
 import { SCORE_JOB_WORKER_URL } from '../sim/identify/score/score-worker-url.ts';
+import { RENDER_JOB_WORKER_URL } from '../sim/render/render-worker-url.ts';
 import type { JobKind } from './bridge-contract.ts';
 import type { DatasetReader, IdentificationReader, ScenarioChecker, SeedReader } from './request-services.ts';
 import { SIM_IDENTIFICATION_READER } from './sim-identification-reader.ts';
@@ -27,6 +28,6 @@ export function simPipelineServices(): PipelineServices {
     seedReader: SIM_SEED_READER,
     identificationReader: SIM_IDENTIFICATION_READER,
     // One worker entry serves export and reproduce; it reads the kind from the job it is given.
-    jobWorkerUrls: { export: DATASET_JOB_WORKER_URL, reproduce: DATASET_JOB_WORKER_URL, score: SCORE_JOB_WORKER_URL },
+    jobWorkerUrls: { export: DATASET_JOB_WORKER_URL, reproduce: DATASET_JOB_WORKER_URL, score: SCORE_JOB_WORKER_URL, render: RENDER_JOB_WORKER_URL },
   };
 }

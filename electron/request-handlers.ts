@@ -10,6 +10,7 @@ import { folderRequests } from './folder-requests.ts';
 import type { HandlerTable } from './handler-table.ts';
 import { identificationRequests } from './identification-requests.ts';
 import { jobRequests } from './job-requests.ts';
+import { renderRequests } from './render-requests.ts';
 import { createArgumentChecker } from './request-arguments.ts';
 import { RequestError, toRequestErrorInfo } from './request-error.ts';
 import type { RequestServices } from './request-services.ts';
@@ -31,6 +32,7 @@ export function createRequestHandlers(services: RequestServices): RequestHandler
     ...jobRequests(services),
     ...datasetRequests(services),
     ...identificationRequests(services),
+    ...renderRequests(services),
   };
 
   return {

@@ -41,7 +41,7 @@ function runWorker(file: string, workerData: unknown): Promise<{ exitCode: numbe
 describe('bundled desktop build', () => {
   it('puts every worker beside main.mjs under the name the bundled code looks for', () => {
     const named = (file: string) => [...readFileSync(join(bundle, file), 'utf8').matchAll(/new URL\("\.\/([\w.-]+\.mjs)", import\.meta\.url\)/g)].map((m) => m[1]);
-    expect(named('main.mjs').sort()).toEqual(['dataset-job-worker-entry.mjs', 'dataset-verify-worker-entry.mjs', 'score-job-worker-entry.mjs']);
+    expect(named('main.mjs').sort()).toEqual(['dataset-job-worker-entry.mjs', 'dataset-verify-worker-entry.mjs', 'render-job-worker-entry.mjs', 'score-job-worker-entry.mjs']);
     expect(named('dataset-job-worker-entry.mjs')).toEqual(['episode-worker-entry.mjs']);
     for (const file of Object.keys(WORKER_BUNDLES)) expect(existsSync(join(bundle, file)), file).toBe(true);
     // No TypeScript loader is left for a packaged app to lack.

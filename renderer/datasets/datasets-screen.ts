@@ -1,6 +1,7 @@
 // The Datasets screen: open an exported dataset folder, read its card and summary, page through
 // its episodes, play any episode back in the 3-D view from its own files, verify its checksums,
-// and open its seed file to preview or regenerate episodes.
+// open its seed file to preview or regenerate episodes, and save the episode playing as a GIF or
+// PNG frames.
 import type { ControlChannelDescription, DatasetSummary, EpisodeRow } from '../../electron/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { TrajectoryPlots } from '../plots/trajectory-plots.ts';
@@ -9,6 +10,7 @@ import { button, h } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { TrajectoryPlayer } from '../view/trajectory-player.ts';
+import { EpisodePictureSaver } from './episode-picture-saver.ts';
 import { EpisodeTable } from './episode-table.ts';
 import { playableEpisode } from './episode-playback.ts';
 import { datasetScene, episodeWorld } from './dataset-scene.ts';
@@ -27,6 +29,7 @@ export class DatasetsScreen implements Screen {
   private readonly seedButton: HTMLButtonElement;
   private readonly verifyButton: HTMLButtonElement;
   private readonly verifyResult: HTMLElement;
+  private readonly pictures: EpisodePictureSaver;
   private summary: DatasetSummary | null = null;
   private frameTimes: Float64Array | null = null;
   private scene: DatasetScene | null = null;
@@ -47,6 +50,7 @@ export class DatasetsScreen implements Screen {
     this.verifyButton = button('Verify checksums', () => void this.verify(), { attrs: { 'data-role': 'dataset-verify' } });
     this.verifyButton.disabled = true;
     this.verifyResult = h('span', { className: 'verify-inline', attrs: { 'data-role': 'dataset-verify-result' } });
+    this.pictures = new EpisodePictureSaver(bridge);
     this.player.onFrame((frame) => {
       if (this.frameTimes) this.plots.mark(this.frameTimes[frame]);
     });
@@ -59,6 +63,7 @@ export class DatasetsScreen implements Screen {
       this.summaryHost,
       this.table.root,
       this.playing,
+      this.pictures.root,
       h('div', { className: 'playback-body' }, this.player.root, this.plots.root),
     );
   }
@@ -76,6 +81,7 @@ export class DatasetsScreen implements Screen {
       return;
     }
     this.renderSummary(this.summary);
+    this.pictures.forget();
     this.scene = null;
     if (this.summary.seedFilePath) {
       try {
@@ -125,6 +131,7 @@ export class DatasetsScreen implements Screen {
       this.plots.load(episode.frames, plottedChannels(episode.channelCount, arrays.controlChannels, this.summary.controlChannels));
       this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${Number(episode.frameIntervalS.toPrecision(6))} s.`;
       this.playing.setAttribute('data-episode', row.episodeId);
+      this.pictures.episodeLoaded(this.summary.path, row.episodeId);
       this.status.show('ok', 'Space plays and pauses, ← → step.');
       this.player.play();
     } catch (error) {

@@ -1,9 +1,11 @@
-// Job progress in words: how many episodes are done, how fast, and about how long is left.
+// Job progress in words: how many episodes (a render job: pictures) are done, how fast, and about
+// how long is left.
 import type { JobProgress } from '../../electron/bridge-contract.ts';
 
 export function describeRate(p: JobProgress): string {
-  const head = `${p.done} of ${p.total} episodes`;
-  const rate = p.episodesPerS > 0 ? ` · ${p.episodesPerS >= 10 ? p.episodesPerS.toFixed(0) : p.episodesPerS.toPrecision(2)} episodes/s` : '';
+  const counted = p.kind === 'render' ? 'pictures' : 'episodes';
+  const head = `${p.done} of ${p.total} ${counted}`;
+  const rate = p.episodesPerS > 0 ? ` · ${p.episodesPerS >= 10 ? p.episodesPerS.toFixed(0) : p.episodesPerS.toPrecision(2)} ${counted}/s` : '';
   if (p.state === 'done') return `${head} · done${rate}`;
   if (p.state === 'cancelled') return `${head} · cancelled`;
   if (p.state === 'failed') return `${head} · failed`;

@@ -10,6 +10,7 @@ const PURPOSE_WORDS: Record<FolderPurpose, string> = {
   scenario: 'Choose the folder of the scenario file',
   predictions: "Choose a model's predictions folder",
   report: 'Choose a report folder',
+  pictures: "Choose the folder for the episode's pictures",
 };
 
 export function pickFolderInPage(purpose: FolderPurpose, browse: (path: string) => Promise<FolderListing>): Promise<string | null> {

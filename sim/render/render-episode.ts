@@ -22,6 +22,16 @@ export interface RenderSettings {
   frameStride: number | 'auto';
 }
 
+/** Told after each picture is drawn; may await, so a worker can hear a cancel between pictures. */
+export type FrameDrawnListener = (drawn: number, total: number) => void | Promise<void>;
+
+/** An episode lacks an array a picture needs; each caller words how to check the folder. */
+export class MissingPictureArrayError extends DatasetRequestError {
+  constructor(readonly episodeId: string, readonly arrayName: string) {
+    super(`episode ${episodeId} has no "${arrayName}" array, which a picture needs; check the folder with \`pliant verify\``);
+  }
+}
+
 export interface RenderedEpisode {
   episodeId: string;
   frameTimesS: number[];
@@ -34,11 +44,11 @@ export const MIN_GIF_DELAY_S = 0.02;
 
 function arrayNamed(arrays: NamedArray[], name: string, episodeId: string): NamedArray {
   const found = arrays.find((a) => a.name === name);
-  if (!found) throw new DatasetRequestError(`episode ${episodeId} has no "${name}" array, which a picture needs; check the folder with \`pliant verify\``);
+  if (!found) throw new MissingPictureArrayError(episodeId, name);
   return found;
 }
 
-export async function renderEpisode(datasetDir: string, episodeId: string, settings: RenderSettings): Promise<RenderedEpisode> {
+export async function renderEpisode(datasetDir: string, episodeId: string, settings: RenderSettings, onFrameDrawn?: FrameDrawnListener): Promise<RenderedEpisode> {
   const reader = new DatasetReader();
   const read = await reader.episodeArrays(datasetDir, episodeId);
   const positions = arrayNamed(read.arrays, 'positions', episodeId);
@@ -62,7 +72,12 @@ export async function renderEpisode(datasetDir: string, episodeId: string, setti
   const chosen: number[] = [];
   for (let f = 0; f < frameCount; f += stride) chosen.push(f);
   if (chosen[chosen.length - 1] !== frameCount - 1) chosen.push(frameCount - 1);
-  return { episodeId, frameTimesS: chosen.map((f) => time.data[f]), frames: chosen.map((f) => picture.draw(f)), strideUsed: stride };
+  const frames: IndexedFrame[] = [];
+  for (const f of chosen) {
+    frames.push(picture.draw(f));
+    if (onFrameDrawn) await onFrameDrawn(frames.length, chosen.length);
+  }
+  return { episodeId, frameTimesS: chosen.map((f) => time.data[f]), frames, strideUsed: stride };
 }
 
 export function renderedGif(rendered: RenderedEpisode, speed: number): Uint8Array {
