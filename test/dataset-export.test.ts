@@ -122,6 +122,33 @@ def arrays_of(folder, record):
 `;
 
 describe.runIf(python.available)('exported files in Debian NumPy and h5py', () => {
+  it('each HDF5 episode group carries its labels, and each split file its statistics, as the manifest has them (read with h5py)', () => {
+    const result = runReferencePython<{ groups: number; wrong: string[] }>(`
+import json, sys
+import h5py
+args = json.load(sys.stdin)
+manifest = json.load(open(args["dir"] + "/manifest.json"))
+labels = {e["id"]: e["labels"] for e in manifest["episodes"]}
+groups, wrong = 0, []
+for record in manifest["files"]:
+    if record["kind"] != "split-hdf5":
+        continue
+    with h5py.File(args["dir"] + "/" + record["path"], "r") as f:
+        stats = f.attrs["normalisation"]
+        stats = json.loads(stats.decode() if isinstance(stats, bytes) else stats)
+        if stats != manifest["normalisation"][record["split"]]:
+            wrong.append(record["path"] + ": normalisation differs from the manifest's")
+        for episode_id in record["episodes"]:
+            groups += 1
+            text = f[episode_id].attrs["labels"]
+            if json.loads(text.decode() if isinstance(text, bytes) else text) != labels[episode_id]:
+                wrong.append(record["path"] + ":" + episode_id + ": labels differ from the manifest's")
+print(json.dumps({"groups": groups, "wrong": wrong}))
+`, { dir: finDir });
+    expect(result.wrong).toEqual([]);
+    expect(result.groups).toBe(finManifest.episodes.filter((e) => e.status === 'ok').length);
+  });
+
   it('every NPZ member and HDF5 dataset has the dtype and shape the manifest lists', () => {
     for (const [dir, manifest] of [[finDir, finManifest], [newtonDir, newtonManifest]] as const) {
       const result = runReferencePython<{ checked: number; wrong: string[] }>(`${PY_LOADER}

@@ -38,7 +38,7 @@ export function tetherEpisodes(count: number): SplitEpisode[] {
   const episodes: SplitEpisode[] = [];
   for (let index = 0; index < count; index++) {
     const product = produceEpisode(scenario, index, scenario.export.dtype, new ReplayTable());
-    if (product.arrays !== null) episodes.push({ id: product.record.id, index, arrays: product.arrays });
+    if (product.arrays !== null) episodes.push({ id: product.record.id, index, labels: product.record.labels, arrays: product.arrays });
   }
   return episodes;
 }

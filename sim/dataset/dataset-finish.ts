@@ -168,15 +168,15 @@ function* splitEpisodes(request: FinishRequest, positions: readonly number[]): G
   for (const p of positions) {
     const completion = request.completions.at(p);
     const npzPath = join(request.outDir, completion.npz!.path);
-    yield { id: completion.record.id, index: completion.record.index, arrays: decodeNpz(readFileBytes(npzPath), npzPath) };
+    yield { id: completion.record.id, index: completion.record.index, labels: completion.record.labels, arrays: decodeNpz(readFileBytes(npzPath), npzPath) };
   }
 }
 
-async function assembleSplit(request: FinishRequest, split: string, positions: readonly number[]): Promise<SplitFileRecord> {
+async function assembleSplit(request: FinishRequest, split: string, positions: readonly number[], normalisation: unknown): Promise<SplitFileRecord> {
   const path = splitHdf5Path(split);
   request.onEvent?.({ type: 'assemble', file: path });
   const absolute = join(request.outDir, path);
-  await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed }, splitEpisodes(request, positions));
+  await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed, normalisation }, splitEpisodes(request, positions));
   const { completions } = request;
   const digest = await digestFile(absolute);
   if (digest.kind !== 'hashed') throw new DatasetReadError(absolute, '', `the file just written cannot be read back (${digest.kind === 'missing' ? 'ENOENT' : digest.reason})`, 'check the disk and run the same command again with --resume');
@@ -211,7 +211,7 @@ export async function finishDataset(request: FinishRequest): Promise<FinishedDat
     for (const split of summary.splits) {
       const positions = summary.okPositions.get(split) ?? [];
       if (positions.length === 0) continue;
-      const record = await assembleSplit(request, split, positions);
+      const record = await assembleSplit(request, split, positions, summary.normalisation[split]);
       splitFiles.push(record);
       splitFile.set(split, record.path);
     }

@@ -1,6 +1,7 @@
 // One HDF5 file per split: a group per episode (named by its id, in id order) holding the same
 // arrays as the episode's NPZ file, each with 'unit' and 'description' attributes from the
-// catalogue, and the episode's index and split as group attributes. The groups are built from
+// catalogue, and the episode's index, split and labels (as JSON) as group attributes; the file
+// carries the split's normalisation statistics (as JSON) beside its name and seed. The groups are built from
 // the episodes' NPZ bytes after all of them exist, so the file never depends on the order in
 // which episodes finished, on the worker count or on sharding. Episodes are read and written
 // one at a time, so a split of any size needs the memory of one episode, not of the split.
@@ -8,17 +9,22 @@ import { writeHdf5FileStreamed } from './hdf5-writer.ts';
 import type { Hdf5Group } from './hdf5-writer.ts';
 import type { NamedArray } from './named-array.ts';
 import { describeArray } from './episode-array-catalogue.ts';
+import type { LabelValue } from '../scenario/sampled-episode.ts';
 
 export interface SplitEpisode {
   id: string;
   index: number;
   arrays: NamedArray[];
+  /** The episode's sampled values, as in its manifest record; written as the group's `labels` attribute. */
+  labels: Record<string, LabelValue>;
 }
 
 export interface SplitHdf5Header {
   datasetName: string;
   split: string;
   masterSeed: string;
+  /** The split's normalisation statistics, as in the manifest; written as the file's `normalisation` attribute. */
+  normalisation?: unknown;
 }
 
 /** Deflate inside HDF5 chunks, which h5py reads without extra filters. */
@@ -32,7 +38,9 @@ function* episodeGroups(header: SplitHdf5Header, episodes: Iterable<SplitEpisode
     previous = episode.index;
     yield {
       name: episode.id,
-      attributes: { episode_index: BigInt(episode.index), split: header.split },
+      // JSON keeps every label exactly, whatever its type; HDF5 attribute names cannot hold the
+      // pointers' slashes, so one attribute holds them all.
+      attributes: { episode_index: BigInt(episode.index), split: header.split, labels: JSON.stringify(episode.labels) },
       arrays: episode.arrays.map((array) => {
         const d = describeArray(array.name);
         return { ...array, unit: d.unit, description: d.meaning };
@@ -46,7 +54,13 @@ export async function writeSplitHdf5(path: string, header: SplitHdf5Header, epis
   await writeHdf5FileStreamed(
     path,
     {
-      attributes: { dataset: header.datasetName, split: header.split, master_seed: header.masterSeed, layout: 'one group per episode, named by episode id; see manifest.json' },
+      attributes: {
+        dataset: header.datasetName,
+        split: header.split,
+        master_seed: header.masterSeed,
+        layout: 'one group per episode, named by episode id; see manifest.json',
+        ...(header.normalisation !== undefined ? { normalisation: JSON.stringify(header.normalisation) } : {}),
+      },
       groups: episodeGroups(header, episodes),
     },
     { deflateLevel: HDF5_DEFLATE_LEVEL },
