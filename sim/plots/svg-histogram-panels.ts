@@ -83,10 +83,12 @@ function panelLines(panel: HistogramPanel, originX: number, originY: number, col
   for (const bin of bins) {
     const x = px(bin.low);
     const width = px(bin.high) - x;
-    // A gap of one pixel between bars, kept only while bars are wide enough to show it.
+    // A gap of one pixel between bars while they are wide enough to show it; a bar narrower than
+    // 2 px (whole values far apart) is widened about its centre so it stays visible.
     const gap = width > 3 ? 1 : 0;
+    const drawnWidth = Math.max(2, width - gap);
     const height = bottom - py(bin.count);
-    out.push(`<rect class="bar" x="${svgNumber(x + gap / 2)}" y="${svgNumber(bottom - height)}" width="${svgNumber(width - gap)}" height="${svgNumber(height)}" fill="${colour}"/>`);
+    out.push(`<rect class="bar" x="${svgNumber(x + width / 2 - drawnWidth / 2)}" y="${svgNumber(bottom - height)}" width="${svgNumber(drawnWidth)}" height="${svgNumber(height)}" fill="${colour}"/>`);
     if (bin.label !== undefined) {
       out.push(`<text x="${svgNumber(x + width / 2)}" y="${svgNumber(bottom + 14)}" text-anchor="middle">${escapeXml(bin.label)}</text>`);
     }
