@@ -1,8 +1,9 @@
 // The last part of making a dataset folder, shared by `generate` and `merge`: once every episode
 // has its NPZ file and completion record, assemble one HDF5 file per split (in episode-id order,
-// so the bytes never depend on which episode finished first), then the card, then the manifest,
-// and only then remove the work folder. The card's pictures are written just before the card. Every step writes through a temporary name, and the
-// whole step can be repeated after a crash and gives the same files.
+// so the bytes never depend on which episode finished first), then the card's pictures (card/),
+// then the card, then the manifest, and only then remove the work folder. Every step writes
+// through a temporary name, and the whole step can be repeated after a crash and gives the same
+// files.
 //
 // Memory stays flat in the number of episodes: episode records are taken from the completion
 // source one at a time (a generate run reads them back from .pliant-work/done/), a split's HDF5
