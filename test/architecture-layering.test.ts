@@ -10,6 +10,8 @@ const ROOT = resolve(import.meta.dirname, '..');
 /** Which top-level folders each folder may import from (besides itself). */
 const ALLOWED: Record<string, string[]> = {
   'sim/random': [],
+  // Deterministic SVG charts (line, histogram, scatter, edge sketches) for the card and the reports.
+  'sim/plots': [],
   'sim/core': [],
   'sim/systems': ['sim/core'],
   'sim/controls': ['sim/random'],
@@ -17,13 +19,13 @@ const ALLOWED: Record<string, string[]> = {
   'sim/design': ['sim/random'],
   'sim/episode': ['sim/core', 'sim/systems'],
   'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design'],
-  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/cli/version.ts'],
+  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/plots', 'sim/cli/version.ts'],
   // Pictures of recorded episodes, drawn from the files.
   'sim/render': ['sim/core', 'sim/systems', 'sim/dataset'],
   // Scoring, baselines and calibration sit after the files: they read datasets, never the CLI.
-  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/dataset', 'sim/cli/version.ts'],
+  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/dataset', 'sim/plots', 'sim/cli/version.ts'],
 };
-const ENVIRONMENT_FREE = ['sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
+const ENVIRONMENT_FREE = ['sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
 
 function sourceFiles(folder: string): string[] {
   const abs = join(ROOT, folder);

@@ -17,7 +17,7 @@ import { spawnSync } from 'node:child_process';
 import { copyFileSync, linkSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
@@ -35,6 +35,7 @@ const LAUNCHER = join(ROOT, 'sim/cli/pliant-launcher.mjs');
 // records are as large as the demo's (their size comes from labels and array descriptions).
 const TETHER = join(mkdtempSync(join(tmpdir(), 'pliant-big-scenario-')), 'korrin-tether-short.json');
 const EPISODES = 100_000;
+let documentCount = 0;
 const V8_MAX_STRING_UNITS = 2 ** 29 - 24;
 const work = mkdtempSync(join(tmpdir(), 'pliant-big-manifest-'));
 const small = join(work, 'small');
@@ -77,7 +78,12 @@ beforeAll(async () => {
   const template = real.episodes.find((e) => e.status === 'ok')!;
   const templateFile = real.files.find((f) => f.kind === 'episode-npz' && f.episodes[0] === template.id)!;
   mkdirSync(join(big, 'episodes'), { recursive: true });
-  for (const name of ['seed.json', 'CARD.md']) copyFileSync(join(small, name), join(big, name));
+  // The documents: seed.json, CARD.md and the card's pictures under card/.
+  for (const { path } of real.documents) {
+    mkdirSync(dirname(join(big, path)), { recursive: true });
+    copyFileSync(join(small, path), join(big, path));
+  }
+  documentCount = real.documents.length;
   // Every episode's NPZ file is a hard link to a copy of the one real file: same bytes, same
   // SHA-256. ext4 allows 65,000 links to one inode (ext4 documentation), so a fresh copy every 50,000.
   let source = '';
@@ -139,8 +145,9 @@ describe('a manifest of 100,000 episodes', () => {
     const run = pliant(['verify', big]);
     expect(run.stderr).toBe('');
     expect(run.status).toBe(0);
-    // Every NPZ file and the two documents (seed.json, CARD.md).
-    expect(run.stdout).toContain(`ok — ${EPISODES + 2} files match`);
+    // Every NPZ file and the documents (seed.json, CARD.md, the card's pictures).
+    expect(documentCount).toBeGreaterThan(2);
+    expect(run.stdout).toContain(`ok — ${EPISODES + documentCount} files match`);
   }, 600_000);
 
   it('pliant generate --resume finds it complete in a 256 MiB heap', () => {

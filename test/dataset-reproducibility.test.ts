@@ -75,6 +75,11 @@ describe('bit-for-bit reproducibility of a dataset folder', () => {
     expect(m.episodes.length).toBe(9);
     expect(m.files.filter((f) => f.kind === 'episode-npz').length).toBe(m.episodes.filter((e) => e.status === 'ok').length);
     expect(m.files.filter((f) => f.kind === 'split-hdf5').length).toBeGreaterThanOrEqual(2);
+    // The card's SVG pictures are documents, so every comparison below covers their bytes too.
+    const pictures = m.documents.map((d) => d.path).filter((p) => p.startsWith('card/') && p.endsWith('.svg'));
+    expect(pictures).toContain('card/scatter.svg');
+    expect(pictures).toContain('card/episodes.svg');
+    expect(pictures.filter((p) => p.startsWith('card/params-')).length).toBeGreaterThanOrEqual(2);
   });
 
   it('two worker threads write the same bytes as one', async () => {

@@ -3,7 +3,8 @@
 // included) can take far more memory than the run itself, so the card keeps only what it
 // prints: counts, ranges, the first rows of a few tables, the scalar label values its
 // histograms need (nothing for a label while it keeps one value, 8 bytes per episode while it
-// is a number), and one SHA-256 digest per distinct list-valued label.
+// is a number, and 2 bytes per value for the split it came from, which the SVG pictures count
+// by), and one SHA-256 digest per distinct list-valued label.
 import { createHash } from 'node:crypto';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
 import type { EpisodeRecord, EpisodeRejection, EpisodeSimulation } from './dataset-manifest.ts';
@@ -73,10 +74,38 @@ export class ScalarColumn {
     return [...this.mixed!];
   }
 
+  /** How many values the column holds. */
+  get size(): number {
+    return this.count;
+  }
+
   /** How many different JSON texts the values have. */
   distinctCount(): number {
     if (this.uniform) return this.count === 0 ? 0 : 1;
     return new Set(this.values().map((v) => JSON.stringify(v))).size;
+  }
+}
+
+/** A growing column of small whole numbers (split codes), 2 bytes each. */
+export class SplitCodeColumn {
+  private codes = new Uint16Array(64);
+  private count = 0;
+
+  push(code: number): void {
+    if (this.count === this.codes.length) {
+      const grown = new Uint16Array(2 * this.codes.length);
+      grown.set(this.codes);
+      this.codes = grown;
+    }
+    this.codes[this.count++] = code;
+  }
+
+  get size(): number {
+    return this.count;
+  }
+
+  at(position: number): number {
+    return this.codes[position];
   }
 }
 
@@ -85,6 +114,8 @@ export interface LabelTally {
   /** The value of the first episode (in index order) that has the label. */
   readonly first: LabelValue;
   readonly scalars: ScalarColumn;
+  /** Split code (CardTally.splitNames) of the episode of each scalar value, in the same order. */
+  readonly scalarSplits: SplitCodeColumn;
   /**
    * Digests of the JSON text of each distinct list or object value. The card only counts
    * these, and a digest stands in for the text: two different texts with one SHA-256 digest
@@ -121,6 +152,10 @@ export class CardTally {
   substepsMax = -Infinity;
   /** The first REJECTED_LISTED rejected episodes. */
   readonly rejectedRows: RejectedRow[] = [];
+  /** Split names in the order they first appear; a split's code is its position here. */
+  readonly splitNames: string[] = [];
+  /** Episodes (recorded and rejected) of each split, by split code. */
+  readonly splitEpisodes: number[] = [];
   /** Label pointers in the order they first appear. */
   readonly labels = new Map<string, LabelTally>();
   /** Unit of each control channel by name; a later episode's unit replaces an earlier one. */
@@ -131,6 +166,13 @@ export class CardTally {
   /** Adds one episode; episodes must come in index order. */
   add(record: EpisodeRecord): void {
     this.episodes++;
+    let splitCode = this.splitNames.indexOf(record.split);
+    if (splitCode < 0) {
+      splitCode = this.splitNames.length;
+      this.splitNames.push(record.split);
+      this.splitEpisodes.push(0);
+    }
+    this.splitEpisodes[splitCode]++;
     if (record.status === 'ok') {
       this.ok++;
       if (this.firstOkSplit === null) this.firstOkSplit = record.split;
@@ -157,10 +199,13 @@ export class CardTally {
     for (const [pointer, value] of Object.entries(record.labels)) {
       let tally = this.labels.get(pointer);
       if (tally === undefined) {
-        tally = { first: value, scalars: new ScalarColumn(), compoundDigests: new Set() };
+        tally = { first: value, scalars: new ScalarColumn(), scalarSplits: new SplitCodeColumn(), compoundDigests: new Set() };
         this.labels.set(pointer, tally);
       }
-      if (isScalar(value)) tally.scalars.push(value);
+      if (isScalar(value)) {
+        tally.scalars.push(value);
+        tally.scalarSplits.push(splitCode);
+      }
       else tally.compoundDigests.add(createHash('sha256').update(JSON.stringify(value)).digest('base64'));
     }
   }

@@ -15,6 +15,8 @@ import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
 import { designCardSection } from './design-card-section.ts';
 import { PYTHON_LOADER_FILE_NAME } from './python-loader-source.ts';
+import { SCATTER_POINTS_PER_SPLIT } from './card-parameter-pictures.ts';
+import { SHEET_EPISODES } from './card-contact-sheet.ts';
 
 export interface CardSource extends ManifestHead {
   /** The folder's episodes, gathered in index order. */
@@ -23,6 +25,20 @@ export interface CardSource extends ManifestHead {
   episodeNpz: boolean;
   /** The split HDF5 files, in manifest order. */
   splitFiles: { path: string; split: string }[];
+  /** The card's SVG pictures (card-pictures.ts), linked from the card by their relative paths. */
+  pictures?: { path: string; alt: string }[];
+}
+
+function picturesSection(source: CardSource): string[] {
+  const pictures = source.pictures ?? [];
+  if (pictures.length === 0) return [];
+  return [
+    '',
+    '## Pictures',
+    '',
+    `Drawn from this folder's files, SVG, listed with their checksums in \`${MANIFEST_FILE}\`. Per split, every sampled parameter in the bins of the text histograms below (the same bins in every split, every episode of the split counted, held-out ranges shaded); the two or three parameters with the largest standard deviation relative to their range against each other (the first ${SCATTER_POINTS_PER_SPLIT} episodes of each split in index order); and the first and last recorded frame of the first recorded episode of each split (at most ${SHEET_EPISODES}), from above and from the side.`,
+    ...pictures.flatMap((p) => ['', `![${p.alt}](${p.path})`]),
+  ];
 }
 
 function fence(language: string, lines: string[]): string[] {
@@ -335,6 +351,8 @@ export function renderDatasetCard(source: CardSource): string {
     '',
     ...splitSection(source),
     ...designCardSection(source.scenario),
+    '',
+    ...picturesSection(source),
     '',
     '## Sampled parameters',
     '',

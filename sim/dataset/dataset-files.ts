@@ -4,6 +4,8 @@
 export const SEED_FILE = 'seed.json';
 export const MANIFEST_FILE = 'manifest.json';
 export const CARD_FILE = 'CARD.md';
+/** The card's SVG pictures, which CARD.md links (card-pictures.ts). */
+export const CARD_PICTURES_FOLDER = 'card';
 /** Per-episode NPZ files. */
 export const EPISODES_FOLDER = 'episodes';
 /** Copies of the files a scenario reads (replayed controls), so the seed file is self-contained. */

@@ -1,8 +1,9 @@
 // The last part of making a dataset folder, shared by `generate` and `merge`: once every episode
 // has its NPZ file and completion record, assemble one HDF5 file per split (in episode-id order,
-// so the bytes never depend on which episode finished first), then the card, then the manifest,
-// and only then remove the work folder. Every step writes through a temporary name, and the
-// whole step can be repeated after a crash and gives the same files.
+// so the bytes never depend on which episode finished first), then the card's pictures (card/),
+// then the card, then the manifest, and only then remove the work folder. Every step writes
+// through a temporary name, and the whole step can be repeated after a crash and gives the same
+// files.
 //
 // Memory stays flat in the number of episodes: episode records are taken from the completion
 // source one at a time (a generate run reads them back from .pliant-work/done/), a split's HDF5
@@ -20,7 +21,10 @@ import type { ArrayLayout } from './episode-outcome.ts';
 import { describeArray } from './episode-array-catalogue.ts';
 import { renderDatasetCard } from './dataset-card.ts';
 import { CardTally } from './card-tally.ts';
-import { CARD_FILE, MANIFEST_FILE, WORK_FOLDER, splitHdf5Path } from './dataset-files.ts';
+import { CARD_FILE, CARD_PICTURES_FOLDER, MANIFEST_FILE, WORK_FOLDER, splitHdf5Path } from './dataset-files.ts';
+import { renderCardPictures } from './card-pictures.ts';
+import { SHEET_EPISODES, sheetEpisode } from './card-contact-sheet.ts';
+import type { SheetEpisode } from './card-contact-sheet.ts';
 import { writeDatasetFile, writeDatasetTextStreamed } from './dataset-file-writer.ts';
 import { decodeNpz } from './npz.ts';
 import { writeSplitHdf5 } from './split-hdf5.ts';
@@ -172,6 +176,21 @@ function* splitEpisodes(request: FinishRequest, positions: readonly number[]): G
   }
 }
 
+/** The contact sheet's episodes: the first recorded one of each split, in split order, read from its episode file. */
+function contactSheetEpisodes(request: FinishRequest, summary: SweepSummary): SheetEpisode[] {
+  const episodes: SheetEpisode[] = [];
+  for (const split of summary.splits) {
+    if (episodes.length >= SHEET_EPISODES) break;
+    const first = summary.okPositions.get(split)?.[0];
+    if (first === undefined) continue;
+    const completion = request.completions.at(first);
+    const npzPath = join(request.outDir, completion.npz!.path);
+    const episode = sheetEpisode(completion.record.id, split, decodeNpz(readFileBytes(npzPath), npzPath));
+    if (episode !== null) episodes.push(episode);
+  }
+  return episodes;
+}
+
 async function assembleSplit(request: FinishRequest, split: string, positions: readonly number[], normalisation: unknown): Promise<SplitFileRecord> {
   const path = splitHdf5Path(split);
   request.onEvent?.({ type: 'assemble', file: path });
@@ -230,14 +249,28 @@ export async function finishDataset(request: FinishRequest): Promise<FinishedDat
     normalisation: summary.normalisation,
     scenario: seed.scenario,
   };
+  const pictures = renderCardPictures({
+    tally,
+    heldOut: seed.scenario.splits.heldOut,
+    splits: summary.splits,
+    sheetEpisodes: contactSheetEpisodes(request, summary),
+  });
+  // A picture an earlier, interrupted finish wrote that this one does not would be unlisted.
+  try {
+    await rm(join(request.outDir, CARD_PICTURES_FOLDER), { recursive: true, force: true });
+  } catch (error) {
+    throw toDatasetWriteError(error, join(request.outDir, CARD_PICTURES_FOLDER));
+  }
+  const pictureRecords = pictures.map((p) => writeDatasetFile(request.outDir, p.path, p.text));
   const card = writeDatasetFile(request.outDir, CARD_FILE, renderDatasetCard({
     ...head,
     tally,
     episodeNpz: keepNpz && tally.ok > 0,
     splitFiles: splitFiles.map((f) => ({ path: f.path, split: f.split })),
+    pictures: pictures.map((p) => ({ path: p.path, alt: p.alt })),
   }));
   const inputs: InputFileRecord[] = seed.inputs.map((i) => ({ path: i.path, sha256: i.sha256, sizeBytes: i.sizeBytes, kind: 'input', scenarioPath: i.scenarioPath }));
-  const documents = [request.seedRecord, card, ...inputs];
+  const documents = [request.seedRecord, card, ...pictureRecords, ...inputs];
   const listedPaths = documents.map((d) => d.path);
 
   function* episodeRecords(): Generator<EpisodeRecord> {

@@ -12,6 +12,7 @@ import { join, resolve } from 'node:path';
 import type { Scenario } from '../scenario/scenario-types.ts';
 import {
   CARD_FILE,
+  CARD_PICTURES_FOLDER,
   EPISODES_FOLDER,
   INPUTS_FOLDER,
   LOCK_FILE,
@@ -78,7 +79,7 @@ interface WorkPlan {
 }
 
 /** The entries a Pliant dataset folder may hold at its top level; --force removes only these. */
-const OWN_TOP_LEVEL = new Set([SEED_FILE, MANIFEST_FILE, CARD_FILE, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER]);
+const OWN_TOP_LEVEL = new Set([SEED_FILE, MANIFEST_FILE, CARD_FILE, CARD_PICTURES_FOLDER, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER]);
 
 function isOwnEntry(name: string): boolean {
   return OWN_TOP_LEVEL.has(name) || name.endsWith('.h5') || isTemporaryName(name);
@@ -117,7 +118,7 @@ function effectiveShard(shard: ShardPlan | null): ShardPlan | null {
 
 /** Deletes the hidden temporary files of writes a killed run left half done. */
 function removeTemporaryFiles(outDir: string): void {
-  for (const folder of ['', EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER, WORK_DONE_FOLDER, WORK_PARTS_FOLDER]) {
+  for (const folder of ['', CARD_PICTURES_FOLDER, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER, WORK_DONE_FOLDER, WORK_PARTS_FOLDER]) {
     let names: string[];
     try {
       names = readdirSync(join(outDir, folder));

@@ -1,7 +1,8 @@
 // Small histograms drawn with characters, for the dataset card: a reader sees at a glance how a
 // sampled parameter is spread over the episodes without loading anything. Numbers are binned
-// into equal-width bins; whole numbers with few distinct values and non-numeric values get one
+// into equal-width bins (label-bins.ts); whole numbers with few distinct values and non-numeric values get one
 // row per value.
+import { labelBins } from './label-bins.ts';
 
 const BAR = '█';
 
@@ -37,25 +38,13 @@ export function numericHistogram(values: readonly number[], options: HistogramOp
   if (values.length === 0) return [];
   const binCount = options.binCount ?? 8;
   const width = options.barWidth ?? 24;
-  let min = Infinity;
-  let max = -Infinity;
-  for (const v of values) {
-    if (v < min) min = v;
-    if (v > max) max = v;
-  }
-  const distinct = [...new Set(values)].sort((a, b) => a - b);
-  if (distinct.length <= binCount && distinct.every(Number.isInteger)) {
-    return rows(distinct.map(String), distinct.map((d) => values.filter((v) => v === d).length), width);
-  }
-  if (min === max) return rows([formatLabelNumber(min)], [values.length], width);
-  const counts = new Array<number>(binCount).fill(0);
-  const span = max - min;
-  for (const v of values) counts[Math.min(binCount - 1, Math.floor(((v - min) / span) * binCount))]++;
-  const labels = counts.map((_, b) => {
-    const low = min + (span * b) / binCount;
-    const high = b === binCount - 1 ? max : min + (span * (b + 1)) / binCount;
-    return `${formatLabelNumber(low)} – ${formatLabelNumber(high)}${b === binCount - 1 ? ']' : ')'}`;
-  });
+  const bins = labelBins(values, binCount)!;
+  const counts = new Array<number>(bins.lows.length).fill(0);
+  for (const v of values) counts[bins.binOf(v)]++;
+  if (bins.perValue) return rows(bins.lows.map(String), counts, width);
+  if (bins.lows.length === 1) return rows([formatLabelNumber(bins.lows[0])], counts, width);
+  const last = bins.lows.length - 1;
+  const labels = bins.lows.map((low, b) => `${formatLabelNumber(low)} – ${formatLabelNumber(bins.highs[b])}${b === last ? ']' : ')'}`);
   return rows(labels.map((l) => `[${l}`), counts, width);
 }
 

@@ -4,7 +4,7 @@
 import { PLIANT_VERSION } from '../../cli/version.ts';
 import { unitOfLabel } from '../../dataset/label-units.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
-import { renderLineChart } from '../plots/svg-line-chart.ts';
+import { renderLineChart } from '../../plots/svg-line-chart.ts';
 import type { CalibrationResult } from './calibrate.ts';
 import { COVARIANCE_JACOBIAN_STEP_THETA } from './calibrate.ts';
 import type { FittedRange } from './fitted-scenario.ts';

@@ -3,6 +3,8 @@
 // 0.01 px so the same numbers always give the same bytes. Non-finite values leave gaps.
 import { decadeTicks, niceTicks, tickLabel } from './nice-ticks.ts';
 import type { AxisTicks } from './nice-ticks.ts';
+import { escapeXml, svgNumber as fmt } from './svg-text.ts';
+import { CHART_COLOURS } from './chart-colours.ts';
 
 export type SeriesStyle = 'line' | 'points' | 'line+points';
 
@@ -30,19 +32,8 @@ export interface LineChartSpec {
   heightPx?: number;
 }
 
-// Our own categorical palette: eight hues far apart in lightness and hue, readable on white.
-export const CHART_COLOURS = ['#1f5f8b', '#c8553d', '#2e8b57', '#8e5ea2', '#b8860b', '#3a3a3a', '#d4447c', '#4f9da6'];
-
 const MARGIN = { left: 72, right: 16, top: 36, bottom: 48 };
 const LEGEND_ROW_PX = 16;
-
-function fmt(value: number): string {
-  return (Math.round(value * 100) / 100).toFixed(2).replace(/\.?0+$/, '') || '0';
-}
-
-function escapeXml(text: string): string {
-  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
 
 function finiteRange(values: Iterable<number>, positiveOnly: boolean): [number, number] {
   let lo = Infinity;
