@@ -2,15 +2,17 @@
 // documented in its file (sim/bench/pipeline-episodes.ts, pipeline-export.ts, sweep-memory.ts),
 // rates are the quotient of the amounts and times on the same line (arithmetic, common practice,
 // no source), and the export cases count real data files: the NPZ files they write load in
-// Debian's NumPy and the HDF5 file in h5py with the episodes' arrays, and the bytes they report
-// are the file sizes Python's os.path.getsize reads. No time is asserted: benchmarks measure.
+// Debian's NumPy and the HDF5 file in h5py with the episodes' arrays, for every compression
+// choice; the file bytes they report are the sizes Python's os.path.getsize reads and the array
+// bytes the sum of NumPy's ndarray.nbytes. No time is asserted: benchmarks measure.
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { PIPELINE_EPISODES } from '../sim/bench/pipeline-episodes.ts';
-import { EXPORT_EPISODES, exportHdf5, exportNpz, tetherEpisodes } from '../sim/bench/pipeline-export.ts';
+import { EXPORT_EPISODES, arrayBytes, exportHdf5, exportNpz, tetherEpisodes } from '../sim/bench/pipeline-export.ts';
+import { EXPORT_COMPRESSIONS } from '../sim/scenario/export-compression.ts';
 import { MEMORY_EPISODES_VARIABLE } from '../sim/bench/sweep-memory.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
@@ -36,43 +38,57 @@ function expectRate(value: unknown, amount: number, seconds: number): void {
 }
 
 describe('pipeline benchmark lines', () => {
-  it('export-npz and export-hdf5: one line each with case, mb_per_s, megabytes, seconds, episodes', () => {
+  it('export-npz and export-hdf5: one line per compression choice with the rates and ratio of the amounts on it', () => {
     const run = bench(['export-npz', 'export-hdf5']);
     expect(run.stderr).toBe('');
     expect(run.status).toBe(0);
-    expect(run.lines.map((l) => l.case)).toEqual(['export-npz', 'export-hdf5']);
+    expect(run.lines.map((l) => [l.case, l.compression])).toEqual([
+      ...EXPORT_COMPRESSIONS.map((c) => ['export-npz', c]),
+      ...EXPORT_COMPRESSIONS.map((c) => ['export-hdf5', c]),
+    ]);
+    const keys = ['array_megabytes', 'case', 'compression', 'episodes', 'mb_per_s', 'megabytes', 'ratio', 'seconds'];
     for (const line of run.lines) {
-      expect(Object.keys(line).sort()).toEqual(['case', 'episodes', 'mb_per_s', 'megabytes', 'seconds']);
+      expect(Object.keys(line).sort()).toEqual(line.case === 'export-npz' ? [...keys, 'encode_mb_per_s', 'encode_seconds'].sort() : keys);
       expect(line.episodes).toBeGreaterThan(0);
       expect(line.episodes).toBeLessThanOrEqual(EXPORT_EPISODES);
-      expectRate(line.mb_per_s, line.megabytes as number, line.seconds as number);
+      expectRate(line.mb_per_s, line.array_megabytes as number, line.seconds as number);
+      expectRate(line.ratio, line.array_megabytes as number, line.megabytes as number);
+      if (line.case === 'export-npz') {
+        expectRate(line.encode_mb_per_s, line.array_megabytes as number, line.encode_seconds as number);
+        // Encoding is part of writing the file.
+        expect(line.encode_seconds as number).toBeLessThanOrEqual(line.seconds as number);
+      }
     }
   }, 300_000);
 
-  it.runIf(python.available)('the export cases count the bytes of files NumPy and h5py read back with the episodes\' arrays', async () => {
+  it.runIf(python.available)('the export cases count the bytes of files NumPy and h5py read back with the episodes\' arrays, and the array bytes NumPy counts', async () => {
     const episodes = tetherEpisodes(4);
-    const npz = exportNpz(episodes, join(work, 'npz'));
-    const hdf5 = await exportHdf5(episodes, join(work, 'hdf5'));
     const expected = episodes.map((e) => ({ id: e.id, arrays: Object.fromEntries(e.arrays.map((a) => [a.name, [...a.shape]])) }));
-    const read = runReferencePython<{ npzBytes: number; h5Bytes: number; npz: unknown; h5: unknown }>(
-      `import json, os, sys
+    for (const compression of EXPORT_COMPRESSIONS) {
+      const npz = exportNpz(episodes, join(work, compression, 'npz'), compression);
+      const hdf5 = await exportHdf5(episodes, join(work, compression, 'hdf5'), compression);
+      const read = runReferencePython<{ npzBytes: number; h5Bytes: number; arrayBytes: number; npz: unknown; h5: unknown }>(
+        `import json, os, sys
 import numpy as np, h5py
 spec = json.load(sys.stdin)
-npz, total = [], 0
+npz, total, array_bytes = [], 0, 0
 for e in spec["episodes"]:
     path = os.path.join(spec["npz"], "episodes", e["id"] + ".npz")
     total += os.path.getsize(path)
     with np.load(path) as z:
         npz.append({"id": e["id"], "arrays": {k: list(z[k].shape) for k in z.files}})
+        array_bytes += sum(z[k].nbytes for k in z.files)
 with h5py.File(spec["h5"], "r") as f:
     h5 = [{"id": k, "arrays": {n: list(f[k][n].shape) for n in f[k].keys()}} for k in sorted(f.keys())]
-print(json.dumps({"npzBytes": total, "h5Bytes": os.path.getsize(spec["h5"]), "npz": npz, "h5": h5}))`,
-      { episodes: expected, npz: join(work, 'npz'), h5: join(work, 'hdf5', 'train.h5') },
-    );
-    expect(read.npzBytes).toBe(npz.bytes);
-    expect(read.h5Bytes).toBe(hdf5.bytes);
-    expect(read.npz).toEqual(expected);
-    expect(read.h5).toEqual(expected);
+print(json.dumps({"npzBytes": total, "h5Bytes": os.path.getsize(spec["h5"]), "arrayBytes": array_bytes, "npz": npz, "h5": h5}))`,
+        { episodes: expected, npz: join(work, compression, 'npz'), h5: join(work, compression, 'hdf5', 'train.h5') },
+      );
+      expect(read.npzBytes).toBe(npz.bytes);
+      expect(read.h5Bytes).toBe(hdf5.bytes);
+      expect(read.arrayBytes).toBe(arrayBytes(episodes));
+      expect(read.npz).toEqual(expected);
+      expect(read.h5).toEqual(expected);
+    }
   }, 120_000);
 
   it('episodes-korrin-eel: a line at 1 and at 2 workers, the second with the speed-up of the two rates', () => {

@@ -60,7 +60,7 @@ describe('SCENARIO_SCHEMA', () => {
     const props = SCENARIO_SCHEMA.properties as Json;
     expect(s.splits.fractions).toEqual(props.splits.properties.fractions.default);
     expect(s.splits.heldOut).toEqual([]);
-    expect(s.export).toEqual({ format: props.export.properties.format.default, dtype: props.export.properties.dtype.default, forces: false });
+    expect(s.export).toEqual({ format: props.export.properties.format.default, dtype: props.export.properties.dtype.default, forces: false, compression: props.export.properties.compression.default });
     expect(s.numerics).toEqual({ energyBalance: false, richardsonShare: 0 });
     expect(s.world.obstacles).toEqual([]);
     expect(s.time.substeps).toBe(props.time.properties.substeps.default);

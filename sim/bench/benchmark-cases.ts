@@ -10,7 +10,7 @@ import { lattice8x8x8Case } from './lattice-8x8x8.ts';
 import { lattice8x8x8WasmCase } from './lattice-8x8x8-wasm.ts';
 import { lattice8x8x8WasmVsNativeCase } from './lattice-8x8x8-wasm-vs-native.ts';
 import { pipelineEpisodeCases } from './pipeline-episodes.ts';
-import { exportHdf5Case, exportNpzCase } from './pipeline-export.ts';
+import { exportHdf5Cases, exportNpzCases } from './pipeline-export.ts';
 import { sweepMemoryCase } from './sweep-memory.ts';
 import { scoreThroughputCase } from './score-throughput.ts';
 import { calibrateTetherCase } from './calibrate-tether.ts';
@@ -26,8 +26,8 @@ export const BENCHMARK_CASES: BenchmarkCase[] = [
   lattice8x8x8WasmCase,
   lattice8x8x8WasmVsNativeCase,
   ...pipelineEpisodeCases,
-  exportNpzCase,
-  exportHdf5Case,
+  ...exportNpzCases,
+  ...exportHdf5Cases,
   sweepMemoryCase,
   scoreThroughputCase,
   calibrateTetherCase,

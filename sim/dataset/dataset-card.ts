@@ -8,6 +8,7 @@ import type { ManifestHead } from './dataset-manifest.ts';
 import { REJECTED_LISTED } from './card-tally.ts';
 import type { CardTally, ScalarLabel } from './card-tally.ts';
 import { EPISODE_ARRAYS } from './episode-array-catalogue.ts';
+import { describeCompression } from '../scenario/export-compression.ts';
 import { categoricalHistogram, formatLabelNumber, numericHistogram } from './text-histogram.ts';
 import { valueAtPointer } from './json-pointer-lookup.ts';
 import { unitOfLabel } from './label-units.ts';
@@ -39,6 +40,13 @@ function picturesSection(source: CardSource): string[] {
     `Drawn from this folder's files, SVG, listed with their checksums in \`${MANIFEST_FILE}\`. Per split, every sampled parameter in the bins of the text histograms below (the same bins in every split, every episode of the split counted, held-out ranges shaded); the two or three parameters with the largest standard deviation relative to their range against each other (the first ${SCATTER_POINTS_PER_SPLIT} episodes of each split in index order); and the first and last recorded frame of the first recorded episode of each split (at most ${SHEET_EPISODES}), from above and from the side.`,
     ...pictures.flatMap((p) => ['', `![${p.alt}](${p.path})`]),
   ];
+}
+
+/** The `export.compression` choice and its levels, so a reader knows how the files were written. */
+function compressionSentence(source: CardSource): string {
+  const choice = source.export.compression;
+  if (choice === undefined) return '';
+  return `Compression "${describeCompression(choice).replace(': ', '": ')} (\`export.compression\`; every choice loads with numpy.load and h5py). `;
 }
 
 function fence(language: string, lines: string[]): string[] {
@@ -343,7 +351,7 @@ export function renderDatasetCard(source: CardSource): string {
     '',
     ...describeSystem(scenario, source.tally),
     '',
-    `${scope} ${ok} recorded, ${rejected} rejected. Master seed ${source.masterSeed}; floating-point arrays are ${source.export.dtype}; files: ${source.export.format === 'both' ? 'NPZ per episode and HDF5 per split' : source.export.format === 'npz' ? 'NPZ per episode' : 'HDF5 per split'}. Written by Pliant ${source.pliantVersion}.`,
+    `${scope} ${ok} recorded, ${rejected} rejected. Master seed ${source.masterSeed}; floating-point arrays are ${source.export.dtype}; files: ${source.export.format === 'both' ? 'NPZ per episode and HDF5 per split' : source.export.format === 'npz' ? 'NPZ per episode' : 'HDF5 per split'}. ${compressionSentence(source)}Written by Pliant ${source.pliantVersion}.`,
     '',
     'Every file is listed with its SHA-256 in `manifest.json`; check them with `pliant verify .`.',
     '',

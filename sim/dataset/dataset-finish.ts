@@ -38,6 +38,7 @@ import { readFileBytes } from './read-file-bytes.ts';
 import { toDatasetWriteError } from './dataset-write-error.ts';
 import { StreamedList, writeStreamedJson } from './streamed-json.ts';
 import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from './episode-records-digest.ts';
+import { COMPRESSION_LEVELS } from '../scenario/export-compression.ts';
 
 /** The episodes of the folder being finished, ascending by index, handed out one at a time. */
 export interface CompletionSource {
@@ -195,7 +196,7 @@ async function assembleSplit(request: FinishRequest, split: string, positions: r
   const path = splitHdf5Path(split);
   request.onEvent?.({ type: 'assemble', file: path });
   const absolute = join(request.outDir, path);
-  await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed, normalisation }, splitEpisodes(request, positions));
+  await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed, normalisation }, splitEpisodes(request, positions), request.seed.scenario.export.compression);
   const { completions } = request;
   const digest = await digestFile(absolute);
   if (digest.kind !== 'hashed') throw new DatasetReadError(absolute, '', `the file just written cannot be read back (${digest.kind === 'missing' ? 'ENOENT' : digest.reason})`, 'check the disk and run the same command again with --resume');
@@ -244,7 +245,12 @@ export async function finishDataset(request: FinishRequest): Promise<FinishedDat
     masterSeed: seed.masterSeed,
     episodeCount: seed.episodeCount,
     shard: shard ? { index: shard.index, count: shard.count } : null,
-    export: { format: seed.export.format, dtype: seed.export.dtype },
+    export: {
+      format: seed.export.format,
+      dtype: seed.export.dtype,
+      compression: seed.scenario.export.compression,
+      levels: { ...COMPRESSION_LEVELS[seed.scenario.export.compression] },
+    },
     splits: summary.counts,
     normalisation: summary.normalisation,
     scenario: seed.scenario,

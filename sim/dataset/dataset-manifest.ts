@@ -4,6 +4,7 @@
 // function of the seed file, so two runs of the same seed write the same manifest apart from
 // `run`.
 import type { BlowUpKind } from '../core/simulation-error.ts';
+import type { CompressionLevels, ExportCompression } from '../scenario/export-compression.ts';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
 import type { ControlChannelInfo } from '../systems/control-channel.ts';
 import type { CatalogueDtype } from './episode-array-catalogue.ts';
@@ -119,7 +120,11 @@ export interface DatasetManifest {
   episodeCount: number;
   /** Set when this folder holds one shard of an array job; null for a whole dataset. */
   shard: ShardRecord | null;
-  export: { format: ExportFormat; dtype: ExportDtype };
+  /**
+   * `compression` and the levels it stands for (sim/scenario/export-compression.ts); absent in
+   * manifests written before the choice existed, whose files used the levels of "small".
+   */
+  export: { format: ExportFormat; dtype: ExportDtype; compression?: ExportCompression; levels?: CompressionLevels };
   /** Episodes per split, ok and rejected. */
   splits: Record<string, { ok: number; rejected: number }>;
   /**

@@ -28,6 +28,6 @@ export function computeEpisodeOutcome(scenario: Scenario, index: number, dtype: 
   return {
     record: product.record,
     arrays: product.arrays.map((a) => ({ name: a.name, dtype: a.dtype as StoredDtype, shape: [...a.shape] })),
-    npz: encodeEpisodeNpz(product.arrays),
+    npz: encodeEpisodeNpz(product.arrays, scenario.export.compression),
   };
 }

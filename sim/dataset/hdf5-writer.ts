@@ -43,6 +43,8 @@ export interface Hdf5StreamedContent {
 export interface Hdf5WriteOptions {
   /** 0 (default) stores arrays contiguously; 1-9 stores them in chunks compressed with deflate at that level. */
   readonly deflateLevel?: number;
+  /** With a deflateLevel, arrays of fewer data bytes than this stay contiguous and uncompressed; default 0 (all are compressed). */
+  readonly minCompressedBytes?: number;
   /** The instant written into every object header, seconds since 1970; default `HDF5_FIXED_TIME_S`. */
   readonly fixedTimeS?: number;
 }
@@ -135,13 +137,14 @@ export function fillHdf5File(library: Hdf5Library, diskPath: string, content: Hd
 /** Writes the file; with `checkEachGroup` every group is checked (and may fail as a GroupFailure) just before it is written. */
 function fillHdf5(library: Hdf5Library, diskPath: string, content: Hdf5StreamedContent, checkEachGroup: boolean, options: Hdf5WriteOptions, reportPath: string): void {
   const deflateLevel = options.deflateLevel ?? 0;
+  const minCompressedBytes = options.minCompressedBytes ?? 0;
   const rootNames = checkEachGroup ? checkRoot(content) : new Set<string>();
   const run = runHdf5Calls(library, options.fixedTimeS ?? HDF5_FIXED_TIME_S, () => {
     const file = new library.File(resolve(diskPath), 'w', { libver: 'v108' });
     if (file.file_id < 0n) return -1;
     try {
       writeAttributes(file, content.attributes);
-      for (const array of content.arrays ?? []) writeArray(file, array, deflateLevel);
+      for (const array of content.arrays ?? []) writeArray(file, array, deflateLevel, minCompressedBytes);
       const groups = content.groups[Symbol.iterator]();
       for (;;) {
         let group: Hdf5Group;
@@ -155,7 +158,7 @@ function fillHdf5(library: Hdf5Library, diskPath: string, content: Hdf5StreamedC
         }
         const handle = file.create_group(group.name);
         writeAttributes(handle, group.attributes);
-        for (const array of group.arrays) writeArray(handle, array, deflateLevel);
+        for (const array of group.arrays) writeArray(handle, array, deflateLevel, minCompressedBytes);
       }
     } catch (error) {
       // Release HDF5's handle so the half-written file can be removed, then report the first failure.
@@ -181,8 +184,8 @@ function writeAttributes(node: Hdf5Node, attributes: Hdf5Attributes | undefined)
   }
 }
 
-function writeArray(parent: Hdf5Node, array: NamedArray, deflateLevel: number): void {
-  const chunks = deflateLevel > 0 ? chunkShape(array) : null;
+function writeArray(parent: Hdf5Node, array: NamedArray, deflateLevel: number, minCompressedBytes: number): void {
+  const chunks = deflateLevel > 0 && array.data.byteLength >= minCompressedBytes ? chunkShape(array) : null;
   const dataset = parent.create_dataset({
     name: array.name,
     data: array.data,
@@ -236,6 +239,8 @@ export function checkHdf5Content(content: Hdf5Content, options: Hdf5WriteOptions
 function checkHdf5Options(options: Hdf5WriteOptions): void {
   const level = options.deflateLevel ?? 0;
   if (!Number.isInteger(level) || level < 0 || level > 9) throw new RangeError(`deflateLevel ${level} is not an integer from 0 to 9`);
+  const minBytes = options.minCompressedBytes ?? 0;
+  if (!Number.isSafeInteger(minBytes) || minBytes < 0) throw new RangeError(`minCompressedBytes ${minBytes} is not a whole number of bytes`);
   const time = options.fixedTimeS ?? HDF5_FIXED_TIME_S;
   // Object header time stamps are unsigned 32-bit seconds.
   if (!Number.isInteger(time) || time < 0 || time > 0xffffffff) throw new RangeError(`fixedTimeS ${time} is not a whole number of seconds from 0 to 2^32-1`);

@@ -1,6 +1,7 @@
 // The JSON Schema (draft 2020-12) every manifest.json must satisfy. Shipped with Pliant so a
 // reader in any language can check a dataset folder before trusting it; `pliant verify` checks
 // it first, then every checksum.
+import { EXPORT_COMPRESSIONS } from '../scenario/export-compression.ts';
 import { MANIFEST_FORMAT_VERSION } from './dataset-manifest.ts';
 
 const sha256 = { type: 'string', pattern: '^[0-9a-f]{64}$', description: 'SHA-256 of the file, lower-case hex' };
@@ -157,7 +158,22 @@ export const MANIFEST_SCHEMA = {
       type: 'object',
       additionalProperties: false,
       required: ['format', 'dtype'],
-      properties: { format: { enum: ['npz', 'hdf5', 'both'] }, dtype: { enum: ['float32', 'float64'] } },
+      properties: {
+        format: { enum: ['npz', 'hdf5', 'both'] },
+        dtype: { enum: ['float32', 'float64'] },
+        // Absent in manifests written before the choice existed (their files used "small").
+        compression: { enum: [...EXPORT_COMPRESSIONS] },
+        levels: {
+          type: 'object',
+          additionalProperties: false,
+          required: ['npzDeflateLevel', 'hdf5DeflateLevel', 'hdf5MinCompressedBytes'],
+          properties: {
+            npzDeflateLevel: { type: 'integer', minimum: 0, maximum: 9 },
+            hdf5DeflateLevel: { type: 'integer', minimum: 0, maximum: 9 },
+            hdf5MinCompressedBytes: { type: 'integer', minimum: 0 },
+          },
+        },
+      },
     },
     splits: {
       type: 'object',

@@ -3,6 +3,7 @@
 // at the top for people reading it), the Pliant version that wrote it, and the input files the
 // scenario replays, copied beside it with their SHA-256.
 import { checkScenarioValue } from '../scenario/check-scenario.ts';
+import { SEED_COMPRESSION_BEFORE_CHOICE } from '../scenario/export-compression.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
 import { formatProblems } from '../scenario/scenario-problem.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
@@ -63,7 +64,7 @@ export function parseSeedFile(text: string, fileName: string): SeedFile {
   if (seed.seedFormat !== SEED_FORMAT_VERSION) {
     throw new DatasetRequestError(`${fileName} /seedFormat: this Pliant reads seed format ${SEED_FORMAT_VERSION} (got ${JSON.stringify(seed.seedFormat)}); is this a seed.json written by Pliant?`);
   }
-  const checked = checkScenarioValue(seed.scenario);
+  const checked = checkScenarioValue(withCompressionBeforeChoice(seed.scenario));
   if (!checked.ok) {
     const problems = checked.problems.map((p) => ({ ...p, pointer: `/scenario${p.pointer}` }));
     throw new DatasetRequestError(`${fileName} holds a scenario that does not check:\n${formatProblems(problems, fileName)}`);
@@ -74,7 +75,7 @@ export function parseSeedFile(text: string, fileName: string): SeedFile {
   if (seed.masterSeed !== masterSeedText(scenario)) mismatches.push('/masterSeed');
   if (seed.episodeCount !== scenario.episodes) mismatches.push('/episodeCount');
   if (JSON.stringify(seed.splits) !== JSON.stringify(scenario.splits)) mismatches.push('/splits');
-  if (JSON.stringify(seed.export) !== JSON.stringify(scenario.export)) mismatches.push('/export');
+  if (JSON.stringify(withCompressionBeforeChoice({ export: seed.export }).export) !== JSON.stringify(scenario.export)) mismatches.push('/export');
   if (mismatches.length > 0) {
     throw new DatasetRequestError(`${fileName} ${mismatches.join(', ')}: disagree${mismatches.length === 1 ? 's' : ''} with the scenario inside it; edit /scenario instead (the copies at the top are only for reading)`);
   }
@@ -85,4 +86,16 @@ export function parseSeedFile(text: string, fileName: string): SeedFile {
     }
   }
   return { ...(seed as SeedFile), scenario, inputs };
+}
+
+/**
+ * A seed file written before `export.compression` existed lacks the key, and its files were
+ * written with the levels "small" stands for; the scenario's default ("fast") would regenerate
+ * other bytes. So in a seed file, and only there, a missing key means "small".
+ */
+function withCompressionBeforeChoice<T>(scenario: T): T {
+  if (scenario === null || typeof scenario !== 'object' || Array.isArray(scenario)) return scenario;
+  const exportSpec = (scenario as { export?: unknown }).export;
+  if (exportSpec === null || typeof exportSpec !== 'object' || Array.isArray(exportSpec) || Object.hasOwn(exportSpec, 'compression')) return scenario;
+  return { ...scenario, export: { ...exportSpec, compression: SEED_COMPRESSION_BEFORE_CHOICE } };
 }

@@ -10,6 +10,7 @@ import type { Hdf5Group } from './hdf5-writer.ts';
 import type { NamedArray } from './named-array.ts';
 import { describeArray } from './episode-array-catalogue.ts';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
+import { COMPRESSION_LEVELS, type ExportCompression } from '../scenario/export-compression.ts';
 
 export interface SplitEpisode {
   id: string;
@@ -26,9 +27,6 @@ export interface SplitHdf5Header {
   /** The split's normalisation statistics, as in the manifest; written as the file's `normalisation` attribute. */
   normalisation?: unknown;
 }
-
-/** Deflate inside HDF5 chunks, which h5py reads without extra filters. */
-const HDF5_DEFLATE_LEVEL = 4;
 
 function* episodeGroups(header: SplitHdf5Header, episodes: Iterable<SplitEpisode>): Generator<Hdf5Group> {
   let previous = -1;
@@ -49,8 +47,11 @@ function* episodeGroups(header: SplitHdf5Header, episodes: Iterable<SplitEpisode
   }
 }
 
-/** `episodes` are made (e.g. read from their NPZ files) as they are written, in ascending index order. */
-export async function writeSplitHdf5(path: string, header: SplitHdf5Header, episodes: Iterable<SplitEpisode>): Promise<void> {
+/**
+ * `episodes` are made (e.g. read from their NPZ files) as they are written, in ascending index
+ * order. Compressed choices use HDF5's gzip filter, which h5py reads without extra plugins.
+ */
+export async function writeSplitHdf5(path: string, header: SplitHdf5Header, episodes: Iterable<SplitEpisode>, compression: ExportCompression): Promise<void> {
   await writeHdf5FileStreamed(
     path,
     {
@@ -63,6 +64,6 @@ export async function writeSplitHdf5(path: string, header: SplitHdf5Header, epis
       },
       groups: episodeGroups(header, episodes),
     },
-    { deflateLevel: HDF5_DEFLATE_LEVEL },
+    { deflateLevel: COMPRESSION_LEVELS[compression].hdf5DeflateLevel, minCompressedBytes: COMPRESSION_LEVELS[compression].hdf5MinCompressedBytes },
   );
 }

@@ -10,6 +10,7 @@ import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVAT
 import { SAFETY_CAUTION } from './safety-caution.ts';
 import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
 import { DESIGN_KINDS } from '../design/design-spec.ts';
+import { DEFAULT_EXPORT_COMPRESSION, EXPORT_COMPRESSIONS, SEED_COMPRESSION_BEFORE_CHOICE, describeCompression } from './export-compression.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 
@@ -415,6 +416,12 @@ const exportSchema = closed(
     format: { type: 'string', enum: ['npz', 'hdf5', 'both'], default: 'npz', description: 'NPZ (zipped NPY arrays), HDF5, or both.' },
     dtype: { type: 'string', enum: ['float32', 'float64'], default: 'float32', description: 'Floating-point type of the recorded arrays.' },
     forces: { type: 'boolean', default: false, description: 'Also store forces averaged over each record interval (impulse / interval): edge_tension, contact_normal_force, contact_friction_force, fluid_force.' },
+    compression: {
+      type: 'string',
+      enum: [...EXPORT_COMPRESSIONS],
+      default: DEFAULT_EXPORT_COMPRESSION,
+      description: `How hard the data files are compressed; every choice loads with numpy.load and h5py and gives the same bytes on every run. ${EXPORT_COMPRESSIONS.map(describeCompression).join('. ')}. A seed file without this key regenerates with "${SEED_COMPRESSION_BEFORE_CHOICE}", the levels used before the choice existed.`,
+    },
   },
   [],
 );

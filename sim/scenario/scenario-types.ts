@@ -5,6 +5,7 @@
 // Defaults named in the schema are filled in by checking, so every member below is present.
 import type { ControlSpec } from '../controls/control-spec.ts';
 import type { DesignSpec } from '../design/design-spec.ts';
+import type { ExportCompression } from './export-compression.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import type { Axis, ChainAnchor, ChainEnd } from '../systems/chain.ts';
 import type { LatticeBase, LatticeFace, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
@@ -226,6 +227,8 @@ export interface ExportSpec {
   dtype: 'float32' | 'float64';
   /** Also store impulse-averaged forces: edge_tension, contact_normal_force, contact_friction_force, fluid_force. */
   forces: boolean;
+  /** Deflate levels of the data files; see export-compression.ts. */
+  compression: ExportCompression;
 }
 
 export interface NumericsSpec {
