@@ -7,6 +7,7 @@
 // visited — and the end-to-end suite compares the result with checkScenarioText's on every demo.
 import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
 import { drawTextMaps } from '../../sim/scenario/draw-text-maps.ts';
+import { expandMaterialTemplates, hasMaterialTemplates } from '../../sim/scenario/material-templates.ts';
 import type { Scenario } from '../../sim/scenario/scenario-types.ts';
 
 type Schema = { [keyword: string]: unknown };
@@ -24,6 +25,12 @@ export function checkedScenario(text: string, fileName: string): CheckedScenario
     return { ok: false, message: `${fileName} holds no JSON object. A scenario is one object; see the Sweep screen.` };
   }
   fillDefaults(SCENARIO_SCHEMA as Schema, value);
+  if (hasMaterialTemplates(value)) {
+    // As in the checker: expand, then fill the plain materials' defaults the templated ones lacked.
+    const expanded = expandMaterialTemplates(value);
+    if (expanded.length > 0) return { ok: false, message: `${fileName} ${expanded[0].pointer}: ${expanded[0].message}. Fix it on the Sweep screen.` };
+    fillDefaults(SCENARIO_SCHEMA as Schema, value);
+  }
   const scenario = value as Scenario;
   // The shell's check drew the same maps without problems; a problem here means it was skipped.
   const drawn = drawTextMaps(scenario);

@@ -7,6 +7,7 @@ import { findSchemaProblems } from './schema-problems.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
 import { drawTextMaps } from './draw-text-maps.ts';
+import { expandMaterialTemplates, hasMaterialTemplates } from './material-templates.ts';
 
 export type ScenarioCheck = { ok: true; scenario: Scenario } | { ok: false; problems: ScenarioProblem[] };
 
@@ -26,6 +27,13 @@ export function checkScenarioValue(value: unknown): ScenarioCheck {
   const copy = copyJson(value);
   const schemaProblems = findSchemaProblems(copy);
   if (schemaProblems.length > 0) return { ok: false, problems: schemaProblems };
+  if (hasMaterialTemplates(copy)) {
+    const expanded = expandMaterialTemplates(copy);
+    if (expanded.length > 0) return { ok: false, problems: expanded };
+    // Once more over the plain materials: fills the defaults a templated material had none of.
+    const again = findSchemaProblems(copy);
+    if (again.length > 0) return { ok: false, problems: again };
+  }
   const scenario = copy as Scenario;
   const drawn = drawTextMaps(scenario);
   if (drawn.length > 0) return { ok: false, problems: drawn };

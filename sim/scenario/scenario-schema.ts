@@ -179,10 +179,13 @@ const shapeSchema: JsonSchema = {
   ),
 };
 
-const materialSchema = closed(
-  'A cell material. Stiffness comes from the Young\'s modulus by energy equivalence of the cell\'s springs (Poisson\'s ratio 1/4 in 3-D, 1/3 in 2-D).',
-  {
-    name: { type: 'string', minLength: 1, maxLength: 64, description: 'Name shown in labels and channel descriptions.' },
+const MATERIAL_NAME: JsonSchema = { type: 'string', minLength: 1, maxLength: 64, description: 'Name shown in labels and channel descriptions.' };
+const TEMPLATE_NAME_PATTERN = '^[A-Za-z][A-Za-z0-9_-]{0,31}$';
+
+// The members a material and a template share. Defaults are filled only into plain materials:
+// a default filled into a templated material would override the template's own value.
+function materialMembers(withDefaults: boolean): Record<string, JsonSchema> {
+  const members: Record<string, JsonSchema> = {
     youngsModulusPa: valueSpecSchema('Young\'s modulus, Pa.', { exclusiveMinimum: 0 }),
     densityKgPerM3: valueSpecSchema('Density, kg/m³ (2-D cells are one cell size thick).', { exclusiveMinimum: 0 }),
     dampingRatio: valueSpecSchema('Damping ratio of the cell\'s springs, dimensionless.', { minimum: 0 }),
@@ -194,9 +197,46 @@ const materialSchema = closed(
       description: 'Control channel that actuates cells of this material, or null for a passive material.',
     },
     actuationStrainMax: valueSpecSchema('Largest relative change of rest length at a command of ±1, dimensionless.', { minimum: 0, maximum: 0.5, default: 0 }),
-  },
+  };
+  if (!withDefaults) {
+    for (const member of Object.values(members)) delete member.default;
+  }
+  return members;
+}
+
+const MATERIAL_DESCRIPTION = 'A cell material. Stiffness comes from the Young\'s modulus by energy equivalence of the cell\'s springs (Poisson\'s ratio 1/4 in 3-D, 1/3 in 2-D).';
+
+const plainMaterialSchema = closed(
+  MATERIAL_DESCRIPTION,
+  { name: MATERIAL_NAME, ...materialMembers(true) },
   ['name', 'youngsModulusPa', 'densityKgPerM3', 'dampingRatio'],
 );
+
+const templatedMaterialSchema = closed(
+  `${MATERIAL_DESCRIPTION} This one starts from a template of /system/materialTemplates; the members given here replace the template's.`,
+  {
+    name: MATERIAL_NAME,
+    template: { type: 'string', pattern: TEMPLATE_NAME_PATTERN, description: 'Name of the template in /system/materialTemplates this material starts from.' },
+    ...materialMembers(false),
+  },
+  ['name', 'template'],
+);
+
+const materialSchema: JsonSchema = {
+  type: 'object',
+  description: `${MATERIAL_DESCRIPTION} Give "template" to start from a shared template and override only what differs.`,
+  if: { properties: { template: {} }, required: ['template'] },
+  then: templatedMaterialSchema,
+  else: plainMaterialSchema,
+};
+
+const materialTemplatesSchema: JsonSchema = {
+  type: 'object',
+  description: 'Shared material members, by template name: a material {"name": ..., "template": "<name>", ...} takes every member of its template and replaces those it gives itself. Expanded into plain materials when the scenario is checked, so samples and the seed file show full materials.',
+  propertyNames: { pattern: TEMPLATE_NAME_PATTERN },
+  maxProperties: 64,
+  additionalProperties: closed('A material template: any members of a material except its name.', materialMembers(false), []),
+};
 
 const latticeClampSchema = closed(
   'A group of lattice nodes held in place, or moved by control channels along drivenAxes (a shaking table). Give exactly one of face, cells and boxM.',
@@ -224,7 +264,8 @@ const latticeSchema = closed(
     kind: { const: 'lattice' },
     cellSizeM: valueSpecSchema('Edge length of one cell, m.', { exclusiveMinimum: 0 }),
     shape: shapeSchema,
-    materials: { type: 'array', minItems: 1, maxItems: 64, items: materialSchema, description: 'Materials, referred to by position (1 is the first).' },
+    materials: { type: 'array', minItems: 1, maxItems: 64, items: materialSchema, description: 'Materials, referred to by position (1 is the first); each one plain or started from a template of materialTemplates.' },
+    materialTemplates: materialTemplatesSchema,
     base: { type: 'string', enum: ['clamped', 'free'], default: 'free', description: 'clamped: the bottom nodes of the lowest layer are pinned; free: nothing is pinned.' },
     originM: vector3('Position of the grid\'s minimum corner, m.', {}, [0, 0, 0]),
     clamps: { type: 'array', items: latticeClampSchema, default: [], description: 'Further node groups held in place or driven: faces, cells or boxes.' },
