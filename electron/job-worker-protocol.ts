@@ -4,6 +4,7 @@
 // The dataset pipeline provides the worker entry; this file is all it needs to know about us.
 // Imports nothing at run time so a worker bundle stays free of the shell's code.
 import type { ExportFormat, JobKind, PictureOutput, PictureView } from './bridge-contract.ts';
+import type { JobMessage } from '../sim/dataset/job-message.ts';
 
 export interface ExportJobSpec {
   kind: 'export';
@@ -70,10 +71,6 @@ export type ToJobWorker = { type: 'cancel' };
  * difference is 'failed', naming the files). It may carry a `message` for the person; without one
  * the runner says what 'done' means for the job's kind.
  */
-export type FromJobWorker =
-  | { type: 'progress'; done: number; total: number }
-  | { type: 'done'; done: number; total: number; message?: string }
-  | { type: 'cancelled'; done: number; total: number }
-  | { type: 'failed'; message: string };
+export type FromJobWorker = JobMessage;
 
 export type { JobKind };

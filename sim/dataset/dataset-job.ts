@@ -14,16 +14,13 @@ import { generateDataset } from './generate-dataset.ts';
 import type { GenerationEvent } from './generation-progress.ts';
 import { replayFilesOf } from './replay-inputs.ts';
 import { reproduceDataset, seedEditedWords } from './reproduce-dataset.ts';
+import type { JobMessage } from './job-message.ts';
 
 export type DatasetJob =
   | { kind: 'export'; scenarioText: string; outDir: string; format: 'npz' | 'hdf5' | 'both'; workers: number; resume: boolean }
   | { kind: 'reproduce'; seedPath: string; outDir: string };
 
-export type DatasetJobMessage =
-  | { type: 'progress'; done: number; total: number }
-  | { type: 'done'; done: number; total: number }
-  | { type: 'cancelled'; done: number; total: number }
-  | { type: 'failed'; message: string };
+export type DatasetJobMessage = JobMessage;
 
 /** Progress more often than this only loads the shell's message queue. */
 const PROGRESS_INTERVAL_MS = 250;

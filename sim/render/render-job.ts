@@ -12,6 +12,7 @@ import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
 import { DatasetWriteError, toDatasetWriteError } from '../dataset/dataset-write-error.ts';
 import type { PictureView } from './episode-picture.ts';
 import { MissingPictureArrayError, renderEpisode, renderedGif, renderedPngs } from './render-episode.ts';
+import type { JobMessage } from '../dataset/job-message.ts';
 
 export interface RenderJob {
   kind: 'render';
@@ -29,11 +30,7 @@ export interface RenderJob {
   speed: number;
 }
 
-export type RenderJobMessage =
-  | { type: 'progress'; done: number; total: number }
-  | { type: 'done'; done: number; total: number; message?: string }
-  | { type: 'cancelled'; done: number; total: number }
-  | { type: 'failed'; message: string };
+export type RenderJobMessage = JobMessage;
 
 class RenderCancelled extends Error {}
 

@@ -9,6 +9,7 @@ import { DatasetWriteError } from '../../dataset/dataset-write-error.ts';
 import { PredictionsError } from '../predictions/predictions-error.ts';
 import { writeScore } from './score-outputs.ts';
 import { DEFAULT_VPT_THRESHOLD, scorePredictions } from './score-predictions.ts';
+import type { JobMessage } from '../../dataset/job-message.ts';
 
 export interface ScoreJob {
   kind: 'score';
@@ -19,11 +20,7 @@ export interface ScoreJob {
   allowMissing: boolean;
 }
 
-export type ScoreJobMessage =
-  | { type: 'progress'; done: number; total: number }
-  | { type: 'done'; done: number; total: number; message?: string }
-  | { type: 'cancelled'; done: number; total: number }
-  | { type: 'failed'; message: string };
+export type ScoreJobMessage = JobMessage;
 
 class ScoreCancelled extends Error {}
 
