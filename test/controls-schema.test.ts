@@ -9,6 +9,7 @@ import { CONTROL_KINDS } from '../sim/controls/control-spec.ts';
 import { findControlSpecProblems } from '../sim/controls/control-spec-problems.ts';
 import { controlSpecSchema, controlSpecSchemaFor } from '../sim/controls/control-spec-schema.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
+import { VALUE_SPEC_DEFINITIONS } from '../sim/random/value-spec-schema.ts';
 
 const EXAMPLES: ControlSpec[] = [
   { kind: 'none' },
@@ -23,8 +24,9 @@ const EXAMPLES: ControlSpec[] = [
   { kind: 'replay', file: 'korrin-bay/tether-pull.npy', column: 0 },
 ];
 
+/** Compiled with the shared value-spec definitions its numbers refer to, as the scenario schema holds them. */
 function compile(schema: object) {
-  return new Ajv2020({ strict: true, allErrors: true }).compile(schema);
+  return new Ajv2020({ strict: true, allErrors: true }).compile({ ...schema, $defs: VALUE_SPEC_DEFINITIONS });
 }
 
 describe('controlSpecSchema under Ajv 2020-12 strict mode', () => {

@@ -1,10 +1,11 @@
 // The value spec JSON Schema fragment, compiled by Ajv's draft 2020-12 implementation in strict
 // mode (which also checks it against the 2020-12 meta-schema), and compared with the spec
 // checker on the same documents so the schema and the sampler accept the same shapes.
+// The standalone form carries its shared definition under $defs, as the scenario schema does.
 import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
 import { findValueSpecProblems } from '../sim/random/value-spec-problems.ts';
-import { valueSpecSchema } from '../sim/random/value-spec-schema.ts';
+import { standaloneValueSpecSchema as valueSpecSchema } from '../sim/random/value-spec-schema.ts';
 
 function compile(schema: object) {
   const ajv = new Ajv2020({ strict: true, allErrors: true });

@@ -4,7 +4,7 @@
 // on its own (ranges against ranges, stability, sizes) is in physical-checks.ts.
 import { controlSpecSchema } from '../controls/control-spec-schema.ts';
 import type { JsonSchema } from '../random/value-spec-schema.ts';
-import { valueSpecSchema } from '../random/value-spec-schema.ts';
+import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
@@ -569,5 +569,6 @@ export const SCENARIO_SCHEMA: JsonSchema = {
   },
   required: ['formatVersion', 'name', 'system', 'time', 'episodes', 'seed'],
   additionalProperties: false,
-  $defs: { controlSpec: controlSpecSchema },
+  // Last, so that every valueSpecSchema above has put its definition in by now.
+  $defs: { controlSpec: controlSpecSchema, ...VALUE_SPEC_DEFINITIONS },
 };

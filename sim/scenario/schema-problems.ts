@@ -19,7 +19,10 @@ function validator(): ValidateFunction {
     // allowUnionTypes: some values are "a whole number or a string"; strictTypes would refuse
     // them. optimize: false halves the cold compile of this large schema (1.1 s instead of
     // 2.1 s on the 2-core reference machine) for a validation that runs once per file.
-    const ajv = new Ajv2020({ allErrors: true, useDefaults: true, strict: true, allowUnionTypes: true, code: { optimize: false } });
+    // inlineRefs: false keeps each shared $defs entry one function instead of a copy per use
+    // (the point of sharing them); verbose gives each error its schema node, which is how
+    // absoluteSchemaPath tells which definition an error's relative path lies in.
+    const ajv = new Ajv2020({ allErrors: true, useDefaults: true, strict: true, allowUnionTypes: true, inlineRefs: false, verbose: true, code: { optimize: false } });
     compiled = ajv.compile(SCENARIO_SCHEMA);
   }
   return compiled;
@@ -29,7 +32,29 @@ function validator(): ValidateFunction {
 export function findSchemaProblems(value: unknown): ScenarioProblem[] {
   const validate = validator();
   if (validate(value)) return [];
-  return describeErrors(validate.errors ?? [], value);
+  return describeErrors((validate.errors ?? []).map(withAbsoluteSchemaPath), value);
+}
+
+function nodeAt(root: unknown, segments: readonly string[]): unknown {
+  let node = root;
+  for (const segment of segments) node = node !== null && typeof node === 'object' ? (node as Record<string, unknown>)[segment] : undefined;
+  return node;
+}
+
+/**
+ * ajv writes the schema path of an error inside a separately compiled $defs entry relative to
+ * that entry ("#/else/type"). This finds the entry whose node at that path is the error's own
+ * schema node and prefixes its place, so the path reads from the schema's root as elsewhere.
+ */
+function withAbsoluteSchemaPath(error: ErrorObject): ErrorObject {
+  const segments = pointerSegments(error.schemaPath.replace(/^#/, ''));
+  const holder = segments.slice(0, -1);
+  if (nodeAt(SCENARIO_SCHEMA, holder) === error.parentSchema) return error;
+  const definitions = (SCENARIO_SCHEMA.$defs ?? {}) as Record<string, unknown>;
+  for (const [name, definition] of Object.entries(definitions)) {
+    if (nodeAt(definition, holder) === error.parentSchema) return { ...error, schemaPath: `#/$defs/${name}${error.schemaPath.slice(1)}` };
+  }
+  return error;
 }
 
 // Keywords that change which part of the instance a subschema applies to.
