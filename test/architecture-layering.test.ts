@@ -19,11 +19,11 @@ const ALLOWED: Record<string, string[]> = {
   'sim/design': ['sim/random'],
   'sim/episode': ['sim/core', 'sim/systems'],
   'sim/scenario': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design'],
-  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/plots', 'sim/cli/version.ts'],
+  'sim/dataset': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/plots'],
   // Pictures of recorded episodes, drawn from the files.
   'sim/render': ['sim/core', 'sim/systems', 'sim/dataset'],
   // Scoring, baselines and calibration sit after the files: they read datasets, never the CLI.
-  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/dataset', 'sim/plots', 'sim/cli/version.ts'],
+  'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/dataset', 'sim/plots'],
 };
 const ENVIRONMENT_FREE = ['sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
 

@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
 import { closestName } from '../sim/cli/closest-name.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 
 async function cli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   let stdout = '';
@@ -26,6 +27,14 @@ describe('pliant with no command or a mistyped one', () => {
     const run = await cli(['--help']);
     expect(run.code).toBe(0);
     expect(run.stdout).toContain('Usage: pliant <command> [options]');
+  });
+
+  it('--help carries the one safety caution word for word (project rule), its lines wrapped to 78 columns', async () => {
+    const run = await cli(['--help']);
+    expect(run.stdout.replace(/\s+/g, ' ')).toContain(SAFETY_CAUTION);
+    const cautionLines = run.stdout.slice(run.stdout.indexOf(SAFETY_CAUTION.split(' ')[0])).trim().split('\n');
+    expect(cautionLines.length).toBeGreaterThan(1);
+    for (const line of cautionLines) expect(line.length).toBeLessThanOrEqual(78);
   });
 
   it('a mistyped command: exit 2 and the nearest command offered', async () => {

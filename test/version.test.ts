@@ -2,10 +2,10 @@
 // (project rule: a dataset names the Pliant that made it).
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { PLIANT_VERSION } from '../sim/cli/version.ts';
+import { PLIANT_VERSION } from '../sim/scenario/pliant-version.ts';
 
 describe('Pliant version', () => {
-  it('sim/cli/version.ts agrees with package.json', () => {
+  it('sim/scenario/pliant-version.ts agrees with package.json', () => {
     const pkg = JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string };
     expect(PLIANT_VERSION).toBe(pkg.version);
   });

@@ -17,7 +17,7 @@ import { join } from 'node:path';
 import { generateDataset } from '../dataset/generate-dataset.ts';
 import { loadHdf5Library } from '../dataset/hdf5-runtime.ts';
 import { withOverrides } from '../scenario/scenario-overrides.ts';
-import { PLIANT_VERSION } from '../cli/version.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { DEMO_SCENARIO_NAMES, demoScenarioFolder, loadDemoScenario } from './demo-scenario.ts';
 import type { DemoScenarioName } from './demo-scenario.ts';

@@ -12,7 +12,7 @@ import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
-import { PLIANT_VERSION } from './version.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { generateDataset } from '../dataset/generate-dataset.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 

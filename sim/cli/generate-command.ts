@@ -10,7 +10,7 @@ import { overrideOptions, progressOption, shardOption, workersOption } from './g
 import { ProgressDisplay } from './progress-display.ts';
 import type { ProgressMode } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { PLIANT_VERSION } from './version.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { generateDataset } from '../dataset/generate-dataset.ts';
 import type { GenerateResult } from '../dataset/generate-dataset.ts';
 import { SHARD_COUNT_VARIABLE } from '../dataset/shard-plan.ts';

@@ -3,8 +3,9 @@
 import { COMMANDS } from './commands.ts';
 import { CliUsageError } from './command.ts';
 import type { CliIo } from './command.ts';
-import { PLIANT_VERSION } from './version.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { didYouMean } from './closest-name.ts';
+import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 
 export function defaultIo(): CliIo {
   return {
@@ -14,6 +15,25 @@ export function defaultIo(): CliIo {
     env: process.env,
     cwd: process.cwd(),
   };
+}
+
+/** Columns of the help text, so it reads in an 80-column terminal (common practice, no source). */
+const HELP_WIDTH = 78;
+
+/** Breaks `text` between words into lines of at most `width` characters. */
+function wrapWords(text: string, width: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    if (line !== '' && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = word;
+    } else {
+      line = line === '' ? word : `${line} ${word}`;
+    }
+  }
+  if (line !== '') lines.push(line);
+  return lines;
 }
 
 export function helpText(): string {
@@ -29,8 +49,7 @@ export function helpText(): string {
     '',
     'Run `pliant <command> --help` for the options of one command.',
     '',
-    'Simulated data does not replace hardware testing: bring controllers trained on it up on',
-    'hardware with conservative limits and under your lab\'s own safety rules.',
+    ...wrapWords(SAFETY_CAUTION, HELP_WIDTH),
     '',
   ].join('\n');
 }

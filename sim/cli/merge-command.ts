@@ -6,7 +6,7 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { PLIANT_VERSION } from './version.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { mergeShards } from '../dataset/merge-shards.ts';
 
 export const mergeCommand: CliCommand = {

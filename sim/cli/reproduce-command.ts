@@ -8,7 +8,7 @@ import { withCliFailures } from './dataset-failure.ts';
 import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
-import { PLIANT_VERSION } from './version.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { reproduceDataset, seedEditedWords } from '../dataset/reproduce-dataset.ts';
 
 export const reproduceCommand: CliCommand = {

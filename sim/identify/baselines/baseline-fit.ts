@@ -1,7 +1,7 @@
 // `pliant baseline fit` without the command line: opens the dataset, loads the fit split and
 // fits the chosen baseline into a model document (persistence and constant velocity have
 // nothing to fit; their file only records the dataset they were chosen for).
-import { PLIANT_VERSION } from '../../cli/version.ts';
+import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
 import { BASELINE_MODEL_FORMAT, type BaselineModel, type BaselineModelName } from './baseline-model.ts';

@@ -2,7 +2,7 @@
 // recorded episodes of the chosen splits, then streams them one at a time (the episode's arrays
 // and its prediction are dropped after scoring) into per-split running sums, and assembles the
 // score document. Nothing is written here; see score-outputs.ts.
-import { PLIANT_VERSION } from '../../cli/version.ts';
+import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
 import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
 import { unitOfLabel } from '../../dataset/label-units.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
