@@ -81,7 +81,7 @@ describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
     expect(sourceFiles('sim/systems').length).toBeGreaterThan(3);
   });
 
-  it('renderer/ imports no Node-side code (sim/dataset, sim/cli, electron/ other than the bridge contract, node:*)', () => {
+  it('renderer/ imports no Node-side code (sim/dataset, sim/cli, electron/, node:*)', () => {
     const violations: string[] = [];
     for (const file of sourceFiles('renderer')) {
       if (file.endsWith('vite.config.ts')) continue;
@@ -90,7 +90,7 @@ describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
         if (spec.startsWith('.')) {
           const target = relative(ROOT, resolve(dirname(join(ROOT, file)), spec));
           if (target.startsWith('sim/dataset') || target.startsWith('sim/cli')) violations.push(`${file} imports ${target}`);
-          if (target.startsWith('electron/') && target !== 'electron/bridge-contract.ts') violations.push(`${file} imports ${target}`);
+          if (target.startsWith('electron/')) violations.push(`${file} imports ${target}`);
         }
       }
     }

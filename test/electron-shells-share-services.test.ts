@@ -24,7 +24,7 @@ describe('both shells use one set of services and handlers', () => {
       expect(count(text, /createDefaultServices\(/g)).toBe(1);
       expect(count(text, /createRequestHandlers\(/g)).toBe(1);
       expect(text).not.toMatch(/\bpipeline\s*:/);
-      expect(text).not.toMatch(/from '\.\.\/sim\//);
+      expect(text).not.toMatch(/from '\.\.\/sim\/(?!bridge\/)/);
     });
   }
 });
