@@ -5,7 +5,7 @@
 // Picks last for the session only; nothing is remembered between starts.
 import { realpath, stat } from 'node:fs/promises';
 import { basename, dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
-import type { FolderPurpose } from './bridge-contract.ts';
+import type { FolderPurpose } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 
 export type PathAccess = 'read' | 'write';

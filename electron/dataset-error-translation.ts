@@ -6,7 +6,7 @@ import { DatasetNotFoundError } from '../sim/dataset/dataset-not-found-error.ts'
 import { DatasetReadError } from '../sim/dataset/dataset-read-error.ts';
 import { DatasetRequestError } from '../sim/dataset/dataset-request-error.ts';
 import { UnknownSortKeyError } from '../sim/dataset/episode-listing.ts';
-import type { RequestErrorCode } from './bridge-contract.ts';
+import type { RequestErrorCode } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 
 /** Error class names as they survive a worker thread's postMessage, where only the name and message cross. */

@@ -1,6 +1,6 @@
 // An episode array as the contract carries it: dtype, shape and unit with the element bytes in
 // base64 (RFC 4648 section 4), little-endian and C order whatever machine the shell runs on.
-import type { ArrayDtype, EncodedArray } from './bridge-contract.ts';
+import type { ArrayDtype, EncodedArray } from '../sim/bridge/bridge-contract.ts';
 
 export interface ArrayForEncoding {
   name: string;

@@ -2,7 +2,7 @@
 // for. Whatever the person picks here is what the allowed-folder list then lets requests touch;
 // the dialog function is injected so this runs without Electron.
 import type { OpenDialogOptions, OpenDialogReturnValue } from 'electron';
-import type { FolderPurpose } from './bridge-contract.ts';
+import type { FolderPurpose } from '../sim/bridge/bridge-contract.ts';
 import type { FolderChooser } from './request-services.ts';
 
 const WORDING: Readonly<Record<FolderPurpose, { title: string; buttonLabel: string; message: string }>> = {

@@ -1,7 +1,7 @@
 // Connects the request registry to Electron IPC without importing Electron: one listener for the
 // single request channel, which refuses any sender that is not our own page before the
 // registry sees the message, and one forwarder that sends registry events to the window.
-import type { BridgeEvent, RequestName, RequestReply } from './bridge-contract.ts';
+import type { BridgeEvent, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
 import type { RequestHandlers } from './request-handlers.ts';
 import { isTrustedSenderFrame } from './sender-frame-check.ts';
 import type { SenderFrame } from './sender-frame-check.ts';

@@ -8,7 +8,7 @@ import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session } from 'el
 import { appMenuTemplate } from './app-menu.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
 import { APP_ENTRY_URL, APP_SCHEME, APP_SCHEME_REGISTRATION, isAppUrl } from './app-scheme.ts';
-import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL } from './bridge-contract.ts';
+import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL } from '../sim/bridge/bridge-contract.ts';
 import { SAFETY_NOTICE } from './safety-notice.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createNativeFolderChooser } from './folder-dialog.ts';

@@ -5,7 +5,7 @@
 import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/app-worker-urls.ts';
 import { SCORE_JOB_WORKER_URL } from '../sim/identify/score/score-worker-url.ts';
 import { RENDER_JOB_WORKER_URL } from '../sim/render/render-worker-url.ts';
-import type { JobKind } from './bridge-contract.ts';
+import type { JobKind } from '../sim/bridge/bridge-contract.ts';
 import type { DatasetReader, IdentificationReader, ScenarioChecker, SeedReader } from './request-services.ts';
 import { SIM_IDENTIFICATION_READER } from './sim-identification-reader.ts';
 import { createSimDatasetReader } from './sim-dataset-reader.ts';

@@ -3,8 +3,8 @@
 // it. Schemas live in the bridge contract so the renderer can read the same rules.
 import Ajv2020 from 'ajv/dist/2020.js';
 import type { ErrorObject, ValidateFunction } from 'ajv';
-import { REQUEST_ARGUMENT_SCHEMAS, REQUEST_NAMES } from './bridge-contract.ts';
-import type { JsonSchema, RequestArgs, RequestName } from './bridge-contract.ts';
+import { REQUEST_ARGUMENT_SCHEMAS, REQUEST_NAMES } from '../sim/bridge/bridge-contract.ts';
+import type { JsonSchema, RequestArgs, RequestName } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 
 /** Keys that would reach an object's prototype machinery if a handler ever spread or merged args. */

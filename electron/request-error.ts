@@ -1,7 +1,7 @@
 // The one error type request handlers throw on purpose. It carries a contract error code and a
 // message written for the person using the app; anything else that escapes a handler is turned
 // into one of these at the registry boundary so no stack trace ever reaches the renderer.
-import type { RequestErrorCode, RequestErrorInfo } from './bridge-contract.ts';
+import type { RequestErrorCode, RequestErrorInfo } from '../sim/bridge/bridge-contract.ts';
 
 export class RequestError extends Error {
   readonly code: RequestErrorCode;

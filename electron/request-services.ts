@@ -15,7 +15,7 @@ import type {
   ScoreReport,
   SeedSummary,
   VerifyReport,
-} from './bridge-contract.ts';
+} from '../sim/bridge/bridge-contract.ts';
 import type { AllowedFolders } from './allowed-folders.ts';
 import type { JobSpec } from './job-worker-protocol.ts';
 

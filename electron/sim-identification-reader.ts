@@ -9,7 +9,7 @@ import { decodeNpz } from '../sim/dataset/npz.ts';
 import { scoreProblems } from '../sim/identify/score/score-check.ts';
 import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
 import { shown } from './allowed-folders.ts';
-import type { CalibrationReport, ScoreDocumentView } from './bridge-contract.ts';
+import type { CalibrationReport, ScoreDocumentView } from '../sim/bridge/bridge-contract.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
 import { encodeArray } from './encoded-array.ts';
 import { RequestError } from './request-error.ts';

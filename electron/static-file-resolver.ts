@@ -31,6 +31,7 @@ export async function resolveStaticFile(rootReal: string, rawPath: string): Prom
     if (segment === '' || segment === '.' || segment === '..') {
       return { ok: false, status: 400, reason: 'The path has an empty, "." or ".." part.' };
     }
+    // eslint-disable-next-line no-control-regex -- NUL in a path part is refused on purpose.
     if (/[\\/\u0000]/.test(segment)) {
       return { ok: false, status: 400, reason: 'A part of the path holds a slash, backslash or NUL.' };
     }

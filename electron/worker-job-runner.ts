@@ -3,7 +3,7 @@
 // worker's episode counts as job.progress events, deriving the rate and the time left itself.
 import { randomUUID } from 'node:crypto';
 import { Worker } from 'node:worker_threads';
-import type { JobKind, JobProgress, JobState } from './bridge-contract.ts';
+import type { JobKind, JobProgress, JobState } from '../sim/bridge/bridge-contract.ts';
 import type { FromJobWorker, JobSpec, JobWorkerData, ToJobWorker } from './job-worker-protocol.ts';
 import { RequestError } from './request-error.ts';
 import type { JobRunner } from './request-services.ts';

@@ -3,7 +3,7 @@
 // do, never as a blank window.
 import './pliant.css';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
-import type { AppInfo } from '../electron/bridge-contract.ts';
+import type { AppInfo } from '../sim/bridge/bridge-contract.ts';
 import { connectBridge } from './bridge/connect-bridge.ts';
 import type { PliantBridge } from './bridge/pliant-bridge.ts';
 import { AppShell } from './app/app-shell.ts';

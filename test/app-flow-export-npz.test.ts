@@ -10,7 +10,7 @@ import { cpSync, mkdtempSync, readFileSync, realpathSync, rmSync, symlinkSync, w
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { EpisodeRow, JobProgress } from '../electron/bridge-contract.ts';
+import type { EpisodeRow, JobProgress } from '../sim/bridge/bridge-contract.ts';
 import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import type { AppSession } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';

@@ -41,8 +41,8 @@ const SCENARIO = {
 };
 
 const quiet = { stdout: () => {}, stderr: (t: string) => process.stderr.write(t), isTerminal: false, env: {}, cwd: work };
-let train: EpisodeTrajectory[] = [];
-let held: EpisodeTrajectory[] = [];
+const train: EpisodeTrajectory[] = [];
+const held: EpisodeTrajectory[] = [];
 const layout: LinearLayout = { nodeCount: 5, channelCount: 1, delays: 0, affine: true, stateForm: 'relative' };
 
 beforeAll(async () => {

@@ -17,7 +17,7 @@
 // The thresholds are fixed before looking; the draws are fixed by the seed, so a pass is stable.
 import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, relative, resolve } from 'node:path';
+import { join, relative } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
@@ -31,7 +31,6 @@ import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
 import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
-const ROOT = resolve(import.meta.dirname, '..');
 const python = referencePythonAvailability();
 const work = mkdtempSync(join(tmpdir(), 'pliant-observe-'));
 
@@ -108,12 +107,11 @@ async function cli(args: string[]): Promise<{ code: number; stdout: string; stde
 }
 
 let noisy: DatasetManifest;
-let exact: DatasetManifest;
 let plain: DatasetManifest;
 
 beforeAll(async () => {
   noisy = await generate(checked(tetherScenario({ observation: NOISY })), noisyDir);
-  exact = await generate(checked(tetherScenario({ observation: EXACT }, 'float32')), exactDir);
+  await generate(checked(tetherScenario({ observation: EXACT }, 'float32')), exactDir);
   plain = await generate(checked(tetherScenario({})), plainDir);
 });
 

@@ -17,7 +17,6 @@ import { REFERENCE_PYTHON, referencePythonAvailability } from './support/referen
 const python = referencePythonAvailability();
 const work = mkdtempSync(join(tmpdir(), 'pliant-rejected-'));
 const scenarioPath = join(work, 'pulled-tether.json');
-const FORCE_LABEL = '/controls/force-tip-y/value';
 
 const scenario = {
   formatVersion: 1,

@@ -8,7 +8,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { EncodedArray, EpisodeArrays } from '../electron/bridge-contract.ts';
+import type { EncodedArray, EpisodeArrays } from '../sim/bridge/bridge-contract.ts';
 import { playableEpisode } from '../renderer/datasets/episode-playback.ts';
 import { surfaceQuads } from '../renderer/view/body-topology.ts';
 import { REPO_ROOT, SCENARIOS_DIR } from './support/e2e-web-app.ts';

@@ -7,7 +7,7 @@ import { mkdtempSync, realpathSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ArrayDtype, BridgeEvent, PreloadBridgeApi, RequestName, RequestReply } from '../electron/bridge-contract.ts';
+import type { ArrayDtype, BridgeEvent, PreloadBridgeApi, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createNativeFolderChooser } from '../electron/folder-dialog.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';

@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { JobProgress } from '../electron/bridge-contract.ts';
+import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
 import type { JobSpec, JobWorkerData } from '../electron/job-worker-protocol.ts';
 import { RequestError } from '../electron/request-error.ts';
 import { createWorkerJobRunner } from '../electron/worker-job-runner.ts';

@@ -8,8 +8,8 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSyn
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { BRIDGE_LIMITS } from '../electron/bridge-contract.ts';
-import type { RequestErrorInfo, RequestName, RequestReply } from '../electron/bridge-contract.ts';
+import { BRIDGE_LIMITS } from '../sim/bridge/bridge-contract.ts';
+import type { RequestErrorInfo, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createNativeFolderChooser } from '../electron/folder-dialog.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';

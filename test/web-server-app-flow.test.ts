@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { EventSource } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BridgeEvent, JobProgress } from '../electron/bridge-contract.ts';
+import type { BridgeEvent, JobProgress } from '../sim/bridge/bridge-contract.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import { startWebServer } from '../electron/web-server.ts';

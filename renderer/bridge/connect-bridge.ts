@@ -1,7 +1,7 @@
 // Picks the bridge for wherever the page is running: the preload's window.pliantBridge inside
 // the desktop app, otherwise the web-mode server named by the page's own address.
-import { PRELOAD_GLOBAL_NAME } from '../../electron/bridge-contract.ts';
-import type { PreloadBridgeApi } from '../../electron/bridge-contract.ts';
+import { PRELOAD_GLOBAL_NAME } from '../../sim/bridge/bridge-contract.ts';
+import type { PreloadBridgeApi } from '../../sim/bridge/bridge-contract.ts';
 import { createElectronBridge } from './electron-bridge.ts';
 import type { PliantBridge } from './pliant-bridge.ts';
 import { createWebBridge, readSessionToken } from './web-bridge.ts';

@@ -1,6 +1,6 @@
 // Turns an EncodedArray from dataset.episodeArrays (base64 of little-endian, C-order bytes) into
 // a typed array the viewer can use directly, without copying element by element.
-import type { ArrayDtype, EncodedArray } from '../../electron/bridge-contract.ts';
+import type { ArrayDtype, EncodedArray } from '../../sim/bridge/bridge-contract.ts';
 
 export type DecodedArray = Float64Array | Float32Array | Int32Array | Uint32Array | Int16Array | Uint16Array | Int8Array | Uint8Array;
 

@@ -1,6 +1,6 @@
 // The bridge inside the desktop app: forwards to the two functions the preload script exposes as
 // window.pliantBridge (see electron/preload.ts), which carry requests over our one IPC channel.
-import type { PreloadBridgeApi } from '../../electron/bridge-contract.ts';
+import type { PreloadBridgeApi } from '../../sim/bridge/bridge-contract.ts';
 import { BridgeRequestError } from './bridge-request-error.ts';
 import type { PliantBridge } from './pliant-bridge.ts';
 import { unwrapReply } from './unwrap-reply.ts';

@@ -1,6 +1,6 @@
 // Turns a shell's reply envelope into the request's result, or a BridgeRequestError. The
 // envelope crosses a process boundary, so its shape is checked rather than trusted.
-import type { RequestErrorCode, RequestName, RequestResult } from '../../electron/bridge-contract.ts';
+import type { RequestErrorCode, RequestName, RequestResult } from '../../sim/bridge/bridge-contract.ts';
 import { BridgeRequestError } from './bridge-request-error.ts';
 
 export function unwrapReply<K extends RequestName>(name: K, reply: unknown): RequestResult<K> {

@@ -2,7 +2,7 @@
 // its episodes, play any episode back in the 3-D view from its own files, verify its checksums,
 // open its seed file to preview or regenerate episodes, and save the episode playing as a GIF or
 // PNG frames.
-import type { ControlChannelDescription, DatasetSummary, EpisodeRow } from '../../electron/bridge-contract.ts';
+import type { ControlChannelDescription, DatasetSummary, EpisodeRow } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { TrajectoryPlots } from '../plots/trajectory-plots.ts';
 import { byteSize } from '../ui/byte-size.ts';

@@ -2,7 +2,7 @@
 // folder of numbered PNG frames, drawn from the episode's own files by a render job (the same
 // pictures `pliant render` draws). The person picks the folder, names the result, and follows
 // the job's progress; at the end the line says where the pictures went and how large they are.
-import type { JobProgress, PictureOutput, PictureView } from '../../electron/bridge-contract.ts';
+import type { JobProgress, PictureOutput, PictureView } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { JobProgressView } from '../export/job-progress-view.ts';
 import { button, h, labelled, select } from '../ui/element.ts';

@@ -2,7 +2,7 @@
 // topology from the graph arrays (edges, rest lengths, node features, cells) and the frames from
 // positions, time, energies and controls. Array names and layouts are those of the dataset's
 // episode catalogue (sim/dataset/episode-array-catalogue.ts).
-import type { EpisodeArrays } from '../../electron/bridge-contract.ts';
+import type { EpisodeArrays } from '../../sim/bridge/bridge-contract.ts';
 import { decodeArray } from '../bridge/decode-array.ts';
 import type { DecodedArray } from '../bridge/decode-array.ts';
 import { NODE_FEATURE_NAMES } from '../../sim/systems/graph-labels.ts';

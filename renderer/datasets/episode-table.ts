@@ -2,7 +2,7 @@
 // any column, filterable by split and by text, so a dataset of a million episodes lists as fast
 // as one of ten. Rows show the split, the status (written, or rejected as unstable) and the
 // sampled parameters.
-import type { DatasetSplit, EpisodePage, EpisodeQuery, EpisodeRow } from '../../electron/bridge-contract.ts';
+import type { DatasetSplit, EpisodePage, EpisodeQuery, EpisodeRow } from '../../sim/bridge/bridge-contract.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
 import { unitFromKey } from '../sweep/unit-from-key.ts';
 

@@ -2,8 +2,8 @@
 // format and how many worker threads; follow the progress with the rate and the time left;
 // cancel at an episode boundary so a later run with "resume" finishes the same folder; and at the
 // end see the folder and the result of verifying every checksum.
-import type { AppInfo, ExportFormat, JobProgress } from '../../electron/bridge-contract.ts';
-import { BRIDGE_LIMITS } from '../../electron/bridge-contract.ts';
+import type { AppInfo, ExportFormat, JobProgress } from '../../sim/bridge/bridge-contract.ts';
+import { BRIDGE_LIMITS } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { SweepDocument } from '../app/sweep-document.ts';
 import { byteSize } from '../ui/byte-size.ts';

@@ -1,7 +1,7 @@
 // The progress of one long job (an export or a regeneration) as a bar and a line of words, fed by
 // the bridge's job.progress events. Events can arrive before the request that started the job
 // has answered with its id, so the latest event of every job is kept until the id is known.
-import type { JobProgress } from '../../electron/bridge-contract.ts';
+import type { JobProgress } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { h } from '../ui/element.ts';
 import { describeRate } from './progress-words.ts';

@@ -1,6 +1,6 @@
 // Job progress in words: how many episodes (a render job: pictures) are done, how fast, and about
 // how long is left.
-import type { JobProgress } from '../../electron/bridge-contract.ts';
+import type { JobProgress } from '../../sim/bridge/bridge-contract.ts';
 
 export function describeRate(p: JobProgress): string {
   const counted = p.kind === 'render' ? 'pictures' : 'episodes';

@@ -1,7 +1,7 @@
 // A calibration report in the app: the fitted parameters with their standard errors (and the
 // ones the measurement could not identify, said in words instead of a number), the residual
 // over the measurement's time, and the report text `pliant calibrate` wrote.
-import type { CalibrationReport } from '../../electron/bridge-contract.ts';
+import type { CalibrationReport } from '../../sim/bridge/bridge-contract.ts';
 import { TimeSeriesPlot } from '../plots/time-series-plot.ts';
 import { h } from '../ui/element.ts';
 import { shortNumber } from './score-tables.ts';

@@ -1,7 +1,7 @@
 // The scored episodes of a score report, worst first (largest mean normalised error), with the
 // split, the one-step error and the valid prediction time, and a Play button that shows the
 // prediction over the recording in the 3-D view. Long lists show the worst rows only, and say so.
-import type { ScoreDocumentView, ScoreEpisodeRow } from '../../electron/bridge-contract.ts';
+import type { ScoreDocumentView, ScoreEpisodeRow } from '../../sim/bridge/bridge-contract.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
 import { shortNumber } from './score-tables.ts';
 

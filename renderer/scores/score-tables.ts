@@ -2,7 +2,7 @@
 // split (and all episodes) with the one-step error, the error at each horizon, the valid
 // prediction time and the energy drift; and the generalisation gap of every held-out split
 // against the in-distribution test split, with the rule that defines the split.
-import type { ScoreDocumentView, ScoreGroupSummary, ScoreStatistics } from '../../electron/bridge-contract.ts';
+import type { ScoreDocumentView, ScoreGroupSummary, ScoreStatistics } from '../../sim/bridge/bridge-contract.ts';
 import { h } from '../ui/element.ts';
 
 /** Three significant digits, exponent form for very small or large values; "–" where none. */

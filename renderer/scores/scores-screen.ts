@@ -4,7 +4,7 @@
 // against the prediction horizon, the generalisation gap of each held-out split and the error
 // against each sampled parameter; play any episode with the prediction drawn over the
 // recording, coloured by its error. Calibration reports open here too.
-import type { DatasetSummary, JobProgress, ScoreDocumentView, ScoreEpisodeRow, ScoreReport } from '../../electron/bridge-contract.ts';
+import type { DatasetSummary, JobProgress, ScoreDocumentView, ScoreEpisodeRow, ScoreReport } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { decodeArray } from '../bridge/decode-array.ts';
 import { datasetScene, episodeWorld } from '../datasets/dataset-scene.ts';

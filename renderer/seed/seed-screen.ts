@@ -1,7 +1,7 @@
 // The Seed file screen: open a dataset's seed.json (the recipe that regenerates it bit for bit),
 // preview any of its episodes, and regenerate it into a new folder, comparing it file by file with
 // the original folder.
-import type { DatasetComparison, FileComparisonResult, JobProgress, SeedSummary } from '../../electron/bridge-contract.ts';
+import type { DatasetComparison, FileComparisonResult, JobProgress, SeedSummary } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { JobProgressView } from '../export/job-progress-view.ts';
 import { button, h, labelled } from '../ui/element.ts';

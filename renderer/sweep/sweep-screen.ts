@@ -2,7 +2,7 @@
 // schema or as raw JSON, see every problem at its field in the words `pliant validate` uses, and
 // save it. Edits in either view go through the shared SweepDocument, so the other screens always
 // work on what is shown here.
-import type { ExampleScenario } from '../../electron/bridge-contract.ts';
+import type { ExampleScenario } from '../../sim/bridge/bridge-contract.ts';
 import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
 import { formatProblems } from '../../sim/scenario/scenario-problem.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';

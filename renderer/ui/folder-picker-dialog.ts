@@ -1,7 +1,7 @@
 // The folder chooser of web mode, where a browser page has no system folder dialog: a modal that
 // lists subfolders through folder.browse, lets the person walk up and down or type a path, and
 // answers with the folder they confirm (the bridge then grants it with folder.allow).
-import type { FolderListing, FolderPurpose } from '../../electron/bridge-contract.ts';
+import type { FolderListing, FolderPurpose } from '../../sim/bridge/bridge-contract.ts';
 import { button, h } from './element.ts';
 
 const PURPOSE_WORDS: Record<FolderPurpose, string> = {

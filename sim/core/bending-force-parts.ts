@@ -43,7 +43,7 @@ export function writeBendingForcePart(model: Model, part: number, forceN: Float6
     const ubx = (tax - cosPhi * tbx) * ilb;
     const uby = (tay - cosPhi * tby) * ilb;
     const ubz = (taz - cosPhi * tbz) * ilb;
-    let s = 0;
+    let s: number;
     if (part === BENDING_PART_ELASTIC) {
       s = model.hingeStiffnessNm[h];
     } else {
@@ -89,7 +89,7 @@ export function writeBendingForcePart(model: Model, part: number, forceN: Float6
     const ux = (dx - cosPhi * tx) * il;
     const uy = (dy - cosPhi * ty) * il;
     const uz = (dz - cosPhi * tz) * il;
-    let s = 0;
+    let s: number;
     if (part === BENDING_PART_ELASTIC) {
       s = model.clampStiffnessNm[q];
     } else {

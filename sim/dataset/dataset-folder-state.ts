@@ -29,7 +29,7 @@ export async function readFolderState(dir: string): Promise<FolderState> {
   if (!info.isDirectory()) throw new DatasetRequestError(`${dir} is a file; give the dataset folder that holds ${MANIFEST_FILE}`);
   const seedText = await readTextIfPresent(join(dir, SEED_FILE));
   const manifestText = await readTextIfPresent(join(dir, MANIFEST_FILE));
-  let inProgress = false;
+  let inProgress: boolean;
   try {
     inProgress = (await stat(join(dir, WORK_FOLDER))).isDirectory();
   } catch {

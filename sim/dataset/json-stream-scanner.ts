@@ -51,10 +51,6 @@ function isOpen(b: number): boolean {
   return b === 0x7b || b === 0x5b;
 }
 
-function isClose(b: number): boolean {
-  return b === 0x7d || b === 0x5d;
-}
-
 function shown(b: number): string {
   if (b < 0) return 'the end of the file';
   if (b >= 0x20 && b < 0x7f) return `'${String.fromCharCode(b)}'`;

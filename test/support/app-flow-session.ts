@@ -7,7 +7,7 @@ import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { JobProgress, RequestArgs, RequestErrorInfo, RequestName, RequestResult } from '../../electron/bridge-contract.ts';
+import type { JobProgress, RequestArgs, RequestErrorInfo, RequestName, RequestResult } from '../../sim/bridge/bridge-contract.ts';
 import { createDefaultServices } from '../../electron/default-services.ts';
 import { createNativeFolderChooser } from '../../electron/folder-dialog.ts';
 import { createRequestHandlers } from '../../electron/request-handlers.ts';

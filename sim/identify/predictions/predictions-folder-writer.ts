@@ -17,7 +17,7 @@ export const PREDICTIONS_FORMAT = 1;
  * predictions.json and .npz files). Any other non-empty folder is refused.
  */
 export function preparePredictionsFolder(dir: string): void {
-  let entries: string[] = [];
+  let entries: string[];
   try {
     if (!statSync(dir).isDirectory()) throw new DatasetRequestError(`${dir} is a file; give --out a folder for the predictions`);
     entries = readdirSync(dir);

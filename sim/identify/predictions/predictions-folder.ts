@@ -58,7 +58,7 @@ function describedModel(dir: string): { model: string; description: string } | n
 
 /** Lists `dir` as a predictions folder; refuses anything that is not one. */
 export function readPredictionsFolder(dir: string): PredictionsFolder {
-  let isFolder = false;
+  let isFolder: boolean;
   try {
     isFolder = statSync(dir).isDirectory();
   } catch {

@@ -110,7 +110,7 @@ function buildPlan(scenario: Scenario): SplitPlan | null {
   for (const i of remaining) rank[i] = new RandomStream(scenario.seed, i, StreamPurpose.split, SPLIT_ORDER_SUB_STREAM).nextFloat64();
   const byRank = (a: number, b: number): number => rank[a] - rank[b] || a - b;
   const stratify = scenario.splits.stratify;
-  let order = remaining;
+  let order: number[];
   if (stratify !== undefined && remaining.length > 0) {
     const bins = stratify.bins ?? DEFAULT_STRATA_BINS;
     const key = new Map<number, number[]>(remaining.map((i) => [i, []]));

@@ -3,7 +3,9 @@
 // every argument object is checked against, event names, and the transport constants.
 //
 // This file imports nothing on purpose: the renderer, the sandboxed preload script and the main
-// process all compile it, and none of them may drag another's environment into the others.
+// process all compile it, and none of them may drag another's environment into the others. It
+// lives in sim/bridge/, an environment-free room both sides import, so the page never imports
+// the shells (electron/) and the shells never import the page.
 //
 // Binary arrays (`dataset.episodeArrays`) travel as base64 strings of little-endian, C-order
 // bytes. Base64 is chosen over ArrayBuffers because the web-mode transport is JSON over HTTP,
