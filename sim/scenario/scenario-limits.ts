@@ -16,6 +16,12 @@ export const MAX_RECORDED_STEPS = 1_000_000;
 export const MAX_RECORDED_NODE_STATES = 10_000_000;
 /** Record intervals a settled start may run before recording (settleS / recordIntervalS). */
 export const MAX_SETTLE_INTERVALS = MAX_RECORDED_STEPS;
+/**
+ * Coordinates a normal-mode start (/initialState/mode) may decompose: a dense 450 × 450
+ * symmetric eigen-decomposition takes about 0.8 s on one core of the development machine
+ * (measured with ml-matrix 6.15), and the time grows as n³.
+ */
+export const MAX_MODE_COORDINATES = 450;
 /** Sub-steps per record interval, fixed or chosen by "auto". */
 export const MAX_SUBSTEPS = 100_000;
 /** Episodes of one scenario. */
