@@ -12,6 +12,7 @@ import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import type { Model } from '../sim/core/model.ts';
+import { unitOfLabel } from '../sim/dataset/label-units.ts';
 
 type Json = Record<string, unknown>;
 
@@ -98,6 +99,9 @@ describe('arc start (circle chord geometry)', () => {
       expect(Math.abs(distance(tip, centre) * kappa - 1)).toBeLessThan(1e-12);
     }
     expect(drawn.size).toBe(4);
+    // The card prints the unit its key names (project naming rule).
+    expect(unitOfLabel('/initialState/curve/curvaturePerM')).toBe('1/m');
+    expect(unitOfLabel('/initialState/mode/frequencyHz')).toBe('Hz');
   });
 });
 

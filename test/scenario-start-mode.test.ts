@@ -285,3 +285,35 @@ describe('an episode started in a mode stays in it (beaded chain, no gravity, no
     expect(problem?.message).toContain('fewer axes');
   });
 });
+
+describe('a 2-D clamped fin started in its first mode (small-amplitude motion follows the linearised mode; common practice, no source)', () => {
+  it('stays in the x-y plane, starts with its largest node displacement at the amplitude, and swings at the labelled frequency within 0.1 %', () => {
+    const value = {
+      formatVersion: 1, name: 'korrin-fin-mode', episodes: 1, seed: 4, time: { recordIntervalS: 0.001, recordedSteps: 1200, substeps: 'auto' },
+      world: { gravityMPerS2: [0, 0, 0] },
+      system: { kind: 'lattice', cellSizeM: 0.01, base: 'clamped', shape: { maps: [[[1, 1], [1, 1], [1, 1], [1, 1], [1, 1], [1, 1]]] }, materials: [{ name: 'fin-silicone', youngsModulusPa: 2e5, densityKgPerM3: 1100, dampingRatio: 0 }] },
+      initialState: { mode: { index: 1, amplitudeM: 1e-4 } },
+    };
+    const episode = sampleEpisode(checkedScenario(value), 0);
+    const model = episode.system.model;
+    const rest = buildLattice({
+      cellSizeM: 0.01, materialMap: [[1, 1], [1, 1], [1, 1], [1, 1], [1, 1], [1, 1]],
+      materials: [{ name: 'fin-silicone', youngsModulusPa: 2e5, densityKgPerM3: 1100, dampingRatio: 0, actuatorChannel: null, actuationStrainMax: 0 }],
+      base: 'clamped', originM: [0, 0, 0],
+    }).model;
+    let largest = 0;
+    let tip = 0;
+    for (let i = 0; i < model.nodeCount; i++) {
+      expect(model.positionM[3 * i + 2]).toBe(rest.positionM[3 * i + 2]);
+      const d = Math.hypot(model.positionM[3 * i] - rest.positionM[3 * i], model.positionM[3 * i + 1] - rest.positionM[3 * i + 1]);
+      if (d > largest) [largest, tip] = [d, i];
+    }
+    expect(Math.abs(largest / 1e-4 - 1)).toBeLessThan(1e-12);
+    const frequencyHz = episode.labels['/initialState/mode/frequencyHz'] as number;
+    const trajectory = recordTrajectory(model, episode.world, episode.controls, episode.recording);
+    const signal = new Float64Array(trajectory.steps + 1);
+    for (let t = 0; t <= trajectory.steps; t++) signal[t] = trajectory.positionM[(t * model.nodeCount + tip) * 3] - rest.positionM[3 * tip];
+    const periodS = zeroCrossingPeriodS(signal, episode.recording.recordIntervalS);
+    expect(Math.abs(periodS * frequencyHz - 1)).toBeLessThan(1e-3);
+  });
+});

@@ -103,7 +103,7 @@ function findModeProblems(scenario: Scenario, systems: readonly BuiltSystem[], m
   if (coordinates > MAX_MODE_COORDINATES) {
     return [{
       pointer: '/initialState/mode',
-      message: `linearises up to ${coordinates} coordinates (${maxNodes} nodes × ${axisCount} axes), above the ${MAX_MODE_COORDINATES} Pliant decomposes (a dense eigen-decomposition, whose time grows as the cube of the size: about 0.8 s at ${MAX_MODE_COORDINATES}); use fewer parts or cells, or fewer axes in /initialState/mode/axes (e.g. ["x", "y"] for a chain swinging in the x-y plane)`,
+      message: `linearises up to ${coordinates} coordinates (${maxNodes} nodes × ${axisCount} axes), above the ${MAX_MODE_COORDINATES} Pliant decomposes (a dense eigen-decomposition per episode, whose time grows as the cube of the size: some 2 s at ${MAX_MODE_COORDINATES}); use fewer parts or cells, or fewer axes in /initialState/mode/axes (e.g. ["x", "y"] for a chain swinging in the x-y plane)`,
     }];
   }
   if (scenario.system.kind !== 'chain') return [];
