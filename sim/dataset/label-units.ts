@@ -10,6 +10,7 @@ const SUFFIX_UNITS: ReadonlyArray<readonly [RegExp, string]> = [
   [/MPerS2$/, 'm/s²'],
   [/MPerS$/, 'm/s'],
   [/NPerM$/, 'N/m'],
+  [/PerM$/, '1/m'],
   [/PerS$/, '1/s'],
   [/Pa$/, 'Pa'],
   [/Hz$/, 'Hz'],

@@ -90,7 +90,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   const demanding = cornerSystems(scenario, 'demanding');
   const gentle = cornerSystems(scenario, 'gentle');
   problems.push(...findChannelKeyProblems(scenario, [...demanding, ...gentle]));
-  problems.push(...findStartStateProblems(scenario, [...demanding, ...gentle]));
+  problems.push(...findStartStateProblems(scenario, [...demanding, ...gentle], maxNodes));
   problems.push(...findStabilityProblems(scenario, demanding, cornerWords(sites)));
   return problems;
 }

@@ -1,7 +1,7 @@
 // One episode of a sweep from (scenario, master seed, episode index) alone: every parameter
 // drawn from the stream of its JSON pointer, the system built by the real builders, the start
-// state randomised, the observation settings resolved, the controls generated per channel and
-// the split assigned.
+// state set (curve, pose, settling, mode, motion, noise in that order), the observation
+// settings resolved, the controls generated per channel and the split assigned.
 import { SpecError } from '../random/spec-problem.ts';
 import type { SpecProblem } from '../random/spec-problem.ts';
 import { buildChain } from '../systems/chain.ts';
@@ -21,6 +21,8 @@ import { resolveWorld } from './resolve-world.ts';
 import { resolveStartState } from './resolve-start-state.ts';
 import { applyStartPose, applyStartVelocity } from './start-pose.ts';
 import { settleStart } from './settle-start.ts';
+import { applyStartCurve } from './start-curve.ts';
+import { applyModeStart } from './mode-start.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
@@ -68,8 +70,14 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
   }
   const world = resolveWorld(scenario.world, draws);
   const start = resolveStartState(scenario.initialState, draws);
+  if (start.curve !== null) applyStartCurve(system.model, start.curve);
   applyStartPose(system.model, dimensions, start.motion);
   settleStart(system.model, world, start.settleS, start.settleDragPerS, scenario.time.recordIntervalS, scenario.time.autoSafety, options.kernel);
+  if (start.mode !== null) {
+    const mode = applyModeStart(system.model, { ...start.mode, axes: start.mode.axes.filter((axis) => axis < dimensions) });
+    // Derived, not drawn: the frequency of the mode the episode starts in.
+    draws.labels['/initialState/mode/frequencyHz'] = mode.frequencyHz;
+  }
   applyStartVelocity(system.model, dimensions, start.motion);
   const positionStdM = draws.value(scenario.initialState.positionNoiseM, '/initialState/positionNoiseM', 'none');
   const velocityStdMPerS = draws.value(scenario.initialState.velocityNoiseMPerS, '/initialState/velocityNoiseMPerS', 'none');

@@ -16,6 +16,13 @@ export const MAX_RECORDED_STEPS = 1_000_000;
 export const MAX_RECORDED_NODE_STATES = 10_000_000;
 /** Record intervals a settled start may run before recording (settleS / recordIntervalS). */
 export const MAX_SETTLE_INTERVALS = MAX_RECORDED_STEPS;
+/**
+ * Coordinates a normal-mode start (/initialState/mode) may decompose, per episode: the modes
+ * of a free 150-node lattice block (450 coordinates) took 1.9 to 2.7 s on the shared 2-core
+ * development machine (ml-matrix 6.15, measured under a load average near 17; 300 coordinates
+ * took 0.8 to 1.4 s), and the time grows as n³.
+ */
+export const MAX_MODE_COORDINATES = 450;
 /** Sub-steps per record interval, fixed or chosen by "auto". */
 export const MAX_SUBSTEPS = 100_000;
 /** Episodes of one scenario. */

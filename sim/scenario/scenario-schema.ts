@@ -6,7 +6,7 @@ import { controlSpecSchema } from '../controls/control-spec-schema.ts';
 import type { JsonSchema } from '../random/value-spec-schema.ts';
 import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
-import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
+import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_MODE_COORDINATES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
 import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
 import { DESIGN_KINDS } from '../design/design-spec.ts';
@@ -389,9 +389,50 @@ const timeSchema = closed(
   ['recordIntervalS', 'recordedSteps'],
 );
 
-const initialStateSchema = closed(
-  'The start state: a pose (rotation, translation) of the built shape, an optional settling under gravity before recording, a uniform start velocity and spin, then noise. Pinned and driven nodes are never moved.',
+const BEND_DIRECTION = vector3('Direction the chain bends towards, made perpendicular to the chain\'s direction (/system/directionUnit) before use; with it, it spans the plane of the curve.', {}, [1, 0, 0]);
+
+const startCurveSchema: JsonSchema = {
+  type: 'object',
+  description: 'Chains only: the start shape as a planar curve instead of a straight line. Node 0 stays where it is and every further node is placed on the curve one part length (a chord) after the one before, so the structural springs start at their rest length; bending hinges and second-neighbour springs start bent. Applied before the rotation, settling and mode.',
+  required: ['kind'],
+  properties: { kind: { enum: ['arc', 'sine'], description: '"arc": a circle of given curvature tangent to the chain at node 0; "sine": a sideways sine wave along the chain\'s direction.' } },
+  allOf: [
+    {
+      if: { properties: { kind: { const: 'arc' } }, required: ['kind'] },
+      then: closed('A circular arc.', {
+        kind: { const: 'arc' },
+        curvaturePerM: valueSpecSchema('Curvature 1/R of the circle, 1/m; negative bends away from bendDirectionUnit, 0 is straight. At most 2 over the part length (a part is a chord of the circle).'),
+        bendDirectionUnit: BEND_DIRECTION,
+      }, ['kind', 'curvaturePerM']),
+    },
+    {
+      if: { properties: { kind: { const: 'sine' } }, required: ['kind'] },
+      then: closed('A sine-shaped bend: sideways offset A·(sin(2π·u/λ + φ) − sin φ) at distance u along the chain\'s direction, so node 0 stays on the line.', {
+        kind: { const: 'sine' },
+        amplitudeM: valueSpecSchema('Amplitude A of the sideways offset, m.'),
+        wavelengthM: valueSpecSchema('Wavelength λ along the chain\'s direction, m.', { exclusiveMinimum: 0 }),
+        phaseRad: valueSpecSchema('Phase φ of the sine at node 0, rad.', { default: 0 }),
+        bendDirectionUnit: BEND_DIRECTION,
+      }, ['kind', 'amplitudeM', 'wavelengthM']),
+    },
+  ],
+};
+
+const modeStartSchema = closed(
+  `Start displaced along one of the system's own normal modes: the model is linearised about its state after the curve, rotation and settling (springs exactly, bending hinges by central differences; gravity adds no stiffness but sets the tensions), its modes found from M^(-1/2)·K·M^(-1/2) over the free nodes' coordinates along "axes" (at most ${MAX_MODE_COORDINATES} coordinates), and mode "index" added to the positions. Velocities stay as they are: zero unless velocityMPerS or spinRadPerS are given.`,
   {
+    index: valueSpecSchema('Which mode: 1 is the slowest mode with a restoring stiffness (rigid-body motions and other zero modes, below 1e-12 of the largest eigenvalue, are skipped).', { integer: true, minimum: 1, maximum: MAX_MODE_COORDINATES }),
+    amplitudeM: valueSpecSchema('Largest displacement of any node, m. Positive: the first noticeably moving coordinate (node by node, x before y before z) moves in +; negative: the mirror start.'),
+    axes: { type: 'array', items: AXES, uniqueItems: true, minItems: 1, default: ['x', 'y', 'z'], description: 'Axes whose coordinates take part; the others are held while linearising. A chain along y with ["x", "y"] moves in the x-y plane only, which also picks one of each pair of equal sideways modes. 2-D lattices ignore z.' },
+  },
+  ['index', 'amplitudeM'],
+);
+
+const initialStateSchema = closed(
+  'The start state: an optional curved shape (chains), a pose (rotation, translation) of the built shape, an optional settling under gravity before recording, an optional normal-mode displacement, a uniform start velocity and spin, then noise. Pinned and driven nodes are never moved.',
+  {
+    curve: startCurveSchema,
+    mode: modeStartSchema,
     rotationRad: valueSpecSchema('Rigid rotation of the start pose, rad, about rotationAxisUnit through the first pinned or driven node (a chain\'s top: the chain starts at this angle), or through the centre of mass of a body with none. 2-D lattices turn about z.', { default: 0 }),
     rotationAxisUnit: vector3('Axis of the start rotation, normalised before use.', {}, [0, 0, 1]),
     translationM: vector3('Shift of the start pose of a body with no pinned or driven node, m.', {}, [0, 0, 0]),

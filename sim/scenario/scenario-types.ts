@@ -151,7 +151,26 @@ export interface TimeSpec {
   autoSafety: number;
 }
 
+/** A chain's start shape as a planar curve (start-curve.ts); absent: the built straight line. */
+export type StartCurveSpec =
+  | { kind: 'arc'; curvaturePerM: NumericValueSpec; bendDirectionUnit: Vector3Spec }
+  | { kind: 'sine'; amplitudeM: NumericValueSpec; wavelengthM: NumericValueSpec; phaseRad: NumericValueSpec; bendDirectionUnit: Vector3Spec };
+
+/** A start displaced along one of the model's own normal modes (mode-start.ts). */
+export interface ModeStartSpec {
+  /** 1 = the slowest mode with a restoring stiffness. */
+  index: NumericValueSpec;
+  /** Largest node displacement, m; the sign chooses the direction. */
+  amplitudeM: NumericValueSpec;
+  /** Coordinates that take part; the others are held while linearising. */
+  axes: Axis[];
+}
+
 export interface InitialStateSpec {
+  /** Absent: the chain starts along its straight line. Chains only. */
+  curve?: StartCurveSpec;
+  /** Absent: no mode displacement. */
+  mode?: ModeStartSpec;
   rotationRad: NumericValueSpec;
   rotationAxisUnit: Vector3Spec;
   translationM: Vector3Spec;
