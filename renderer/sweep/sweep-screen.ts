@@ -5,6 +5,7 @@
 import type { ExampleScenario } from '../../electron/bridge-contract.ts';
 import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
 import { formatProblems } from '../../sim/scenario/scenario-problem.ts';
+import type { ScenarioProblem } from '../../sim/scenario/scenario-problem.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { SweepDocument, SweepState } from '../app/sweep-document.ts';
 import type { Screen } from '../ui/screen.ts';
@@ -13,6 +14,7 @@ import { insideFolder } from '../ui/new-folder-name.ts';
 import { button, h, select } from '../ui/element.ts';
 import { ScenarioForm } from './scenario-form.ts';
 import type { SchemaObject } from './schema-shape.ts';
+import { JsonEditor } from './json-editor.ts';
 
 const TEXT_EDIT_SETTLE_MS = 350;
 
@@ -27,7 +29,7 @@ export class SweepScreen implements Screen {
   private readonly form: ScenarioForm;
   private readonly formPane: HTMLElement;
   private readonly textPane: HTMLElement;
-  private readonly text: HTMLTextAreaElement;
+  private readonly text: JsonEditor;
   private readonly textProblems: HTMLElement;
   private readonly fileRow: HTMLElement;
   private readonly saveButton: HTMLButtonElement;
@@ -54,10 +56,9 @@ export class SweepScreen implements Screen {
       },
     });
     this.formPane = h('div', { className: 'pane form-pane', attrs: { 'data-role': 'form-pane' } }, this.form.root);
-    this.text = h('textarea', { className: 'json-text', attrs: { spellcheck: 'false', 'aria-label': 'Scenario JSON text', 'data-role': 'json-text', wrap: 'off' } });
-    this.text.addEventListener('input', () => this.textTyped());
+    this.text = new JsonEditor('Scenario JSON text', () => this.textTyped());
     this.textProblems = h('div', { className: 'text-problems', attrs: { 'data-role': 'text-problems' } });
-    this.textPane = h('div', { className: 'pane text-pane', attrs: { hidden: '', 'data-role': 'text-pane' } }, this.text, this.textProblems);
+    this.textPane = h('div', { className: 'pane text-pane', attrs: { hidden: '', 'data-role': 'text-pane' } }, this.text.root, this.textProblems);
 
     const formTab = button('Form', () => this.showPane('form'), { className: 'tab is-active', attrs: { 'data-role': 'tab-form' } });
     const textTab = button('JSON text', () => this.showPane('text'), { className: 'tab', attrs: { 'data-role': 'tab-text' } });
@@ -197,6 +198,7 @@ export class SweepScreen implements Screen {
     this.root.querySelector('[data-role="tab-form"]')?.classList.toggle('is-active', which === 'form');
     this.root.querySelector('[data-role="tab-text"]')?.classList.toggle('is-active', which === 'text');
     if (which === 'form' && this.formNeedsRender) this.renderForm(this.sweep.current);
+    if (which === 'text') this.text.refresh();
   }
 
   private formChanged(structural: boolean): void {
@@ -210,7 +212,7 @@ export class SweepScreen implements Screen {
     this.textTimer = setTimeout(() => {
       this.textTimer = null;
       this.formNeedsRender = true;
-      void this.sweep.edit(this.text.value);
+      void this.sweep.edit(this.text.text);
     }, TEXT_EDIT_SETTLE_MS);
   }
 
@@ -218,9 +220,7 @@ export class SweepScreen implements Screen {
     const where = state.path ?? 'not saved yet';
     this.fileLabel.textContent = `${state.fileName} · ${where}${state.readOnly ? ' · demo (read-only)' : ''}${state.dirty ? ' · unsaved changes' : ''}`;
     this.saveButton.disabled = state.text === '';
-    if (change === 'loaded' || (change === 'edited' && document.activeElement !== this.text)) {
-      if (this.text.value !== state.text) this.text.value = state.text;
-    }
+    if (change === 'loaded' || (change === 'edited' && !this.text.hasFocus)) this.text.setText(state.text);
     if ((change === 'loaded' || this.formNeedsRender) && !this.formPane.hidden) this.renderForm(state);
     if (change === 'checked' || change === 'loaded') this.renderProblems(state);
   }
@@ -238,10 +238,16 @@ export class SweepScreen implements Screen {
     this.renderProblems(state);
   }
 
+  private textProblem(problem: ScenarioProblem, text: string): HTMLElement {
+    return problemButton(text, () => this.text.jumpTo(problem.line ?? 1, problem.column ?? 1), problem.line);
+  }
+
   private renderProblems(state: SweepState): void {
     const lines = state.problems.map((p) => ({ pointer: p.pointer, text: formatProblems([p], state.fileName) }));
     if (this.formDocument) this.form.showProblems(lines);
-    this.textProblems.replaceChildren(...lines.map((l) => h('div', { className: 'problem', text: l.text })));
+    this.textProblems.replaceChildren(...state.problems.map((p, i) => this.textProblem(p, lines[i].text)));
+    // Marks belong to the text they were found in; a newer text waits for its own check.
+    if (!state.checking && this.text.text === state.text) this.text.showProblems(state.problems.map((p, i) => ({ line: p.line ?? 1, column: p.column ?? 1, message: lines[i].text })));
     if (state.checking) {
       this.summary.textContent = 'Checking…';
       this.summary.setAttribute('data-state', 'checking');
@@ -256,6 +262,11 @@ export class SweepScreen implements Screen {
       this.summary.setAttribute('data-state', 'problems');
     }
   }
+}
+
+/** One problem under the editor; a click puts the cursor at its line and column. */
+function problemButton(text: string, onClick: () => void, line: number | undefined): HTMLElement {
+  return button(text, onClick, { className: 'problem problem-jump', title: line === undefined ? 'Go to the start of the text' : `Go to line ${line}`, attrs: { 'data-role': 'jump-to-problem', 'data-line': String(line ?? 1) } });
 }
 
 function baseName(path: string): string {
