@@ -55,7 +55,7 @@ export class SweepScreen implements Screen {
         return typeof seed === 'number' || typeof seed === 'string' ? seed : 0;
       },
     });
-    this.formPane = h('div', { className: 'pane form-pane', attrs: { 'data-role': 'form-pane' } }, this.form.root);
+    this.formPane = h('div', { className: 'pane form-pane', attrs: { 'data-role': 'form-pane' } }, this.form.nav.root, this.form.root);
     this.text = new JsonEditor('Scenario JSON text', () => this.textTyped());
     this.textProblems = h('div', { className: 'text-problems', attrs: { 'data-role': 'text-problems' } });
     this.textPane = h('div', { className: 'pane text-pane', attrs: { hidden: '', 'data-role': 'text-pane' } }, this.text.root, this.textProblems);
@@ -229,6 +229,7 @@ export class SweepScreen implements Screen {
     this.formNeedsRender = false;
     if (!state.document) {
       this.formDocument = null;
+      this.form.nav.show([]);
       this.form.root.replaceChildren(h('p', { className: 'form-note', text: state.text === '' ? 'Open a demo scenario or a scenario file to begin.' : 'The text is not a JSON object yet, so there is no form to show. Fix it in the JSON text view; the problem list says where.' }));
       return;
     }
