@@ -7,8 +7,10 @@ import type { FolderChooser } from './request-services.ts';
 
 const WORDING: Readonly<Record<FolderPurpose, { title: string; buttonLabel: string; message: string }>> = {
   dataset: { title: 'Open a dataset', buttonLabel: 'Open dataset', message: 'Pick the folder of a dataset Pliant wrote.' },
+  seed: { title: 'Open a seed file', buttonLabel: 'Open seed file', message: 'Pick the dataset folder whose seed.json to open.' },
   export: { title: 'Where should the dataset go?', buttonLabel: 'Write here', message: 'Pick or create the folder the new dataset is written into.' },
-  scenario: { title: 'Scenario folder', buttonLabel: 'Use this folder', message: 'Pick the folder your scenario files live in.' },
+  'scenario-save': { title: 'Where should the scenario go?', buttonLabel: 'Save here', message: 'Pick or create the folder the scenario file is saved into; the next step asks its name.' },
+  scenario: { title: 'Open a scenario file', buttonLabel: 'Use this folder', message: 'Pick the folder your scenario files live in; the next step lists its .json files.' },
   predictions: { title: 'Open a predictions folder', buttonLabel: 'Open predictions', message: "Pick the folder of a model's predictions: one <episode id>.npz per episode." },
   pictures: { title: 'Where should the pictures go?', buttonLabel: 'Save here', message: "Pick or create the folder the episode's GIF or PNG pictures are saved into." },
   report: { title: 'Report folder', buttonLabel: 'Use this folder', message: 'Pick a score or calibration report folder, or the folder a new score report is written into.' },

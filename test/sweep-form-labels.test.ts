@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { SCENARIO_SCHEMA } from '../sim/scenario/scenario-schema.ts';
 import { fieldLabel } from '../renderer/sweep/field-label.ts';
-import { sectionOf } from '../renderer/sweep/section-nav.ts';
+import { sectionOf } from '../renderer/sweep/section-of.ts';
 import { unitOfField } from '../renderer/sweep/unit-from-key.ts';
 
 type Node = Record<string, unknown>;

@@ -3,14 +3,10 @@
 // inside it. A click unfolds the section and scrolls it into view, so a 20,000 px form of a
 // large lattice is a few clicks from any part.
 import { button, h } from '../ui/element.ts';
+import { sectionOf } from './section-of.ts';
+import type { SectionEntry } from './section-of.ts';
 
-export interface SectionEntry {
-  /** JSON pointer of the section; "" for the scenario's own top-level values. */
-  pointer: string;
-  label: string;
-  /** Nested entries (materials under system) are indented. */
-  nested: boolean;
-}
+export type { SectionEntry };
 
 export class SectionNav {
   readonly root = h('nav', { className: 'section-nav', attrs: { 'aria-label': 'Sections of the scenario', 'data-role': 'section-nav' } });
@@ -44,14 +40,4 @@ export class SectionNav {
       if (count > 0) link.append(h('span', { className: 'problem-count', text: String(count), title: `${count} problem${count === 1 ? '' : 's'} in this section` }));
     }
   }
-}
-
-/** The innermost entry whose pointer is the problem's or an ancestor of it; "" when none is. */
-export function sectionOf(pointer: string, entries: readonly SectionEntry[]): string {
-  let best = '';
-  for (const entry of entries) {
-    if (entry.pointer === '') continue;
-    if ((pointer === entry.pointer || pointer.startsWith(`${entry.pointer}/`)) && entry.pointer.length > best.length) best = entry.pointer;
-  }
-  return best;
 }

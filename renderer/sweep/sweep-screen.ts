@@ -11,6 +11,7 @@ import type { SweepDocument, SweepState } from '../app/sweep-document.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { insideFolder } from '../ui/new-folder-name.ts';
+import { rememberFolder, suggestFolder } from '../ui/folder-picker-dialog.ts';
 import { button, h, select } from '../ui/element.ts';
 import { ScenarioForm } from './scenario-form.ts';
 import type { SchemaObject } from './schema-shape.ts';
@@ -84,6 +85,8 @@ export class SweepScreen implements Screen {
       this.exampleList = await this.bridge.invoke('scenario.listExamples', {});
       this.examples.replaceChildren(...this.exampleList.map((e) => h('option', { text: e.fileName, attrs: { value: e.path } })));
       if (this.exampleList.length === 0) this.status.show('info', 'This build has no demo scenarios. Open a scenario file instead.');
+      // Until a file is opened or saved, the file chooser starts among the demo scenarios.
+      else suggestFolder('scenario', folderOf(this.exampleList[0].path));
     } catch (error) {
       this.status.error('Could not list the demo scenarios', error);
     }
@@ -109,6 +112,7 @@ export class SweepScreen implements Screen {
       const read = await this.bridge.invoke('scenario.read', { path });
       this.formNeedsRender = true;
       await this.sweep.load(read.text, baseName(read.path), read.path, readOnly);
+      if (!readOnly) rememberFolder('scenario', folderOf(read.path));
       this.status.show('ok', `Opened ${read.path}${readOnly ? ' (a demo: Save as… to keep your changes)' : ''}.`);
     } catch (error) {
       this.status.error(`Could not open ${path}`, error);
@@ -116,24 +120,28 @@ export class SweepScreen implements Screen {
   }
 
   /**
-   * Folders are chosen with the shell's chooser. Opening picks one of the folder's .json files from
-   * a list; saving types the new file's name.
+   * Folders are chosen with the shell's chooser. In web mode the chooser lists .json files too and
+   * a click picks one; otherwise opening picks one of the folder's .json files from a list next.
+   * Saving types the new file's name (a file clicked in the chooser fills it in).
    */
   private async chooseFile(mode: 'open' | 'save'): Promise<void> {
     let folder: string;
+    let file: string | undefined;
     try {
-      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'scenario' });
+      const chosen = await this.bridge.invoke('folder.choose', { purpose: mode === 'open' ? 'scenario' : 'scenario-save' });
       if (!chosen) return;
       folder = chosen.path;
+      file = chosen.file;
     } catch (error) {
       this.status.error('Could not choose a folder', error);
       return;
     }
     if (mode === 'open') {
-      await this.pickFileIn(folder);
+      if (file !== undefined) await this.openPath(insideFolder(folder, file), false);
+      else await this.pickFileIn(folder);
       return;
     }
-    const name = h('input', { attrs: { type: 'text', value: this.sweep.current.fileName, placeholder: 'name.json', 'aria-label': 'File name', 'data-role': 'file-name' } });
+    const name = h('input', { attrs: { type: 'text', value: file ?? this.sweep.current.fileName, placeholder: 'name.json', 'aria-label': 'File name', 'data-role': 'file-name' } });
     const confirm = button('Save', () => {
       const fileName = name.value.trim();
       if (!/^[^/\\]+\.json$/i.test(fileName)) {
@@ -186,6 +194,7 @@ export class SweepScreen implements Screen {
     try {
       const written = await this.bridge.invoke('scenario.write', { path, text: this.sweep.current.text });
       this.sweep.saved(written.path, baseName(written.path));
+      rememberFolder('scenario', folderOf(written.path));
       this.status.show('ok', `Saved ${written.path} (${written.bytes} bytes).`);
     } catch (error) {
       this.status.error(`Could not save ${path}`, error);
@@ -268,6 +277,11 @@ export class SweepScreen implements Screen {
 /** One problem under the editor; a click puts the cursor at its line and column. */
 function problemButton(text: string, onClick: () => void, line: number | undefined): HTMLElement {
   return button(text, onClick, { className: 'problem problem-jump', title: line === undefined ? 'Go to the start of the text' : `Go to line ${line}`, attrs: { 'data-role': 'jump-to-problem', 'data-line': String(line ?? 1) } });
+}
+
+function folderOf(path: string): string {
+  const cut = Math.max(path.lastIndexOf('/'), path.lastIndexOf('\\'));
+  return cut > 0 ? path.slice(0, cut) : path;
 }
 
 function baseName(path: string): string {
