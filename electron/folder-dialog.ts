@@ -10,14 +10,26 @@ const WORDING: Readonly<Record<FolderPurpose, { title: string; buttonLabel: stri
   seed: { title: 'Open a seed file', buttonLabel: 'Open seed file', message: 'Pick the dataset folder whose seed.json to open.' },
   export: { title: 'Where should the dataset go?', buttonLabel: 'Write here', message: 'Pick or create the folder the new dataset is written into.' },
   'scenario-save': { title: 'Where should the scenario go?', buttonLabel: 'Save here', message: 'Pick or create the folder the scenario file is saved into; the next step asks its name.' },
-  scenario: { title: 'Open a scenario file', buttonLabel: 'Use this folder', message: 'Pick the folder your scenario files live in; the next step lists its .json files.' },
+  scenario: { title: 'Open a scenario file', buttonLabel: 'Open', message: 'Pick the scenario file to open; its folder is then allowed for this session.' },
   predictions: { title: 'Open a predictions folder', buttonLabel: 'Open predictions', message: "Pick the folder of a model's predictions: one <episode id>.npz per episode." },
   pictures: { title: 'Where should the pictures go?', buttonLabel: 'Save here', message: "Pick or create the folder the episode's GIF or PNG pictures are saved into." },
   report: { title: 'Report folder', buttonLabel: 'Use this folder', message: 'Pick a score or calibration report folder, or the folder a new score report is written into.' },
 };
 
+/** Purposes whose dialog picks a file (in one step) rather than a folder. */
+const PICKS_A_FILE: ReadonlySet<FolderPurpose> = new Set(['scenario']);
+
 export function folderDialogOptions(purpose: FolderPurpose): OpenDialogOptions {
   const wording = WORDING[purpose];
+  if (PICKS_A_FILE.has(purpose)) {
+    return {
+      title: wording.title,
+      buttonLabel: wording.buttonLabel,
+      message: wording.message,
+      filters: [{ name: 'Scenario files', extensions: ['json'] }],
+      properties: ['openFile', 'dontAddToRecent'],
+    };
+  }
   return {
     title: wording.title,
     buttonLabel: wording.buttonLabel,

@@ -1,8 +1,9 @@
-// Handlers for choosing folders. In the desktop app the system dialog picks and every pick is
+// Handlers for choosing folders. In the desktop app the system dialog picks (a scenario as its
+// file, in one step, whose folder is then allowed) and every pick is
 // added to the allowed folders. In web mode there is no dialog: the page browses subfolder names
 // with folder.browse and confirms one with folder.allow; the session token already proves the
 // caller is the person who started the server.
-import { dirname, join } from 'node:path';
+import { basename, dirname, join } from 'node:path';
 import { realpath } from 'node:fs/promises';
 import { refuseUnsafeSpelling, shown } from './allowed-folders.ts';
 import type { HandlerTable } from './handler-table.ts';
@@ -32,6 +33,10 @@ export function folderRequests(services: RequestServices): FolderRequests {
       }
       const picked = await folderChooser.choose(purpose);
       if (picked === null) return null;
+      // A scenario is picked as a file in one step: its folder is what the session may then use.
+      if (purpose === 'scenario' && !(await files.isFolder(picked))) {
+        return { path: await folders.allow(dirname(picked), purpose), file: basename(picked) };
+      }
       return { path: await folders.allow(picked, purpose) };
     },
 

@@ -12,7 +12,7 @@ import type { FolderListing } from '../electron/bridge-contract.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import type { RequestHandlers } from '../electron/request-handlers.ts';
-import { folderDialogOptions } from '../electron/folder-dialog.ts';
+import { createNativeFolderChooser, folderDialogOptions } from '../electron/folder-dialog.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 let root: string;
@@ -62,6 +62,18 @@ describe('folder.browse with jsonFiles', () => {
       expect(reply.ok, purpose).toBe(true);
     }
     expect((await handlers.handle('folder.allow', { path: root, purpose: 'anything' })).ok).toBe(false);
+  });
+
+  it('the desktop app opens a scenario file in one step: the file\'s folder is allowed and the file named', async () => {
+    const file = join(root, 'tank-tether.json');
+    const services = await createDefaultServices({ mode: 'desktop', version: '0.1.0', bundledScenariosDir: join(root, 'korrin-bay'), folderChooser: createNativeFolderChooser(async (options) => ({ canceled: false, filePaths: [options.properties?.includes('openFile') ? file : root] })) });
+    const desktop = createRequestHandlers(services);
+    expect(await desktop.handle('folder.choose', { purpose: 'scenario' })).toEqual({ ok: true, result: { path: root, file: 'tank-tether.json' } });
+    expect((await desktop.handle('scenario.read', { path: file })).ok).toBe(true);
+    // A folder purpose still answers with the folder alone.
+    expect(await desktop.handle('folder.choose', { purpose: 'scenario-save' })).toEqual({ ok: true, result: { path: root } });
+    expect(folderDialogOptions('scenario').properties).toEqual(['openFile', 'dontAddToRecent']);
+    expect(folderDialogOptions('scenario-save').properties).toContain('openDirectory');
   });
 
   it('the desktop dialogs are titled for what they open', () => {
