@@ -178,6 +178,11 @@ describe.runIf(chromium.available)('the Sweep screen in headless Chromium throug
     await replaceScenarioText(page, text);
     await page.click('[data-role="tab-text"]');
     await page.waitForSelector('[data-role="json-text"] .cm-lint-marker-error');
+    // CodeMirror's styles and ours were applied under the page's CSP (style-src 'self'): the gutter
+    // has pliant.css's --paper-deep (#e9e4d8), and no refusal was logged.
+    const gutter = await page.evaluate(`getComputedStyle(document.querySelector('[data-role="json-text"]').shadowRoot.querySelector('.cm-gutters')).backgroundColor`);
+    expect(gutter).toBe('rgb(233, 228, 216)');
+    expect(pageErrors).toEqual([]);
 
     // The gutter mark sits on the row of the line number pliant validate names.
     const rows = (await page.evaluate(`(() => {
@@ -265,6 +270,7 @@ describe.runIf(chromium.available)('the Sweep screen in headless Chromium throug
       expect(await page.textContent(`${dialog} h3`)).toBe('Open a seed file: choose the dataset folder that holds seed.json');
       await page.click('[data-role="folder-cancel"]');
       await page.click('[data-nav="sweep"]');
+      expect(pageErrors).toEqual([]);
     } finally {
       rmSync(folder, { recursive: true, force: true });
     }

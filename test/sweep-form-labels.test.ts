@@ -7,6 +7,8 @@ import { SCENARIO_SCHEMA } from '../sim/scenario/scenario-schema.ts';
 import { fieldLabel } from '../renderer/sweep/field-label.ts';
 import { sectionOf } from '../renderer/sweep/section-of.ts';
 import { unitOfField } from '../renderer/sweep/unit-from-key.ts';
+import { SchemaReader } from '../renderer/sweep/schema-shape.ts';
+import type { SchemaObject } from '../renderer/sweep/schema-shape.ts';
 
 type Node = Record<string, unknown>;
 
@@ -54,5 +56,18 @@ describe('Sweep form labels', () => {
     expect(sectionOf('/worldly', entries)).toBe('');
     expect(sectionOf('/seed', entries)).toBe('');
     expect(sectionOf('', entries)).toBe('');
+  });
+
+  it('sub-steps offer each of their forms: "auto", a target accuracy, a whole number', () => {
+    const reader = new SchemaReader(SCENARIO_SCHEMA as SchemaObject);
+    const time = reader.resolve((SCENARIO_SCHEMA.properties as Node).time);
+    const substeps = (time.properties as Node).substeps;
+    const kind = reader.classify(substeps, 'auto');
+    expect(kind.kind).toBe('variants');
+    if (kind.kind !== 'variants') return;
+    expect(kind.variants.map((v) => v.label)).toEqual(['auto', 'Sub-steps for a target accuracy', 'a whole number']);
+    expect([reader.matchingVariant(kind.variants, 'auto'), reader.matchingVariant(kind.variants, { accuracy: 0.05 }), reader.matchingVariant(kind.variants, 4)]).toEqual([0, 1, 2]);
+    // Picking a form starts from a value the schema accepts there.
+    expect(kind.variants.map((v) => reader.defaultValue(v.schema))).toEqual(['auto', { accuracy: 0.001 }, 1]);
   });
 });

@@ -72,6 +72,17 @@ export class JsonEditor {
           // Long description lines wrap rather than run off the right edge; line numbers stay the file's.
           EditorView.lineWrapping,
           EditorView.contentAttributes.of({ 'aria-label': label, spellcheck: 'false' }),
+          // Typing over a selection that spans highlighted text makes Chromium's own editing keep
+          // the old text's colour with an inline style attribute, which the CSP refuses (and logs).
+          // Replacing the selection here instead leaves nothing for the browser to restyle.
+          EditorView.domEventHandlers({
+            beforeinput: (event, view) => {
+              if (event.inputType !== 'insertText' || event.data === null || view.state.selection.main.empty || view.composing) return false;
+              event.preventDefault();
+              view.dispatch(view.state.replaceSelection(event.data), { scrollIntoView: true, userEvent: 'input.type' });
+              return true;
+            },
+          }),
           EditorView.updateListener.of((update) => {
             if (update.docChanged && !update.transactions.some((t) => t.annotation(fromProgram))) this.typed(update.state.doc.toString());
           }),
