@@ -168,6 +168,16 @@ describe.runIf(chromium.available)('the Sweep screen in headless Chromium throug
     expect(await countOf('/world')).toBe(0);
     expect(await page.textContent('[data-section-link="/system"] .problem-count')).toBe(String(under('/system')));
     await saveScreenshot(page, 'sweep-problem-counts');
+
+    // A problem in the list at the top leads to its field, unfolding the section it is in.
+    await page.click('[data-fold="/system"]');
+    const field = '.field[data-pointer="/system/lengthM"]';
+    expect(await page.isVisible(field)).toBe(false);
+    await page.click('[data-role="summary-problem"]:has-text("/system/lengthM/max")');
+    expect(await page.isVisible(field)).toBe(true);
+    const top = (await page.evaluate(`document.querySelector('${field}').getBoundingClientRect().top`)) as number;
+    expect(top).toBeGreaterThanOrEqual(-1);
+    expect(top).toBeLessThan(page.viewportSize()!.height);
   });
 
   it('the JSON view numbers its lines, marks each problem\'s line in the gutter and jumps to it', async () => {

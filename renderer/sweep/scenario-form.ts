@@ -55,9 +55,16 @@ export class ScenarioForm {
     this.nav.show(this.sectionEntries());
   }
 
+  /** Unfolds the field a problem at `pointer` is shown at (its nearest shown ancestor) and scrolls to it. */
+  revealProblem(pointer: string): void {
+    const home = pointerAncestry(pointer).find((p) => this.slots.has(p)) ?? '';
+    const slot = this.slots.get(home);
+    this.reveal(home, slot?.closest<HTMLElement>('.field') ?? undefined);
+  }
+
   /** Unfolds the section at pointer (and every section around it) and scrolls it into view. */
-  reveal(pointer: string): void {
-    const target = pointer === '' ? this.root : this.sections.get(pointer);
+  reveal(pointer: string, element?: HTMLElement): void {
+    const target = element ?? (pointer === '' ? this.root : this.sections.get(pointer));
     if (!target) return;
     for (let section: HTMLElement | null = target; section; section = section.parentElement?.closest<HTMLElement>('.section') ?? null) {
       const at = section.getAttribute('data-pointer');

@@ -248,6 +248,15 @@ export class SweepScreen implements Screen {
     this.renderProblems(state);
   }
 
+  /** In the form: unfold and scroll to the field; in the JSON view: the cursor to its line. */
+  private goToProblem(problem: ScenarioProblem): void {
+    if (this.textPane.hidden && this.formDocument) this.form.revealProblem(problem.pointer);
+    else {
+      this.showPane('text');
+      this.text.jumpTo(problem.line ?? 1, problem.column ?? 1);
+    }
+  }
+
   private textProblem(problem: ScenarioProblem, text: string): HTMLElement {
     return problemButton(text, () => this.text.jumpTo(problem.line ?? 1, problem.column ?? 1), problem.line);
   }
@@ -268,7 +277,7 @@ export class SweepScreen implements Screen {
       this.summary.textContent = 'No problems: this sweep is ready to preview and export.';
       this.summary.setAttribute('data-state', 'ok');
     } else {
-      this.summary.replaceChildren(h('strong', { text: `${lines.length} problem${lines.length === 1 ? '' : 's'}` }), h('span', { text: ' — each is also shown at its field:' }), h('ul', {}, ...lines.map((l) => h('li', { text: l.text }))));
+      this.summary.replaceChildren(h('strong', { text: `${lines.length} problem${lines.length === 1 ? '' : 's'}` }), h('span', { text: ' — each is also shown at its field:' }), h('ul', {}, ...lines.map((l, i) => h('li', {}, button(l.text, () => this.goToProblem(state.problems[i]), { className: 'problem-jump', title: 'Show this problem where it is', attrs: { 'data-role': 'summary-problem' } })))));
       this.summary.setAttribute('data-state', 'problems');
     }
   }
