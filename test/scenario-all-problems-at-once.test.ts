@@ -39,6 +39,15 @@ describe('every problem at once', () => {
     expect([...both].sort((a, b) => a.line! - b.line!)).toEqual(both);
   });
 
+  it('a missing member beside the range does not hide it', () => {
+    const both = problemsOf((s) => {
+      s.system.lengthM = reversed;
+      delete s.system.diameterM;
+    });
+    expect(both.map((p) => p.pointer).sort()).toEqual(['/system', '/system/lengthM/max']);
+    expect(both.find((p) => p.pointer === '/system')?.message).toMatch(/diameterM/);
+  });
+
   it('a range inside a broken value is left to the schema problem there', () => {
     const both = problemsOf((s) => (s.system.lengthM = { kind: 'uniform', min: 2, max: 1, typo: 3 }));
     expect(both.length).toBeGreaterThan(0);

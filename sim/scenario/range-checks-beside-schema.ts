@@ -17,7 +17,9 @@ const pointerOfSegments = (segments: readonly string[]): string => segments.map(
 /** Range problems of the well-formed value specs in `value`, a document `schemaProblems` were found in. */
 export function findRangeProblemsBesideSchema(value: unknown, schemaProblems: readonly ScenarioProblem[]): ScenarioProblem[] {
   const broken = schemaProblems.map((p) => p.pointer);
-  const touchesProblem = (pointer: string): boolean => broken.some((p) => p === pointer || p.startsWith(`${pointer}/`) || pointer.startsWith(`${p}/`) || p === '');
+  // Only problems in the value spec itself make it unfit to judge; one at an ancestor (a missing
+  // sibling member, say) says nothing about this spec, which is checked on its own.
+  const touchesProblem = (pointer: string): boolean => broken.some((p) => p === pointer || p.startsWith(`${pointer}/`));
   const found = new Map<string, ScenarioProblem[]>();
 
   const visit = (schema: unknown, instance: unknown, segments: string[], depth: number): void => {
