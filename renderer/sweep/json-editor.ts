@@ -100,10 +100,10 @@ export class JsonEditor {
     return this.view.hasFocus;
   }
 
-  /** Replaces the whole text (a new file, or an edit made in the form), keeping the cursor near where it was. */
-  setText(text: string): void {
+  /** Replaces the whole text: a new file (cursor to the start), or an edit made in the form (the cursor stays near where it was). */
+  setText(text: string, keepCursor: boolean): void {
     if (text === this.text) return;
-    const head = Math.min(this.view.state.selection.main.head, text.length);
+    const head = keepCursor ? Math.min(this.view.state.selection.main.head, text.length) : 0;
     this.view.dispatch({ changes: { from: 0, to: this.view.state.doc.length, insert: text }, selection: { anchor: head }, annotations: fromProgram.of(true) });
   }
 

@@ -1,6 +1,6 @@
 // The Sweep screen: open a demo scenario or a scenario file, edit it as a form generated from the
-// schema or as raw JSON, see every problem at its field in the words `pliant validate` uses, and
-// save it. Edits in either view go through the shared SweepDocument, so the other screens always
+// schema or as JSON in a code editor, see every problem at its field (and at its line) in the
+// words `pliant validate` uses, and save it. Edits in either view go through the shared SweepDocument, so the other screens always
 // work on what is shown here.
 import type { ExampleScenario } from '../../electron/bridge-contract.ts';
 import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
@@ -229,7 +229,8 @@ export class SweepScreen implements Screen {
     const where = state.path ?? 'not saved yet';
     this.fileLabel.textContent = `${state.fileName} · ${where}${state.readOnly ? ' · demo (read-only)' : ''}${state.dirty ? ' · unsaved changes' : ''}`;
     this.saveButton.disabled = state.text === '';
-    if (change === 'loaded' || (change === 'edited' && !this.text.hasFocus)) this.text.setText(state.text);
+    if (change === 'loaded') this.text.setText(state.text, false);
+    else if (change === 'edited' && !this.text.hasFocus) this.text.setText(state.text, true);
     if ((change === 'loaded' || this.formNeedsRender) && !this.formPane.hidden) this.renderForm(state);
     if (change === 'checked' || change === 'loaded') this.renderProblems(state);
   }
