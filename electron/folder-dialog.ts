@@ -2,6 +2,7 @@
 // for. Whatever the person picks here is what the allowed-folder list then lets requests touch;
 // the dialog function is injected so this runs without Electron.
 import type { OpenDialogOptions, OpenDialogReturnValue } from 'electron';
+import { dirname } from 'node:path';
 import type { FolderPurpose } from './bridge-contract.ts';
 import type { FolderChooser } from './request-services.ts';
 
@@ -38,15 +39,30 @@ export function folderDialogOptions(purpose: FolderPurpose): OpenDialogOptions {
   };
 }
 
+/** Scenario files are opened and saved in the same places, so both dialogs share one memory. */
+const MEMORY_KEY: Partial<Record<FolderPurpose, FolderPurpose>> = { 'scenario-save': 'scenario' };
+
+/**
+ * `startIn`: where a dialog opens before anything was picked for its purpose (the bundled
+ * scenarios for a scenario file); afterwards it opens where the last pick for that purpose was.
+ */
 export function createNativeFolderChooser(
   showOpenDialog: (options: OpenDialogOptions) => Promise<OpenDialogReturnValue>,
+  startIn: Partial<Record<FolderPurpose, string>> = {},
 ): FolderChooser {
+  const last = new Map<FolderPurpose, string>();
   return {
     mode: 'native',
     async choose(purpose) {
-      const result = await showOpenDialog(folderDialogOptions(purpose));
+      const key = MEMORY_KEY[purpose] ?? purpose;
+      const options = folderDialogOptions(purpose);
+      const defaultPath = last.get(key) ?? startIn[key];
+      const result = await showOpenDialog(defaultPath === undefined ? options : { ...options, defaultPath });
       if (result.canceled || result.filePaths.length === 0) return null;
-      return result.filePaths[0];
+      const picked = result.filePaths[0];
+      // A picked file's folder is where the next dialog opens.
+      last.set(key, options.properties?.includes('openFile') ? dirname(picked) : picked);
+      return picked;
     },
   };
 }

@@ -76,6 +76,22 @@ describe('folder.browse with jsonFiles', () => {
     expect(folderDialogOptions('scenario-save').properties).toContain('openDirectory');
   });
 
+  it('a desktop dialog opens where the last pick for its purpose was, else where it is told to start', async () => {
+    const asked: (string | undefined)[] = [];
+    const answers = [join(root, 'tank-tether.json'), join(root, 'korrin-bay'), join(root, 'korrin-bay')];
+    const chooser = createNativeFolderChooser(async (options) => {
+      asked.push(options.defaultPath);
+      return { canceled: false, filePaths: [answers.shift()!] };
+    }, { scenario: '/opt/pliant/scenarios' });
+    if (chooser.mode !== 'native') throw new Error('expected the native chooser');
+    await chooser.choose('scenario');
+    await chooser.choose('scenario-save');
+    await chooser.choose('dataset');
+    // First from the bundled scenarios; then from the picked file's folder, shared by saving;
+    // a dataset dialog has no memory yet.
+    expect(asked).toEqual(['/opt/pliant/scenarios', root, undefined]);
+  });
+
   it('the desktop dialogs are titled for what they open', () => {
     expect(folderDialogOptions('seed').title).toBe('Open a seed file');
     expect(folderDialogOptions('scenario').title).toBe('Open a scenario file');
