@@ -15,6 +15,8 @@ const to = join(root, 'build', 'screenshots');
 const PICTURES = {
   'sweep.png': 'sweep-korrin-tether.png',
   'sweep-problem.png': 'sweep-problem-inline.png',
+  'sweep-json.png': 'sweep-json-problem-mark.png',
+  'sweep-open.png': 'sweep-open-file-chooser.png',
   'preview-tether.png': 'preview-korrin-tether.png',
   'preview-fin-strain.png': 'preview-strain.png',
   'preview-eel.png': 'preview-korrin-eel.png',
@@ -25,7 +27,7 @@ const PICTURES = {
   'preview-large-lattice.png': 'preview-large-lattice.png',
 };
 
-const run = spawnSync(process.execPath, [join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', 'test/e2e-screens.test.ts', 'test/e2e-datasets.test.ts'], {
+const run = spawnSync(process.execPath, [join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', 'test/e2e-screens.test.ts', 'test/e2e-sweep.test.ts', 'test/e2e-datasets.test.ts'], {
   cwd: root,
   stdio: 'inherit',
   env: { ...process.env, CI: process.env.CI ?? 'true' },

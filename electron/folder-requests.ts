@@ -1,11 +1,13 @@
-// Handlers for choosing folders. In the desktop app the system dialog picks and every pick is
+// Handlers for choosing folders. In the desktop app the system dialog picks (a scenario as its
+// file, in one step, whose folder is then allowed) and every pick is
 // added to the allowed folders. In web mode there is no dialog: the page browses subfolder names
 // with folder.browse and confirms one with folder.allow; the session token already proves the
 // caller is the person who started the server.
-import { dirname, join } from 'node:path';
+import { basename, dirname, join } from 'node:path';
 import { realpath } from 'node:fs/promises';
 import { refuseUnsafeSpelling, shown } from './allowed-folders.ts';
 import type { HandlerTable } from './handler-table.ts';
+import type { FolderListing } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 import type { RequestServices } from './request-services.ts';
 
@@ -22,6 +24,8 @@ export function folderRequests(services: RequestServices): FolderRequests {
     }
   };
 
+  const jsonFileNames = async (folder: string): Promise<string[]> => (await files.listFiles(folder, '')).filter((name) => /\.json$/i.test(name));
+
   return {
     'folder.choose': async ({ purpose }) => {
       if (folderChooser.mode !== 'native') {
@@ -29,10 +33,14 @@ export function folderRequests(services: RequestServices): FolderRequests {
       }
       const picked = await folderChooser.choose(purpose);
       if (picked === null) return null;
+      // A scenario is picked as a file in one step: its folder is what the session may then use.
+      if (purpose === 'scenario' && !(await files.isFolder(picked))) {
+        return { path: await folders.allow(dirname(picked), purpose), file: basename(picked) };
+      }
       return { path: await folders.allow(picked, purpose) };
     },
 
-    'folder.browse': async ({ path }) => {
+    'folder.browse': async ({ path, jsonFiles }) => {
       inPageOnly('folder.browse');
       const requested = path === '' ? files.homeFolder() : path;
       refuseUnsafeSpelling(requested);
@@ -42,12 +50,16 @@ export function folderRequests(services: RequestServices): FolderRequests {
       }
       const { names, truncated } = await files.listFolders(real, MAX_LISTED_FOLDERS);
       const parent = dirname(real);
-      return {
+      const listing: FolderListing = {
         path: real,
         parent: parent === real ? null : parent,
         folders: names.map((name) => ({ name, path: join(real, name) })),
         truncated,
       };
+      // Names of .json files only, as the folder names above are: opening one still goes through
+      // folder.allow of its folder, so nothing is read before the person picks it.
+      if (jsonFiles === true) listing.jsonFiles = (await jsonFileNames(real)).map((name) => ({ name, path: join(real, name) }));
+      return listing;
     },
 
     // Both modes: a scenario is opened by picking it from this list rather than typing its name.
@@ -58,7 +70,7 @@ export function folderRequests(services: RequestServices): FolderRequests {
       if (!(await files.isFolder(real))) {
         throw new RequestError('path-refused', `${shown(path)} is a file, not a folder. List the folder that holds it.`);
       }
-      const names = (await files.listFiles(real, '')).filter((name) => /\.json$/i.test(name));
+      const names = await jsonFileNames(real);
       return { path: real, files: names.map((name) => ({ name, path: join(real, name) })) };
     },
 

@@ -58,8 +58,9 @@ async function start(): Promise<void> {
     mode: 'desktop',
     version: app.getVersion(),
     bundledScenariosDir: scenariosDir,
-    folderChooser: createNativeFolderChooser((options) =>
-      mainWindow ? dialog.showOpenDialog(mainWindow, options) : dialog.showOpenDialog(options),
+    folderChooser: createNativeFolderChooser(
+      (options) => (mainWindow ? dialog.showOpenDialog(mainWindow, options) : dialog.showOpenDialog(options)),
+      { scenario: scenariosDir },
     ),
     reportInternalError: (name, error) => console.error(`[pliant] request ${name} failed:`, error),
   });

@@ -15,7 +15,7 @@ import { bodyPixels, chooseFolderInPage, launchChromium, measureStage, openApp, 
 import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import type { PliantWebApp } from './support/e2e-web-app.ts';
 import { LARGE_LATTICE_NODES, largeLatticeScenarioText } from './support/e2e-large-lattice.ts';
-import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
+import { openDemo, replaceScenarioText, scenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
 import { waitInPage } from './support/e2e-page-condition.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 
@@ -113,7 +113,7 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     await saveScreenshot(page, 'sweep-problem-inline');
 
     // The same text, checked by the command line in a folder of its own.
-    const text = await page.inputValue('[data-role="json-text"]');
+    const text = await scenarioText(page);
     const folder = mkdtempSync(join(tmpdir(), 'pliant-e2e-validate-'));
     try {
       writeFileSync(join(folder, 'korrin-tether.json'), text);

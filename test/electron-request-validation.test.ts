@@ -127,7 +127,7 @@ describe('argument validation against the contract schemas (JSON Schema 2020-12)
 
   it('refuses values outside an enum, and integers out of range or with a fraction', async () => {
     expect(refusal(await handlers.handle('folder.choose', { purpose: 'root' })).message).toBe(
-      'Argument /purpose of folder.choose must be one of "dataset", "export", "scenario", "predictions", "report", "pictures", not "root".',
+      'Argument /purpose of folder.choose must be one of "dataset", "export", "scenario", "predictions", "report", "pictures", "seed", "scenario-save", not "root".',
     );
     const base = { scenarioText: '{}', outDir: picked, format: 'npz', resume: false };
     expect(refusal(await handlers.handle('export.begin', { ...base, workers: 1.5 })).message).toMatch(/\/workers of export\.begin must be an integer, not 1\.5/);

@@ -40,9 +40,9 @@ function bridge(overrides: Partial<WebBridgeOptions> = {}) {
 
 /** The page's own chooser as a person would use it: list the start folder, open "korrin-bay". */
 const pickKorrinBay: InPageFolderPicker = async (_purpose, browse) => {
-  const start = await browse(root);
+  const start = await browse(root, false);
   const folder = start.folders.find((f) => f.name === 'korrin-bay');
-  return folder ? folder.path : null;
+  return folder ? { path: folder.path } : null;
 };
 
 beforeAll(async () => {

@@ -11,8 +11,11 @@ import { BridgeRequestError } from './bridge-request-error.ts';
 import type { PliantBridge } from './pliant-bridge.ts';
 import { unwrapReply } from './unwrap-reply.ts';
 
-/** The page's own folder chooser: browses with `browse` and resolves with the chosen folder, or null. */
-export type InPageFolderPicker = (purpose: FolderPurpose, browse: (path: string) => Promise<FolderListing>) => Promise<string | null>;
+/**
+ * The page's own folder chooser: browses with `browse` (asking for the .json files too where it
+ * lists them) and resolves with the chosen folder and, when one was clicked, a file in it; or null.
+ */
+export type InPageFolderPicker = (purpose: FolderPurpose, browse: (path: string, jsonFiles: boolean) => Promise<FolderListing>) => Promise<{ path: string; file?: string } | null>;
 
 export type FetchLike = (
   url: string,
@@ -71,9 +74,10 @@ export function createWebBridge(options: WebBridgeOptions): PliantBridge {
     if (!options.pickFolderInPage) {
       throw new BridgeRequestError('not-available', 'This page has no folder chooser for web mode yet.');
     }
-    const picked = await options.pickFolderInPage(purpose, (path) => post('folder.browse', { path }));
+    const picked = await options.pickFolderInPage(purpose, (path, jsonFiles) => post('folder.browse', jsonFiles ? { path, jsonFiles } : { path }));
     if (picked === null) return null;
-    return post('folder.allow', { path: picked, purpose });
+    const allowed = await post('folder.allow', { path: picked.path, purpose });
+    return picked.file === undefined ? allowed : { ...allowed, file: picked.file };
   };
 
   const openStream = (): EventSourceLike => {

@@ -78,7 +78,7 @@ export class SeedScreen implements Screen {
 
   private async choose(): Promise<void> {
     try {
-      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'dataset' });
+      const chosen = await this.bridge.invoke('folder.choose', { purpose: 'seed' });
       if (chosen) await this.open(insideFolder(chosen.path, 'seed.json'));
     } catch (error) {
       this.status.error('Could not choose a folder', error);

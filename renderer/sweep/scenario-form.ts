@@ -2,12 +2,17 @@
 // become selects, every numeric physical value gets a fixed-or-distribution editor with its unit
 // and a histogram, optional members can be added and removed, and anything without a dedicated
 // editor (material maps) is edited as a small JSON box. Problems from the checker appear at the
-// field their JSON pointer names, or at its nearest shown ancestor.
+// field their JSON pointer names, or at its nearest shown ancestor. Every section folds, and a
+// navigation column jumps to the top-level ones and counts their problems. Labels are the
+// schema's words with the unit ("Length, m"); the key shows on hover.
 import { button, h, select } from '../ui/element.ts';
 import { pointerAncestry, pointerOf, setValueAt } from './json-pointer.ts';
 import type { FieldKind, SchemaObject } from './schema-shape.ts';
 import { SchemaReader } from './schema-shape.ts';
 import { unitOfField } from './unit-from-key.ts';
+import { fieldLabel } from './field-label.ts';
+import { SectionNav } from './section-nav.ts';
+import type { SectionEntry } from './section-nav.ts';
 import { numberInput, valueSpecEditor } from './value-spec-editor.ts';
 
 export interface ScenarioFormEvents {
@@ -28,6 +33,10 @@ export class ScenarioForm {
   readonly root = h('div', { className: 'scenario-form', attrs: { 'data-role': 'scenario-form' } });
   private readonly reader: SchemaReader;
   private readonly slots = new Map<string, HTMLElement>();
+  readonly nav = new SectionNav((pointer) => this.reveal(pointer));
+  /** Pointers of the sections the person folded; kept when the form is built again. */
+  private readonly folded = new Set<string>();
+  private readonly sections = new Map<string, HTMLElement>();
   private document: Record<string, unknown> = {};
 
   constructor(schema: SchemaObject, private readonly events: ScenarioFormEvents) {
@@ -37,11 +46,53 @@ export class ScenarioForm {
   render(document: Record<string, unknown>): void {
     this.document = document;
     this.slots.clear();
+    this.sections.clear();
     const scroll = this.root.scrollTop;
     const rootSlot = h('div', { className: 'field-problems', attrs: { 'data-problems-for': '' } });
     this.slots.set('', rootSlot);
     this.root.replaceChildren(rootSlot, this.objectBody(this.reader.root, document, ''));
     this.root.scrollTop = scroll;
+    this.nav.show(this.sectionEntries());
+  }
+
+  /** Unfolds the field a problem at `pointer` is shown at (its nearest shown ancestor) and scrolls to it. */
+  revealProblem(pointer: string): void {
+    const home = pointerAncestry(pointer).find((p) => this.slots.has(p)) ?? '';
+    const slot = this.slots.get(home);
+    this.reveal(home, slot?.closest<HTMLElement>('.field') ?? undefined);
+  }
+
+  /** Unfolds the section at pointer (and every section around it) and scrolls it into view. */
+  reveal(pointer: string, element?: HTMLElement): void {
+    const target = element ?? (pointer === '' ? this.root : this.sections.get(pointer));
+    if (!target) return;
+    for (let section: HTMLElement | null = target; section; section = section.parentElement?.closest<HTMLElement>('.section') ?? null) {
+      const at = section.getAttribute('data-pointer');
+      if (at !== null && this.folded.has(at)) this.setFolded(section, at, false);
+    }
+    target.scrollIntoView({ block: 'start' });
+    target.querySelector<HTMLElement>('.fold-toggle, input, select, textarea')?.focus({ preventScroll: true });
+  }
+
+  /** The scenario's own values, each top-level section, and the materials of a lattice. */
+  private sectionEntries(): SectionEntry[] {
+    const entries: SectionEntry[] = [{ pointer: '', label: 'General', nested: false }];
+    for (const [pointer, section] of this.sections) {
+      const depth = pointer.split('/').length - 1;
+      const name = section.getAttribute('data-section-label') ?? pointer;
+      if (depth === 1) entries.push({ pointer, label: name, nested: false });
+      else if (pointer === '/system/materials' || pointer === '/system/materialTemplates') entries.push({ pointer, label: name, nested: true });
+    }
+    return entries;
+  }
+
+  private setFolded(section: HTMLElement, pointer: string, folded: boolean): void {
+    if (folded) this.folded.add(pointer);
+    else this.folded.delete(pointer);
+    section.classList.toggle('is-folded', folded);
+    const toggle = section.querySelector(':scope > legend .fold-toggle');
+    toggle?.setAttribute('aria-expanded', String(!folded));
+    toggle?.setAttribute('title', folded ? 'Show this section' : 'Fold this section away');
   }
 
   /** Shows each problem at its field; returns how many found no closer home than the whole document. */
@@ -50,6 +101,7 @@ export class ScenarioForm {
       slot.replaceChildren();
       slot.closest('.field')?.classList.remove('has-problem');
     }
+    this.nav.showProblems(problems.map((p) => p.pointer));
     let atRoot = 0;
     for (const problem of problems) {
       const home = pointerAncestry(problem.pointer).find((p) => this.slots.has(p)) ?? '';
@@ -82,7 +134,7 @@ export class ScenarioForm {
       const present = key in current;
       const optional = !kind.required.includes(key);
       if (!present) {
-        if (optional) addable.push(button(`+ ${key}`, () => this.set(childPointer, this.reader.defaultValue(sub), true), { className: 'add-member', title: describe(this.reader.resolve(sub)), attrs: { 'data-add': childPointer } }));
+        if (optional) addable.push(button(`+ ${fieldLabel(key, this.reader.resolve(sub).title, null)}`, () => this.set(childPointer, this.reader.defaultValue(sub), true), { className: 'add-member', title: `${key}: ${describe(this.reader.resolve(sub))}`, attrs: { 'data-add': childPointer } }));
         else body.append(this.field(key, sub, undefined, childPointer, false));
         continue;
       }
@@ -103,29 +155,36 @@ export class ScenarioForm {
       if (pointer === '') throw new RangeError('the document itself has no kind');
       this.set(pointer, fresh, true);
     });
-    return this.wrapField(key, childPointer, null, describe(this.reader.resolve((this.reader.effective(schema, current).properties as SchemaObject)?.[key])), chooser, false);
+    const member = this.reader.resolve((this.reader.effective(schema, current).properties as SchemaObject)?.[key]);
+    return this.wrapField(key, childPointer, null, describe(member), chooser, false, fieldLabel(key, member.title, null));
   }
 
-  private field(key: string, schema: unknown, value: unknown, pointer: string, optional: boolean): HTMLElement {
+  /** `named`: the key is a name the person chose (a material, a channel), shown as written. */
+  private field(key: string, schema: unknown, value: unknown, pointer: string, optional: boolean, named = false): HTMLElement {
     const resolved = this.reader.resolve(schema);
     const kind = this.reader.classify(schema, value);
     const unit = unitOfField(key, typeof resolved.description === 'string' ? resolved.description : undefined);
+    const title = named ? undefined : resolved.title;
     if (kind.kind === 'object' || kind.kind === 'record' || kind.kind === 'variants' || (kind.kind === 'array' && !this.isInlineArray(kind))) {
-      const section = h('fieldset', { className: 'field section', attrs: { 'data-pointer': pointer } });
-      const legend = h('legend', {}, h('span', { className: 'section-name', text: key }));
+      const label = fieldLabel(key, title, null);
+      const section = h('fieldset', { className: 'field section', attrs: { 'data-pointer': pointer, 'data-section-label': label } });
+      const toggle = button('▾', () => this.setFolded(section, pointer, !section.classList.contains('is-folded')), { className: 'fold-toggle', attrs: { 'aria-expanded': 'true', 'aria-label': `Fold ${label}`, 'data-fold': pointer } });
+      const legend = h('legend', {}, toggle, h('span', { className: 'section-name', text: label, title: key }));
       if (optional) legend.append(button('remove', () => this.set(pointer, undefined, true), { className: 'remove-member', attrs: { 'data-remove': pointer } }));
       const slot = h('div', { className: 'field-problems', attrs: { 'data-problems-for': pointer } });
       this.slots.set(pointer, slot);
-      section.append(legend, h('p', { className: 'field-help', text: firstSentence(describe(resolved)) }), slot, this.editor(kind, schema, value, pointer, key));
+      this.sections.set(pointer, section);
+      section.append(legend, h('p', { className: 'field-help', text: firstSentence(describe(resolved)) }), slot, this.editor(kind, schema, value, pointer, key, null, label));
+      if (this.folded.has(pointer)) this.setFolded(section, pointer, true);
       return section;
     }
-    return this.wrapField(key, pointer, unit, describe(resolved), this.editor(kind, schema, value, pointer, key, unit), optional);
+    return this.wrapField(key, pointer, unit, describe(resolved), this.editor(kind, schema, value, pointer, key, unit), optional, fieldLabel(key, title, unit));
   }
 
-  private wrapField(key: string, pointer: string, unit: string | null, description: string, editor: HTMLElement, optional: boolean): HTMLElement {
+  private wrapField(key: string, pointer: string, unit: string | null, description: string, editor: HTMLElement, optional: boolean, label = key): HTMLElement {
     const slot = h('div', { className: 'field-problems', attrs: { 'data-problems-for': pointer } });
     this.slots.set(pointer, slot);
-    const caption = h('div', { className: 'field-head' }, h('span', { className: 'field-name', text: key, title: description }), unit ? h('span', { className: 'unit-badge', text: unit === '1' ? 'dimensionless' : unit }) : null);
+    const caption = h('div', { className: 'field-head' }, h('span', { className: 'field-name', text: label, title: key }), unit === '1' ? h('span', { className: 'unit-badge', text: 'dimensionless' }) : null);
     if (optional) caption.append(button('remove', () => this.set(pointer, undefined, true), { className: 'remove-member', attrs: { 'data-remove': pointer } }));
     return h('div', { className: 'field', attrs: { 'data-pointer': pointer } }, caption, editor, h('p', { className: 'field-help', text: firstSentence(description) }), slot);
   }
@@ -135,7 +194,7 @@ export class ScenarioForm {
     return kind.fixedLength !== null || Array.isArray(item.enum) || this.reader.classify(item, undefined).kind === 'json' || isArrayType(item);
   }
 
-  private editor(kind: FieldKind, schema: unknown, value: unknown, pointer: string, key: string, unit: string | null = null): HTMLElement {
+  private editor(kind: FieldKind, schema: unknown, value: unknown, pointer: string, key: string, unit: string | null = null, label = key): HTMLElement {
     switch (kind.kind) {
       case 'value-spec':
         return valueSpecEditor({
@@ -179,7 +238,7 @@ export class ScenarioForm {
       case 'record':
         return this.recordEditor(kind.valueSchema, value, pointer);
       case 'array':
-        return this.arrayEditor(kind, value, pointer, key, unit);
+        return this.arrayEditor(kind, value, pointer, key, unit, label);
       case 'json':
         return this.jsonBox(value, pointer);
     }
@@ -197,7 +256,7 @@ export class ScenarioForm {
     const list = h('div', { className: 'record-entries' });
     for (const [name, entry] of entries) {
       const entryPointer = pointerOf(pointer, name);
-      list.append(this.field(name, valueSchema, entry, entryPointer, true));
+      list.append(this.field(name, valueSchema, entry, entryPointer, true, true));
     }
     const nameInput = h('input', { attrs: { type: 'text', placeholder: 'name, e.g. actuator-0', 'aria-label': `new member of ${pointer}`, 'data-role': 'record-new-name' } });
     const add = button('+ add', () => {
@@ -209,7 +268,7 @@ export class ScenarioForm {
     return list;
   }
 
-  private arrayEditor(kind: Extract<FieldKind, { kind: 'array' }>, value: unknown, pointer: string, key: string, unit: string | null): HTMLElement {
+  private arrayEditor(kind: Extract<FieldKind, { kind: 'array' }>, value: unknown, pointer: string, key: string, unit: string | null, words = key): HTMLElement {
     const items = Array.isArray(value) ? value : [];
     const item = this.reader.resolve(kind.itemSchema);
     if (Array.isArray(item.enum)) return this.enumSetEditor(item.enum as string[], items, pointer);
@@ -218,9 +277,11 @@ export class ScenarioForm {
     items.forEach((entry, i) => {
       const itemPointer = pointerOf(pointer, i);
       const itemKind = this.reader.classify(item, entry);
-      const label = kind.fixedLength === 3 ? AXIS_NAMES[i] : `${key}[${i}]`;
+      // An item with a name (a material) shows it; others their place, counted from 1 as people do.
+      const named = typeof entry === 'object' && entry !== null && typeof (entry as { name?: unknown }).name === 'string' ? (entry as { name: string }).name : null;
+      const label = kind.fixedLength === 3 ? AXIS_NAMES[i] : named ?? `${words} ${i + 1}`;
       if (itemKind.kind === 'object' || itemKind.kind === 'variants') {
-        const section = this.field(label, item, entry, itemPointer, false);
+        const section = this.field(label, item, entry, itemPointer, false, true);
         if (kind.fixedLength === null) section.querySelector('legend')?.append(button('remove', () => this.set(itemPointer, undefined, true), { className: 'remove-member', attrs: { 'data-remove': itemPointer } }));
         list.append(section);
         return;

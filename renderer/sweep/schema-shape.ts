@@ -84,6 +84,10 @@ export class SchemaReader {
     }
     const rawTypes = typeList(raw);
     if (rawTypes.length > 1 && !rawTypes.includes('object') && !rawTypes.includes('array')) return { kind: 'scalar', types: rawTypes };
+    // "A word, an object or a whole number", told apart by type (sub-steps: "auto", {"accuracy": ε}
+    // or a count): a choice between forms, so each can be picked, not only the one written.
+    const byType = this.typeBranches(raw, rawTypes);
+    if (byType.length > 1) return { kind: 'variants', variants: byType };
     const s = this.effective(raw, value);
     if ('const' in s) return { kind: 'const', value: s.const };
     if (Array.isArray(s.enum)) return { kind: 'enum', values: s.enum as (string | number | boolean | null)[] };
@@ -108,6 +112,32 @@ export class SchemaReader {
       }
     }
     return { kind: 'json' };
+  }
+
+  /** The forms of an if/then/else chain on `type` over a union of types, each with its type fixed. */
+  private typeBranches(raw: SchemaObject, types: string[]): VariantInfo[] {
+    if (types.length < 2) return [];
+    const out: VariantInfo[] = [];
+    const left = new Set(types);
+    let node: SchemaObject = raw;
+    for (let guard = 0; guard < 8 && isObject(node.if) && typeof node.if.type === 'string' && isObject(node.then); guard++) {
+      const type = node.if.type;
+      out.push(this.typedVariant(type, node.then));
+      left.delete(type);
+      if (!isObject(node.else)) return [];
+      node = node.else;
+    }
+    if (out.length === 0) return [];
+    // What is left after the last `if` is the form of the one remaining type.
+    if (left.size === 1) out.push(this.typedVariant([...left][0], node));
+    return out;
+  }
+
+  private typedVariant(type: string, branch: unknown): VariantInfo {
+    const schema: SchemaObject = { ...this.resolve(branch), type };
+    if (Array.isArray(schema.enum) && schema.enum.length === 1) return { label: String(schema.enum[0]), schema };
+    if (type === 'integer' || type === 'number') return { label: type === 'integer' ? 'a whole number' : 'a number', schema };
+    return { label: this.variantLabel(schema, 0), schema };
   }
 
   /** A starting value for a newly added member or a newly picked variant. */
@@ -147,6 +177,7 @@ export class SchemaReader {
 
   private matches(condition: SchemaObject, value: unknown): boolean {
     if (condition.type === 'number') return typeof value === 'number';
+    if (condition.type === 'integer') return typeof value === 'number' && Number.isInteger(value);
     if (condition.type === 'string') return typeof value === 'string';
     if (isObject(condition.properties)) {
       if (!isObject(value)) return false;

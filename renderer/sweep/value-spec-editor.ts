@@ -137,11 +137,14 @@ function withMember(spec: Record<string, unknown>, member: string, v: unknown): 
   return next;
 }
 
-/** A text box for a number: what is typed is kept, so a typo reaches the checker and is reported there. */
+/**
+ * A text box for a number: what is typed is kept, so a typo reaches the checker and is reported
+ * there. A word such as "auto" shows as the word, without its JSON quotes.
+ */
 export function numberInput(pointer: string, value: unknown, unit: string | null, onValue: (v: unknown) => void): HTMLElement {
   const input = h('input', {
     className: 'number-input',
-    attrs: { type: 'text', inputmode: 'decimal', spellcheck: 'false', value: value === undefined ? '' : typeof value === 'number' ? String(value) : JSON.stringify(value), 'data-pointer': pointer, 'aria-label': pointer },
+    attrs: { type: 'text', inputmode: 'decimal', spellcheck: 'false', value: value === undefined ? '' : typeof value === 'number' || typeof value === 'string' ? String(value) : JSON.stringify(value), 'data-pointer': pointer, 'aria-label': pointer },
   });
   input.addEventListener('change', () => onValue(parseTyped(input.value)));
   return h('span', { className: 'number-with-unit' }, input, unit ? h('span', { className: 'unit', text: unit }) : null);

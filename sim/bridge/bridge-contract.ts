@@ -44,7 +44,7 @@ export const BRIDGE_LIMITS = {
  * a model's predictions folder (read), a report folder (a score or calibration report to open,
  * or the folder a score job writes into), or the folder an episode's pictures are saved into.
  */
-export type FolderPurpose = 'dataset' | 'export' | 'scenario' | 'predictions' | 'report' | 'pictures';
+export type FolderPurpose = 'dataset' | 'export' | 'scenario' | 'predictions' | 'report' | 'pictures' | 'seed' | 'scenario-save';
 export type ExportFormat = 'npz' | 'hdf5' | 'both';
 /**
  * A split's name. Every scenario has 'train', 'validation' and 'test'; held-out rules add splits
@@ -109,6 +109,8 @@ export interface ScenarioCheck {
 
 export interface ChosenFolder {
   path: string;
+  /** Web mode: the .json file in it the person picked in the chooser (a name, no folder), if they picked one. */
+  file?: string;
 }
 
 export interface JsonFileListing {
@@ -126,6 +128,8 @@ export interface FolderListing {
   folders: { name: string; path: string }[];
   /** True when the folder held more subfolders than one listing returns. */
   truncated: boolean;
+  /** Its .json files, sorted by name, when the request asked for them (a scenario is picked in one step). */
+  jsonFiles?: { name: string; path: string }[];
 }
 
 export interface JobStarted {
@@ -389,7 +393,7 @@ export interface RequestMap {
   'scenario.write': { args: { path: string; text: string }; result: WrittenFile };
   'scenario.check': { args: { text: string; fileName: string }; result: ScenarioCheck };
   'folder.choose': { args: { purpose: FolderPurpose }; result: ChosenFolder | null };
-  'folder.browse': { args: { path: string }; result: FolderListing };
+  'folder.browse': { args: { path: string; jsonFiles?: boolean }; result: FolderListing };
   'folder.allow': { args: { path: string; purpose: FolderPurpose }; result: ChosenFolder };
   'folder.listJson': { args: { path: string }; result: JsonFileListing };
   'export.begin': {
@@ -566,7 +570,7 @@ const pathSchema = (description: string): JsonSchema => ({
   pattern: '^[^\\u0000]*$',
 });
 
-const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario', 'predictions', 'report', 'pictures'] };
+const purposeSchema: JsonSchema = { type: 'string', enum: ['dataset', 'export', 'scenario', 'predictions', 'report', 'pictures', 'seed', 'scenario-save'] };
 
 function closedObject(name: string, properties: Record<string, JsonSchema>, required: string[]): JsonSchema {
   return {
@@ -616,6 +620,7 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
         maxLength: BRIDGE_LIMITS.pathChars,
         pattern: '^[^\\u0000]*$',
       },
+      jsonFiles: { type: 'boolean', description: 'Also list the folder\'s .json files, so a scenario file is picked in the chooser itself.' },
     },
     ['path'],
   ),

@@ -4,6 +4,7 @@
 import { parseJsonText, placeProblems } from './json-source-map.ts';
 import { findPhysicalProblems } from './physical-checks.ts';
 import { findSchemaProblems } from './schema-problems.ts';
+import { findRangeProblemsBesideSchema } from './range-checks-beside-schema.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
 import { drawTextMaps } from './draw-text-maps.ts';
@@ -26,7 +27,8 @@ export function checkScenarioValue(value: unknown): ScenarioCheck {
   // Defaults are filled into a copy, so the caller's value stays as written.
   const copy = copyJson(value);
   const schemaProblems = findSchemaProblems(copy);
-  if (schemaProblems.length > 0) return { ok: false, problems: schemaProblems };
+  // The parts the schema accepts are checked further right away, so every problem shows at once.
+  if (schemaProblems.length > 0) return { ok: false, problems: [...schemaProblems, ...findRangeProblemsBesideSchema(copy, schemaProblems)] };
   if (hasMaterialTemplates(copy)) {
     const expanded = expandMaterialTemplates(copy);
     if (expanded.length > 0) return { ok: false, problems: expanded };

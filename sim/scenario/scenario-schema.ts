@@ -8,6 +8,7 @@ import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-sc
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
 import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_MODE_COORDINATES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
+import { withFieldTitles } from './field-titles.ts';
 import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
 import { DESIGN_KINDS } from '../design/design-spec.ts';
 import { DEFAULT_EXPORT_COMPRESSION, EXPORT_COMPRESSIONS, SEED_COMPRESSION_BEFORE_CHOICE, describeCompression } from './export-compression.ts';
@@ -568,7 +569,8 @@ const observationSchema = closed(
   [],
 );
 
-export const SCENARIO_SCHEMA: JsonSchema = {
+// withFieldTitles: every member gets its short label ("Length" for lengthM) as its title.
+export const SCENARIO_SCHEMA: JsonSchema = withFieldTitles({
   $schema: 'https://json-schema.org/draft/2020-12/schema',
   $id: SCENARIO_SCHEMA_ID,
   title: 'Pliant scenario',
@@ -612,4 +614,4 @@ export const SCENARIO_SCHEMA: JsonSchema = {
   additionalProperties: false,
   // Last, so that every valueSpecSchema above has put its definition in by now.
   $defs: { controlSpec: controlSpecSchema, ...VALUE_SPEC_DEFINITIONS },
-};
+});

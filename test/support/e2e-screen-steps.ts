@@ -5,6 +5,8 @@ import { waitInPage } from './e2e-page-condition.ts';
 
 export async function openDemo(page: Page, fileName: string): Promise<void> {
   await page.click('[data-nav="sweep"]');
+  // The form is built only while its tab is shown.
+  await page.click('[data-role="tab-form"]');
   await page.waitForSelector('[data-role="example-list"] option', { state: 'attached' });
   const options = await page.$$eval('[data-role="example-list"] option', (all) => all.map((o) => [o.getAttribute('value') ?? '', o.textContent ?? '']));
   const found = options.find(([, text]) => text === fileName);
@@ -27,11 +29,17 @@ export async function waitForPreviewFinished(page: Page, timeoutMs = 90_000): Pr
   if (state !== 'finished') throw new Error(`the preview did not finish: ${await page.textContent('[data-role="preview-status"]')}`);
 }
 
+/** The text in the JSON view's editor, whole (the editor draws only the lines on screen). */
+export async function scenarioText(page: Page): Promise<string> {
+  return page.$eval('[data-role="json-text"]', (host) => String((host as unknown as { value: string }).value));
+}
+
 /** Replaces the scenario through the JSON text view and waits for the check of the new text. */
 export async function replaceScenarioText(page: Page, text: string): Promise<void> {
   await page.click('[data-nav="sweep"]');
   await page.click('[data-role="tab-text"]');
-  await page.fill('[data-role="json-text"]', text);
+  // The JSON view is a CodeMirror editor: its editable element takes the text as typed input.
+  await page.fill('[data-role="json-text"] .cm-content', text);
   await waitInPage(page, `['ok', 'problems'].includes(document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state'))`, 30_000);
   // The settle delay passes before the check starts; wait for the check of this text.
   await page.waitForTimeout(500);
