@@ -455,3 +455,15 @@ describe('named parameters in a scenario', () => {
     expect(sampleEpisode(page.scenario, 4).labels).toEqual(sampleEpisode(shell.scenario, 4).labels);
   });
 });
+
+describe('the Sweep screen\'s form reads the linked forms of the schema', () => {
+  it('still sees every value spec as one, with its distribution kinds, past the ref and expr branches', async () => {
+    const { SchemaReader } = await import('../renderer/sweep/schema-shape.ts');
+    const { SCENARIO_SCHEMA } = await import('../sim/scenario/scenario-schema.ts');
+    const reader = new SchemaReader(SCENARIO_SCHEMA as Record<string, unknown>);
+    const chain = (SCENARIO_SCHEMA.properties as any).system.allOf[0].then.properties;
+    expect(reader.classify(chain.lengthM, { ref: '/params/k' })).toEqual({ kind: 'value-spec', integer: false, distributionKinds: ['uniform', 'log-uniform', 'normal', 'integer', 'categorical'] });
+    expect(reader.classify(chain.partCount, 12)).toEqual({ kind: 'value-spec', integer: true, distributionKinds: ['integer', 'categorical'] });
+    expect(reader.classify((SCENARIO_SCHEMA.properties as any).params, {}).kind).toBe('record');
+  });
+});
