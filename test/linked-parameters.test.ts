@@ -6,7 +6,8 @@
 // scenario tests check the promises of the format: one draw per parameter and episode, shared
 // by every place that names it, from the stream of its own pointer; problems named at their
 // pointer and line; every resolved value in the labels; seed.json reproducing it.
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -28,6 +29,7 @@ import { EpisodeDraws } from '../sim/scenario/episode-draws.ts';
 import { makeSeedFile, parseSeedFile, renderSeedFile } from '../sim/dataset/seed-file.ts';
 import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
+import { runCli } from '../sim/cli/main.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const eelText = readFileSync(join(ROOT, 'scenarios/korrin-eel.json'), 'utf8');
@@ -390,6 +392,14 @@ describe('named parameters in a scenario', () => {
     expect(sampleEpisode(checked(s), 2).labels['/system/partCount']).toBe(Math.round((labels['/params/n'] as number) / 3));
   });
 
+  it('a malformed parameter distribution is reported once, at the parameter, not again at each use', () => {
+    const s = tether();
+    s.params = { k: { kind: 'uniform', min: 5000, max: 2000 } };
+    s.system.axialStiffnessN = { ref: '/params/k' };
+    s.system.lengthM = { expr: '/params/k / 2000' };
+    expect(problemsOf(s)).toEqual([{ pointer: '/params/k/max', message: 'max 2000 is below min 5000; swap them or correct one' }]);
+  });
+
   it('a divisor that can be zero is refused before any value is drawn', () => {
     const s = tether();
     s.params = { k: { kind: 'uniform', min: -1, max: 1 } };
@@ -466,4 +476,33 @@ describe('the Sweep screen\'s form reads the linked forms of the schema', () => 
     expect(reader.classify(chain.partCount, 12)).toEqual({ kind: 'value-spec', integer: true, distributionKinds: ['integer', 'categorical'] });
     expect(reader.classify((SCENARIO_SCHEMA.properties as any).params, {}).kind).toBe('record');
   });
+});
+
+describe('pliant generate and reproduce with named parameters', () => {
+  it('the eel demo: the manifest labels the parameters and every resolved stiffness, and reproduce finds every file identical', async () => {
+    const work = mkdtempSync(join(tmpdir(), 'pliant-linked-'));
+    try {
+      const cli = async (args: string[]) => {
+        let stdout = '';
+        let stderr = '';
+        const code = await runCli(args, { stdout: (t) => void (stdout += t), stderr: (t) => void (stderr += t), isTerminal: false, env: {}, cwd: work });
+        return { code, stdout, stderr };
+      };
+      const made = await cli(['generate', join(ROOT, 'scenarios/korrin-eel.json'), '--out', join(work, 'eel'), '--episodes', '2', '--format', 'npz', '--workers', '1', '--progress', 'none']);
+      expect(made.stderr).toBe('');
+      expect(made.code).toBe(0);
+      const manifest = JSON.parse(readFileSync(join(work, 'eel', 'manifest.json'), 'utf8'));
+      const labels = manifest.episodes[1].labels;
+      const head = labels['/params/headStiffnessPa'];
+      const ratio = labels['/params/tailStiffnessRatio'];
+      expect(labels['/system/materials/1/youngsModulusPa']).toBe(head);
+      expect(labels['/system/materials/9/youngsModulusPa']).toBe(head * (1 + ((ratio - 1) * 4) / 7));
+      const again = await cli(['reproduce', join(work, 'eel', 'seed.json'), '--out', join(work, 'again'), '--workers', '1', '--progress', 'none']);
+      expect(again.stderr).toBe('');
+      expect(again.code).toBe(0);
+      expect(again.stdout.trim().split('\n').at(-1)).toMatch(/^all \d+ files identical$/);
+    } finally {
+      rmSync(work, { recursive: true, force: true });
+    }
+  }, 120_000);
 });

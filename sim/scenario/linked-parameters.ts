@@ -21,6 +21,7 @@ import {
 } from '../random/derived-expression.ts';
 import type { DerivedExpression, ValueInterval } from '../random/derived-expression.ts';
 import { childPointer } from '../random/spec-problem.ts';
+import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { closestName } from './closest-name.ts';
 import { pointerSegments } from './json-source-map.ts';
 import type { ParameterResolver } from './parameter-resolver.ts';
@@ -330,6 +331,12 @@ export function checkLinks(scenario: Scenario, schemaProblems: (value: unknown) 
   if (problems.length > 0) return { ok: false, problems };
   linkCache.set(scenario, links);
   if (!hasLinkedForms(links)) return { ok: true, view: scenario };
+  // A range drawn from a malformed distribution means nothing: report the distribution alone.
+  const malformed: ScenarioProblem[] = [];
+  for (const [name, spec] of links.drawn) {
+    for (const p of findValueSpecProblems(spec, parameterPointer(name))) malformed.push({ pointer: p.pointer, message: `${p.message}; ${p.fix}` });
+  }
+  if (malformed.length > 0) return { ok: false, problems: malformed };
   const unbounded: ScenarioProblem[] = [];
   const describe = (place: LinkedPlace) => `${JSON.stringify(place.text)}`;
   for (const place of [...links.derived, ...links.places]) {
