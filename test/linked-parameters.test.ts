@@ -479,7 +479,7 @@ describe('the Sweep screen\'s form reads the linked forms of the schema', () => 
 });
 
 describe('pliant generate and reproduce with named parameters', () => {
-  it('the eel demo: the manifest labels the parameters and every resolved stiffness, and reproduce finds every file identical', async () => {
+  it('the eel demo: the manifest labels the parameters and every resolved stiffness, the card says where each comes from, and reproduce finds every file identical', async () => {
     const work = mkdtempSync(join(tmpdir(), 'pliant-linked-'));
     try {
       const cli = async (args: string[]) => {
@@ -497,6 +497,10 @@ describe('pliant generate and reproduce with named parameters', () => {
       const ratio = labels['/params/tailStiffnessRatio'];
       expect(labels['/system/materials/1/youngsModulusPa']).toBe(head);
       expect(labels['/system/materials/9/youngsModulusPa']).toBe(head * (1 + ((ratio - 1) * 4) / 7));
+      const card = readFileSync(join(work, 'eel', 'CARD.md'), 'utf8');
+      expect(card).toContain('### `/params/headStiffnessPa` (Pa)\n\nSampled from `{"kind":"log-uniform","min":25000,"max":60000}`.');
+      expect(card).toContain('### `/system/materials/1/youngsModulusPa` (Pa)\n\nTakes the named parameter `/params/headStiffnessPa`.');
+      expect(card).toContain('### `/system/materials/9/youngsModulusPa` (Pa)\n\nDerived from named parameters: `/params/headStiffnessPa * (1 + (/params/tailStiffnessRatio - 1) * 4 / 7)`.');
       const again = await cli(['reproduce', join(work, 'eel', 'seed.json'), '--out', join(work, 'again'), '--workers', '1', '--progress', 'none']);
       expect(again.stderr).toBe('');
       expect(again.code).toBe(0);
