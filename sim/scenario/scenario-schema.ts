@@ -540,7 +540,7 @@ export const SCENARIO_SCHEMA: JsonSchema = {
   $schema: 'https://json-schema.org/draft/2020-12/schema',
   $id: SCENARIO_SCHEMA_ID,
   title: 'Pliant scenario',
-  description: `A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "categorical", ...} drawn once per episode. ${SAFETY_CAUTION}`,
+  description: `A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "categorical", ...} drawn once per episode, or {"ref": "/params/<name>"} or {"expr": "2 * /params/<name>"} of the named parameters under "params". ${SAFETY_CAUTION}`,
   type: 'object',
   properties: {
     $schema: { type: 'string', description: 'Optional: where an editor finds this schema.' },
