@@ -361,6 +361,15 @@ describe('named parameters in a scenario', () => {
     expect(problems[1].message).toContain('"params/k" is not allowed here');
   });
 
+  it('a misspelt "ref" is pointed out beside the missing "kind"', () => {
+    const s = tether();
+    s.params = { k: 2 };
+    s.system.lengthM = { refs: '/params/k' };
+    expect(problemsOf(s)).toEqual([
+      { pointer: '/system/lengthM', message: 'is missing the key "kind" (one of "uniform", "log-uniform", "normal", "integer", "categorical"); or, for a named parameter, did you mean "ref" instead of "refs"?' },
+    ]);
+  });
+
   it('a derived value is checked against the limits of the place that uses it, by interval arithmetic', () => {
     const s = tether();
     s.params = { k: { kind: 'uniform', min: 500, max: 2000 } };
