@@ -19,7 +19,9 @@ function checked(value: unknown) {
 }
 
 // The eel's materials as the demo wrote them before templates: 16 full copies, written out by
-// hand (segment s, bottom row on channel 2s, top row on 2s + 1).
+// hand (segment s, bottom row on channel 2s, top row on 2s + 1). The head segment takes the
+// template's stiffness, the shared /params/headStiffnessPa; the others override it with the
+// linear fall towards the tail (see test/linked-parameters.test.ts for the values).
 function eelWrittenInFull(): Record<string, any> {
   const eel = JSON.parse(eelText);
   delete eel.system.materialTemplates;
@@ -28,7 +30,7 @@ function eelWrittenInFull(): Record<string, any> {
     for (const [offset, side] of [[0, 'bottom'], [1, 'top']] as const) {
       eel.system.materials.push({
         name: `segment-${segment}-${side}`,
-        youngsModulusPa: { kind: 'log-uniform', min: 25000, max: 60000 },
+        youngsModulusPa: segment === 0 ? { ref: '/params/headStiffnessPa' } : { expr: `/params/headStiffnessPa * (1 + (/params/tailStiffnessRatio - 1) * ${segment} / 7)` },
         densityKgPerM3: 1000,
         dampingRatio: 0.2,
         actuatorChannel: 2 * segment + offset,

@@ -206,7 +206,7 @@ export class SchemaReader {
   }
 
   private distributionKinds(valueSpec: SchemaObject): string[] {
-    const otherwise = isObject(valueSpec.else) ? valueSpec.else : {};
+    const otherwise = distributionBranch(valueSpec) ?? {};
     const kind = isObject(otherwise.properties) && isObject(otherwise.properties.kind) ? otherwise.properties.kind : {};
     return Array.isArray(kind.enum) ? kind.enum.map(String) : [];
   }
@@ -230,9 +230,19 @@ export class SchemaReader {
  * if/then/else on `type: number` whose else names the distribution kinds.
  */
 function isValueSpec(s: SchemaObject): boolean {
-  if (!isObject(s.if) || s.if.type !== 'number' || !isObject(s.else)) return false;
-  const properties = s.else.properties;
-  return isObject(properties) && isObject(properties.kind) && Array.isArray(properties.kind.enum);
+  if (!isObject(s.if) || s.if.type !== 'number') return false;
+  return distributionBranch(s) !== null;
+}
+
+/** The branch naming the distribution kinds: the value spec's else, past its {"ref"} and {"expr"} forms. */
+function distributionBranch(s: SchemaObject): SchemaObject | null {
+  let node: unknown = s.else;
+  for (let depth = 0; depth < 4 && isObject(node); depth++) {
+    const properties = node.properties;
+    if (isObject(properties) && isObject(properties.kind) && Array.isArray(properties.kind.enum)) return node;
+    node = node.else;
+  }
+  return null;
 }
 
 /** True when some member's schema fixes its value (`const`): then the if tells kinds apart, not forms. */

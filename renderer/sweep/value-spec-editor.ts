@@ -1,6 +1,7 @@
 // The editor of one numeric scenario value: a fixed number or a distribution drawn once per
 // episode (uniform, log-uniform, normal, integer, categorical), each member with its unit, and a
-// histogram of the draws the sweep will make.
+// histogram of the draws the sweep will make; or a named parameter ({"ref"}) or a value derived
+// from named parameters ({"expr"}), written as text and judged by the checker.
 import type { ValueSpec } from '../../sim/random/distribution.ts';
 import { specBounds } from '../../sim/random/distribution.ts';
 import { h, select } from '../ui/element.ts';
@@ -16,7 +17,12 @@ const KIND_LABELS: Record<string, string> = {
   normal: 'normal (truncated)',
   integer: 'whole numbers',
   categorical: 'categorical (one of listed values)',
+  ref: 'named parameter (/params/…)',
+  expr: 'derived from named parameters',
 };
+
+/** The linked forms every value spec also takes (sim/scenario/linked-parameters.ts). */
+const LINKED_KINDS = ['ref', 'expr'] as const;
 
 const MEMBERS: Record<string, string[]> = {
   uniform: ['min', 'max'],
@@ -39,8 +45,7 @@ export interface ValueSpecEditorOptions {
 export function valueSpecEditor(options: ValueSpecEditorOptions): HTMLElement {
   const root = h('div', { className: 'value-spec', attrs: { 'data-pointer': options.pointer } });
   let value = options.value;
-  const kindOf = (v: unknown): string => (typeof v === 'object' && v !== null && typeof (v as { kind?: unknown }).kind === 'string' ? (v as { kind: string }).kind : FIXED);
-  const kindSelect = select([[FIXED, KIND_LABELS.fixed], ...options.kinds.map((k) => [k, KIND_LABELS[k] ?? k] as const)], kindOf(value), {
+  const kindSelect = select([[FIXED, KIND_LABELS.fixed], ...[...options.kinds, ...LINKED_KINDS].map((k) => [k, KIND_LABELS[k] ?? k] as const)], kindOf(value), {
     'aria-label': `${options.pointer} is`,
     'data-role': 'spec-kind',
   });
@@ -61,6 +66,23 @@ export function valueSpecEditor(options: ValueSpecEditorOptions): HTMLElement {
       members.append(numberInput(options.pointer, value, options.unit, (v) => emit(v)));
       return;
     }
+    if (kind === 'ref' || kind === 'expr') {
+      const text = (value as Record<string, unknown>)[kind];
+      const input = h('input', {
+        className: 'expression-input',
+        attrs: {
+          type: 'text',
+          spellcheck: 'false',
+          value: typeof text === 'string' ? text : '',
+          placeholder: kind === 'ref' ? '/params/stiffnessPa' : '2 * /params/stiffnessPa',
+          'data-pointer': `${options.pointer}/${kind}`,
+          'aria-label': `${options.pointer}/${kind}`,
+        },
+      });
+      input.addEventListener('change', () => emit({ [kind]: input.value.trim() }));
+      members.append(h('span', { className: 'number-with-unit' }, input, options.unit ? h('span', { className: 'unit', text: options.unit }) : null));
+      return;
+    }
     const spec = value as Record<string, unknown>;
     for (const member of MEMBERS[kind] ?? []) {
       const memberPointer = `${options.pointer}/${member}`;
@@ -75,7 +97,8 @@ export function valueSpecEditor(options: ValueSpecEditorOptions): HTMLElement {
   const drawHistogram = (): void => {
     histogramSlot.replaceChildren();
     const kind = kindOf(value);
-    if (kind === FIXED) return;
+    // A linked value's draws come from its parameters: their own editors under /params show them.
+    if (kind === FIXED || kind === 'ref' || kind === 'expr') return;
     const draws = parameterDraws(value as ValueSpec, options.pointer, options.masterSeed());
     if (!draws) return;
     const bounds = specBounds(value as ValueSpec);
@@ -93,10 +116,21 @@ export function valueSpecEditor(options: ValueSpecEditorOptions): HTMLElement {
   return root;
 }
 
+function kindOf(v: unknown): string {
+  if (typeof v !== 'object' || v === null) return FIXED;
+  const record = v as Record<string, unknown>;
+  if (typeof record.kind === 'string') return record.kind;
+  for (const linked of LINKED_KINDS) if (typeof record[linked] === 'string') return linked;
+  return FIXED;
+}
+
 /** Carries the current value over to a new kind, so switching kinds keeps the number's scale. */
 function convertSpec(value: unknown, kind: string, integer: boolean): unknown {
+  const linkedText = (['ref', 'expr'] as const).map((k) => (value as Record<string, unknown> | null)?.[k]).find((t) => typeof t === 'string') as string | undefined;
+  if (kind === 'ref') return { ref: linkedText !== undefined && /^\/params\/[A-Za-z][A-Za-z0-9_]*$/.test(linkedText) ? linkedText : '/params/' };
   const bounds = typeof value === 'number' ? { min: value, max: value } : safeBounds(value);
   const centre = bounds ? 0.5 * (bounds.min + bounds.max) : 0;
+  if (kind === 'expr') return { expr: linkedText ?? String(tidy(centre)) };
   const spread = bounds && bounds.max > bounds.min ? bounds.max - bounds.min : Math.abs(centre) * 0.2 || 1;
   const lo = bounds && bounds.max > bounds.min ? bounds.min : centre - 0.5 * spread;
   const hi = bounds && bounds.max > bounds.min ? bounds.max : centre + 0.5 * spread;
@@ -120,7 +154,9 @@ function convertSpec(value: unknown, kind: string, integer: boolean): unknown {
 
 function safeBounds(value: unknown): { min: number; max: number } | null {
   try {
-    return specBounds(value as ValueSpec);
+    const bounds = specBounds(value as ValueSpec);
+    // A {"ref"} or {"expr"} has no bounds of its own.
+    return bounds !== null && Number.isFinite(bounds.min) && Number.isFinite(bounds.max) ? bounds : null;
   } catch {
     return null;
   }

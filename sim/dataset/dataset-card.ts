@@ -129,6 +129,15 @@ function largest(values: readonly number[]): number {
   return max;
 }
 
+/** Where a label's values come from, in one sentence. */
+function originWords(spec: unknown): string {
+  const record = typeof spec === 'object' && spec !== null ? (spec as Record<string, unknown>) : undefined;
+  if (typeof record?.ref === 'string') return `Takes the named parameter \`${record.ref}\`.`;
+  if (typeof record?.expr === 'string') return `Derived from named parameters: \`${record.expr}\`.`;
+  if (spec === undefined || (record !== undefined && !('kind' in record))) return 'Derived by the sampler from other draws.';
+  return `Sampled from \`${JSON.stringify(spec)}\`.`;
+}
+
 function parameterSections(source: CardSource): string[] {
   const lines: string[] = [];
   const fixed: string[] = [];
@@ -147,9 +156,7 @@ function parameterSections(source: CardSource): string[] {
     }
     const values: ScalarLabel[] = label.scalars.values();
     const spec = specOfLabel(source, pointer);
-    const origin = spec === undefined || (typeof spec === 'object' && spec !== null && !('kind' in spec))
-      ? 'Derived by the sampler from other draws.'
-      : `Sampled from \`${JSON.stringify(spec)}\`.`;
+    const origin = originWords(spec);
     lines.push('', `### \`${pointer}\`${unit ? ` (${unit})` : ''}`, '', origin);
     const numbers = values.filter((v): v is number => typeof v === 'number');
     if (numbers.length === values.length) {

@@ -7,6 +7,7 @@
 // of checking code and the compile cost about 140 MB of memory and a second; shared, 0.2 MB,
 // 15 MB and 0.15 s. The place keeps its own description and default beside the $ref.
 import type { JsonValue } from './json-value.ts';
+import { MAX_EXPRESSION_LENGTH, PARAMETER_NAME_PATTERN, PARAMS_POINTER } from './derived-expression.ts';
 
 export type JsonSchema = { [keyword: string]: JsonValue };
 
@@ -68,7 +69,7 @@ export function valueSpecSchema(description: string, options: ValueSpecSchemaOpt
   const name = definitionName(options);
   VALUE_SPEC_DEFINITIONS[name] ??= valueSpecDefinition(options);
   const schema: JsonSchema = {
-    description: `${description} A number for a fixed value, or {"kind": ...} for a value drawn once per episode: ${kinds.join(', ')}.`,
+    description: `${description} A number for a fixed value, or {"kind": ...} for a value drawn once per episode: ${kinds.join(', ')}; or {"ref": "${PARAMS_POINTER}/<name>"} for a named parameter, or {"expr": "2 * ${PARAMS_POINTER}/<name>"} for a value derived from named parameters.`,
     $ref: `${DEFINITIONS_POINTER}${name}`,
   };
   if (options.default !== undefined) schema.default = options.default;
@@ -131,9 +132,50 @@ function valueSpecDefinition(options: ValueSpecSchemaOptions): JsonSchema {
     then: boundedNumber('A fixed value, in the unit of the value.', options, integer),
     else: {
       type: 'object',
-      required: ['kind'],
-      properties: { kind: { enum: distributionKinds(integer) } },
-      allOf: branches,
+      if: { properties: { ref: {} }, required: ['ref'] },
+      then: linkedReference(),
+      else: {
+        if: { properties: { expr: {} }, required: ['expr'] },
+        then: linkedExpression(),
+        else: {
+          required: ['kind'],
+          properties: { kind: { enum: distributionKinds(integer) } },
+          allOf: branches,
+        },
+      },
     },
+  };
+}
+
+// The place's own limits apply to a linked value too, but only the checker can tell the range
+// an expression reaches (sim/scenario/linked-parameters.ts), so the schema checks the form alone.
+// Each definition gets its own copy: schema-problems.ts finds an error's definition by the
+// identity of its schema node. The enclosing "else" has already required an object.
+function linkedReference(): JsonSchema {
+  return {
+    properties: {
+      ref: {
+        type: 'string',
+        pattern: `^${PARAMS_POINTER}/${PARAMETER_NAME_PATTERN.slice(1)}`,
+        description: `JSON pointer of a named parameter, "${PARAMS_POINTER}/<name>": this place takes that parameter's value, drawn once per episode and shared by every place that names it.`,
+      },
+    },
+    required: ['ref'],
+    additionalProperties: false,
+  };
+}
+
+function linkedExpression(): JsonSchema {
+  return {
+    properties: {
+      expr: {
+        type: 'string',
+        minLength: 1,
+        maxLength: MAX_EXPRESSION_LENGTH,
+        description: `Arithmetic of named parameters, e.g. "2 * ${PARAMS_POINTER}/stiffnessPa + 1e3": numbers, ${PARAMS_POINTER}/<name>, + - * /, parentheses, min, max, abs and round.`,
+      },
+    },
+    required: ['expr'],
+    additionalProperties: false,
   };
 }

@@ -8,6 +8,7 @@ import { findRangeProblemsBesideSchema } from './range-checks-beside-schema.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
 import { drawTextMaps } from './draw-text-maps.ts';
+import { checkLinks } from './linked-parameters.ts';
 import { expandMaterialTemplates, hasMaterialTemplates } from './material-templates.ts';
 
 export type ScenarioCheck = { ok: true; scenario: Scenario } | { ok: false; problems: ScenarioProblem[] };
@@ -39,7 +40,11 @@ export function checkScenarioValue(value: unknown): ScenarioCheck {
   const scenario = copy as Scenario;
   const drawn = drawTextMaps(scenario);
   if (drawn.length > 0) return { ok: false, problems: drawn };
-  const physical = findPhysicalProblems(scenario);
+  // Named parameters: names, syntax, cycles and each linked place's range against its limits;
+  // the other checks read the range view, where each linked place stands as the range it reaches.
+  const linked = checkLinks(scenario, findSchemaProblems);
+  if (!linked.ok) return { ok: false, problems: linked.problems };
+  const physical = findPhysicalProblems(linked.view, scenario);
   if (physical.length > 0) return { ok: false, problems: physical };
   return { ok: true, scenario };
 }

@@ -25,4 +25,9 @@ export class EpisodeDraws implements ParameterResolver {
     this.labels[pointer] = drawn;
     return drawn;
   }
+
+  /** Labels a value the episode computed rather than drew (a derived named parameter). */
+  record(pointer: string, value: number): void {
+    this.labels[pointer] = value;
+  }
 }

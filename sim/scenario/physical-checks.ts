@@ -8,6 +8,8 @@ import type { NumericValueSpec } from '../random/distribution.ts';
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { findChannelKeyProblems, findControlSpecProblemsOf } from './control-checks.ts';
 import { cornerSystems } from './corner-systems.ts';
+import { PARAMS_POINTER } from '../random/derived-expression.ts';
+import { linkedPointers, linkedRangeView } from './linked-parameters.ts';
 import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import { findHeldOutProblems } from './held-out-checks.ts';
@@ -27,9 +29,14 @@ import type { ChainSystemSpec, LatticeSystemSpec, Scenario } from './scenario-ty
 import { SPLIT_ORDER } from './split-assignment.ts';
 import { findStabilityProblems } from './stability-check.ts';
 
-/** Every numeric parameter of the scenario, as the sampler will visit it. */
-export function parameterSites(scenario: Scenario): ParameterSite[] {
+/**
+ * Every numeric parameter of the scenario, as the sampler will visit it: named parameters
+ * first, then the places. Linked places and derived parameters appear as the range they reach.
+ */
+export function parameterSites(written: Scenario): ParameterSite[] {
+  const scenario = linkedRangeView(written);
   const corner = new DemandingCorner('demanding');
+  for (const [name, spec] of Object.entries(scenario.params ?? {})) corner.value(spec as NumericValueSpec, `${PARAMS_POINTER}/${name}`, 'none');
   if (scenario.system.kind === 'chain') resolveChainParameters(scenario.system, corner);
   else resolveLatticeParameters(scenario.system, corner);
   resolveWorld(scenario.world, corner);
@@ -43,7 +50,12 @@ export function parameterSites(scenario: Scenario): ParameterSite[] {
   return corner.sites;
 }
 
-export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
+/**
+ * `scenario` is the range view of linkedRangeView when the scenario names parameters, and
+ * `written` the scenario as checked: planned splits and designs are worked out from the latter,
+ * since a linked value follows from its parameters' draws, not from a range of its own.
+ */
+export function findPhysicalProblems(scenario: Scenario, written: Scenario = scenario): ScenarioProblem[] {
   const sites = parameterSites(scenario);
   const problems: ScenarioProblem[] = [];
   for (const site of sites) {
@@ -57,7 +69,8 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   if (problems.length > 0) return problems;
 
   problems.push(...findFrictionProblems(scenario), ...findFractionProblems(scenario), ...findHeldOutProblems(scenario.splits.heldOut, sites));
-  problems.push(...findScenarioDesignProblems(scenario, sites));
+  const linked = linkedPointers(written);
+  problems.push(...findScenarioDesignProblems(scenario, sites.filter((site) => !linked.has(site.pointer))));
   let maxNodes: number;
   if (scenario.system.kind === 'chain') {
     problems.push(...findChainProblems(scenario.system));
@@ -84,7 +97,7 @@ export function findPhysicalProblems(scenario: Scenario): ScenarioProblem[] {
   if (problems.length > 0) return problems;
 
   // Counting the held-out episodes samples every episode's parameters, so only a sound scenario gets here.
-  problems.push(...findSplitPlanProblems(scenario, sites));
+  problems.push(...findSplitPlanProblems(written, sites));
   if (problems.length > 0) return problems;
 
   const demanding = cornerSystems(scenario, 'demanding');

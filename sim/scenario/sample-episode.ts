@@ -25,6 +25,7 @@ import { applyStartCurve } from './start-curve.ts';
 import { applyModeStart } from './mode-start.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
+import { scenarioForEpisode } from './linked-parameters.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
@@ -54,9 +55,12 @@ export function sampleEpisode(scenario: Scenario, episodeIndex: number, options:
   }
 }
 
-function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEpisodeOptions): SampledEpisode {
-  const seed = scenario.seed;
-  const draws = new EpisodeDraws(seed, episodeIndex, designCoordinates(scenario, episodeIndex));
+function drawEpisode(written: Scenario, episodeIndex: number, options: SampleEpisodeOptions): SampledEpisode {
+  const seed = written.seed;
+  const draws = new EpisodeDraws(seed, episodeIndex, designCoordinates(written, episodeIndex));
+  // Named parameters first (labelled under /params/<name>), then every place that uses them
+  // holds its number; without /params this is `written` itself.
+  const scenario = scenarioForEpisode(written, draws, (pointer, value) => draws.record(pointer, value));
   const spec = scenario.system;
   let system: BuiltSystem;
   let dimensions: 2 | 3 = 3;
@@ -95,7 +99,7 @@ function drawEpisode(scenario: Scenario, episodeIndex: number, options: SampleEp
   const parameterLabels = { ...draws.labels };
   const { recordIntervalS, recordedSteps, substeps, autoSafety } = scenario.time;
   const controls = sampleControls(scenario.controls, system.controlChannels, seed, episodeIndex, recordIntervalS, recordedSteps, draws.labels, options.replay);
-  const planned = scenarioSplitPlan(scenario);
+  const planned = scenarioSplitPlan(written);
   if (planned === null && usesPlannedSplits(scenario.splits)) {
     throw new ScenarioProblemError([{ pointer: '/splits/counts', message: 'cannot be met by this scenario\'s episodes; run `pliant validate` on it to see the numbers' }]);
   }

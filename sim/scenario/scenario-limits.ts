@@ -46,3 +46,6 @@ export const OBSERVATION_TIMING_TOLERANCE = 1e-9;
  * far above the point where a mass divided over nodes rounds to 0 or the step bound overflows.
  */
 export const MIN_NODE_MASS_KG = 1e-9;
+
+/** Most named parameters under /params: enough for a gradient per segment, few enough to read. */
+export const MAX_NAMED_PARAMETERS = 256;

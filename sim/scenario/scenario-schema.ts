@@ -6,11 +6,12 @@ import { controlSpecSchema } from '../controls/control-spec-schema.ts';
 import type { JsonSchema } from '../random/value-spec-schema.ts';
 import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
-import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_MODE_COORDINATES, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
+import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_MODE_COORDINATES, MAX_NAMED_PARAMETERS, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
 import { withFieldTitles } from './field-titles.ts';
 import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
 import { DESIGN_KINDS } from '../design/design-spec.ts';
+import { PARAMETER_NAME_PATTERN } from '../random/derived-expression.ts';
 import { DEFAULT_EXPORT_COMPRESSION, EXPORT_COMPRESSIONS, SEED_COMPRESSION_BEFORE_CHOICE, describeCompression } from './export-compression.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
@@ -569,12 +570,20 @@ const observationSchema = closed(
   [],
 );
 
+const paramsSchema: JsonSchema = {
+  type: 'object',
+  description: `Named parameters, each defined once and used by pointer: {"ref": "/params/<name>"} anywhere a number goes takes its value, {"expr": "2 * /params/<name>"} a value derived from it. Each is a number, a distribution drawn once per episode from its own random stream (keyed by "/params/<name>", like any other place), or itself a ref or expr of other parameters. At most ${MAX_NAMED_PARAMETERS}; names are a letter, then letters, digits or "_".`,
+  propertyNames: { pattern: PARAMETER_NAME_PATTERN },
+  maxProperties: MAX_NAMED_PARAMETERS,
+  additionalProperties: valueSpecSchema('A named parameter, in the unit of the places that use it.'),
+};
+
 // withFieldTitles: every member gets its short label ("Length" for lengthM) as its title.
 export const SCENARIO_SCHEMA: JsonSchema = withFieldTitles({
   $schema: 'https://json-schema.org/draft/2020-12/schema',
   $id: SCENARIO_SCHEMA_ID,
   title: 'Pliant scenario',
-  description: `A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "categorical", ...} drawn once per episode. ${SAFETY_CAUTION}`,
+  description: `A family of mass-spring or voxel systems to sample, simulate and record as a dataset. SI units throughout. Any physical number may be a constant or a distribution {"kind": "uniform" | "log-uniform" | "normal" | "integer" | "categorical", ...} drawn once per episode, or {"ref": "/params/<name>"} or {"expr": "2 * /params/<name>"} of the named parameters under "params". ${SAFETY_CAUTION}`,
   type: 'object',
   properties: {
     $schema: { type: 'string', description: 'Optional: where an editor finds this schema.' },
@@ -585,6 +594,7 @@ export const SCENARIO_SCHEMA: JsonSchema = withFieldTitles({
       description: 'Short name used in file names: letters, digits, ".", "_" and "-", starting with a letter or digit, at most 64 characters.',
     },
     description: { type: 'string', maxLength: 4000, default: '', description: 'What the sweep is for; copied into the dataset card.' },
+    params: paramsSchema,
     system: systemSchema,
     world: { ...worldSchema, default: {} },
     controls: { ...controlsSchema, default: {} },

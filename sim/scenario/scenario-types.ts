@@ -257,8 +257,19 @@ export interface NumericsSpec {
   richardsonShare: number;
 }
 
+/**
+ * A value given by name instead of by number: {"ref": "/params/<name>"} or {"expr": "<arithmetic>"}
+ * (sim/random/derived-expression.ts). Any place of a checked scenario may hold one in place of
+ * its NumericValueSpec; sim/scenario/linked-parameters.ts replaces them (by each episode's
+ * values for sampling, by the range they reach for the checks) before anything reads the places,
+ * so code below that sees NumericValueSpec only.
+ */
+export type LinkedValueSpec = { ref: string } | { expr: string };
+
 export interface Scenario {
   $schema?: string;
+  /** Named parameters by name; absent when the scenario names none. */
+  params?: Record<string, NumericValueSpec | LinkedValueSpec>;
   formatVersion: 1;
   name: string;
   description: string;

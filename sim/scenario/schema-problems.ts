@@ -198,7 +198,7 @@ function describeOne(error: ErrorObject, root: unknown): Described | undefined {
       const member = properties?.[missing];
       const allowed = Array.isArray(member?.enum) ? ` (one of ${quoteList(member.enum as unknown[])})` : '';
       const about = firstSentence(member?.description);
-      return { pointer, message: `is missing the key "${missing}"${allowed}${about ? `: ${about}` : ''}`, isType: false };
+      return { pointer, message: `is missing the key "${missing}"${allowed}${about ? `: ${about}` : ''}${linkedFormHint(missing, value)}`, isType: false };
     }
     case 'additionalProperties': {
       const key = String(params.additionalProperty);
@@ -262,6 +262,14 @@ function describeOne(error: ErrorObject, root: unknown): Described | undefined {
     default:
       return { pointer, message: error.message ?? `does not fit the scenario format (${error.keyword})`, isType: false };
   }
+}
+
+/** A distribution missing its "kind" whose one key is a misspelt "ref" or "expr" ({"refs": …}). */
+function linkedFormHint(missing: string, value: unknown): string {
+  if (missing !== 'kind' || value === null || typeof value !== 'object' || Array.isArray(value)) return '';
+  const keys = Object.keys(value);
+  const near = keys.length === 1 ? closestName(keys[0], ['ref', 'expr']) : undefined;
+  return near === undefined ? '' : `; or, for a named parameter, did you mean "${near}" instead of "${keys[0]}"?`;
 }
 
 function describeErrors(errors: readonly ErrorObject[], root: unknown): ScenarioProblem[] {

@@ -9,6 +9,7 @@ import type { Scenario } from '../../scenario/scenario-types.ts';
 import { specBounds } from '../../random/distribution.ts';
 import { CalibrationInputError } from './calibration-input-error.ts';
 import { scenarioParameters } from './scenario-parameters.ts';
+import { linkedPointers } from '../../scenario/linked-parameters.ts';
 import type { ScenarioParameter } from './scenario-parameters.ts';
 
 export const LOG_SEARCH_WIDENING = 2;
@@ -52,6 +53,14 @@ export function valuePerTheta(p: FreeParameter, theta: number): number {
  * an integer or choice parameter left to fit or without a known value.
  */
 export function selectParameters(scenario: Scenario, knownParameters: Record<string, number>, fitPointers: readonly string[] | undefined, knownSource: string): ParameterSelection {
+  // Fitting one linked place on its own would cut it loose from its parameter, and fitting the
+  // named parameters themselves is not built yet: say so rather than fit the wrong thing.
+  const linked = [...linkedPointers(scenario)];
+  if (linked.length > 0) {
+    throw new CalibrationInputError(
+      `the scenario takes ${linked.length === 1 ? 'a value' : `${linked.length} values`} from named parameters (${linked.slice(0, 3).join(', ')}${linked.length > 3 ? ', …' : ''}), which calibration cannot fit yet; write those places as numbers or distributions in a copy of the scenario for calibrating`,
+    );
+  }
   const listed = scenarioParameters(scenario);
   const byPointer = new Map(listed.map((p) => [p.pointer, p]));
   const names = listed.map((p) => p.pointer);

@@ -9,11 +9,13 @@ import type { DesignPlan } from '../../design/design-plan.ts';
 import type { DesignParameter } from '../../design/design-spec.ts';
 import { parameterSubStream } from '../parameter-streams.ts';
 import { parameterSites } from '../physical-checks.ts';
+import { linkedPointers } from '../linked-parameters.ts';
 import type { Scenario } from '../scenario-types.ts';
 
 /** The scenario's distributed parameters, each once, in the order the sampler visits them. */
 export function designParameters(scenario: Scenario): DesignParameter[] {
-  const seen = new Set<string>();
+  // A value that follows from named parameters is placed through them, not on its own.
+  const seen = linkedPointers(scenario);
   const out: DesignParameter[] = [];
   for (const site of parameterSites(scenario)) {
     if (isConstant(site.spec) || seen.has(site.pointer)) continue;

@@ -15,6 +15,8 @@ import { RandomStream, StreamPurpose } from '../../random/random-stream.ts';
 import { designCoordinates } from '../design/scenario-design.ts';
 import { parameterStream } from '../parameter-streams.ts';
 import { parameterSites } from '../physical-checks.ts';
+import { EpisodeDraws } from '../episode-draws.ts';
+import { linkedPointers, linkedValuesOfEpisode } from '../linked-parameters.ts';
 import type { Scenario, SplitsSpec } from '../scenario-types.ts';
 import { SPLIT_ORDER, ruleMatches } from '../split-assignment.ts';
 import { countsFromFractions, dealInOrder } from './split-dealing.ts';
@@ -83,9 +85,13 @@ export function heldOutSplits(scenario: Scenario): { names: string[]; split: Int
   for (const pointer of specs.keys()) values.set(pointer, new Float64Array(n));
   const names: string[] = [...SPLIT_ORDER];
   const split = new Int16Array(n).fill(-1);
+  const linked = linkedPointers(scenario);
+  const needsLinks = [...specs.keys()].some((pointer) => linked.has(pointer));
   for (let i = 0; i < n; i++) {
     const design = designCoordinates(scenario, i);
-    for (const [pointer, spec] of specs) values.get(pointer)![i] = episodeParameterValue(scenario, i, pointer, spec, design);
+    // A value that follows from named parameters comes from them, as sampling computes it.
+    const derived = needsLinks ? linkedValuesOfEpisode(scenario, new EpisodeDraws(scenario.seed, i, design)) : undefined;
+    for (const [pointer, spec] of specs) values.get(pointer)![i] = derived?.get(pointer) ?? episodeParameterValue(scenario, i, pointer, spec, design);
     for (const rule of splits.heldOut) {
       const column = values.get(rule.parameter);
       if (column === undefined || !ruleMatches(rule, column[i])) continue;
