@@ -75,11 +75,12 @@ export interface FileAccess {
 
 /**
  * 'native': the shell shows the system folder dialog. 'in-page': there is no dialog (web mode);
- * the page lists folders with folder.browse and confirms one with folder.allow.
+ * the page lists folders with folder.browse and confirms one with folder.allow, only inside
+ * `rootDir` (the web-mode root folder, from the command line).
  */
 export type FolderChooser =
   | { mode: 'native'; choose(purpose: FolderPurpose): Promise<string | null> }
-  | { mode: 'in-page' };
+  | { mode: 'in-page'; rootDir: string };
 
 export interface RequestServices {
   app: { name: string; version: string; mode: 'desktop' | 'web'; platform: string };

@@ -62,7 +62,7 @@ describe.runIf(python.available)('web mode: the whole dataset flow over HTTP', (
     mkdirSync(join(root, 'renderer'));
     writeFileSync(join(root, 'renderer', 'index.html'), '<!doctype html><title>Pliant</title>');
     mkdirSync(join(root, 'korrin-bay'));
-    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(REPO_ROOT, 'scenarios'), folderChooser: { mode: 'in-page' } });
+    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(REPO_ROOT, 'scenarios'), folderChooser: { mode: 'in-page', rootDir: root } });
     server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer'), port: 0 });
     events = new EventSource(`http://127.0.0.1:${server.port}/api/events?session=${server.token}`);
     await new Promise<void>((resolve, reject) => {

@@ -62,7 +62,7 @@ parentPort.postMessage({ type: 'done', done: 3, total: 3 });
     mode: 'web',
     version: '0.1.0',
     bundledScenariosDir: join(root, 'none'),
-    folderChooser: { mode: 'in-page' },
+    folderChooser: { mode: 'in-page', rootDir: root },
     pipeline: { jobWorkerUrls: { export: pathToFileURL(worker) } },
   });
   server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer') });
@@ -137,7 +137,7 @@ describe('web bridge against the web-mode server', () => {
   });
 
   it('reports a stopped server as shell-unreachable', async () => {
-    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'none'), folderChooser: { mode: 'in-page' } });
+    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'none'), folderChooser: { mode: 'in-page', rootDir: root } });
     const shortLived = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer') });
     const web = createWebBridge({ origin: `http://127.0.0.1:${shortLived.port}`, token: shortLived.token, fetch: (url, init) => fetch(url, init), createEventSource: eventSource });
     await shortLived.close();
