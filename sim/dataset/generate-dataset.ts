@@ -7,6 +7,7 @@
 import { readdirSync, rmSync } from 'node:fs';
 import { readdir, rm, stat } from 'node:fs/promises';
 import { isTemporaryName } from './atomic-file.ts';
+import { containedPathSync } from './contained-path.ts';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Scenario } from '../scenario/scenario-types.ts';
@@ -118,7 +119,10 @@ function effectiveShard(shard: ShardPlan | null): ShardPlan | null {
 
 /** Deletes the hidden temporary files of writes a killed run left half done. */
 function removeTemporaryFiles(outDir: string): void {
-  for (const folder of ['', CARD_PICTURES_FOLDER, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER, WORK_DONE_FOLDER, WORK_PARTS_FOLDER]) {
+  const folders = ['', CARD_PICTURES_FOLDER, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER, WORK_DONE_FOLDER, WORK_PARTS_FOLDER];
+  // Every folder first, so a link leading out of the dataset is refused before anything is deleted or read.
+  for (const folder of folders) containedPathSync(outDir, folder);
+  for (const folder of folders) {
     let names: string[];
     try {
       names = readdirSync(join(outDir, folder));
@@ -172,7 +176,7 @@ async function generateLocked(
   let resuming = false;
   if (entries !== null && entries.length > 0) {
     if (request.resume) {
-      const existing = await readTextIfPresent(join(outDir, SEED_FILE));
+      const existing = await readTextIfPresent(containedPathSync(outDir, SEED_FILE));
       // seed.json is the first thing a run writes; without it only a run killed at its very
       // start can have left Pliant's own entries, and starting afresh finishes that.
       if (existing === null && entries.some((name) => !isOwnEntry(name))) {
@@ -181,9 +185,9 @@ async function generateLocked(
       if (existing !== null && existing !== seedText) {
         throw new DatasetRequestError(`--resume: ${join(outDir, SEED_FILE)} describes a different dataset (other scenario, overrides or Pliant version); resume with the same scenario and flags, or use --force to start over`);
       }
-      const planText = await readTextIfPresent(join(outDir, WORK_PLAN_FILE));
+      const planText = await readTextIfPresent(containedPathSync(outDir, WORK_PLAN_FILE));
       // The manifest is read as a stream: a finished folder's may be larger than any string.
-      const manifestPath = join(outDir, MANIFEST_FILE);
+      const manifestPath = containedPathSync(outDir, MANIFEST_FILE);
       const manifestThere = entries.includes(MANIFEST_FILE);
       const recorded: ShardPlan | null | undefined = planText !== null
         ? (JSON.parse(planText) as WorkPlan).shard
