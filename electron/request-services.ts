@@ -9,6 +9,7 @@ import type {
   EpisodePage,
   EpisodeQuery,
   FolderPurpose,
+  JobLimits,
   JobProgress,
   JobStarted,
   ScenarioCheck,
@@ -52,6 +53,8 @@ export interface SeedReader {
 
 /** Runs long jobs off the main thread and reports their progress. */
 export interface JobRunner {
+  /** How many jobs run at once, wait, and how many worker threads an export gets (app.info states them). */
+  readonly limits: JobLimits;
   begin(spec: JobSpec): JobStarted;
   /** False when the job is unknown or already over. */
   cancel(jobId: string): boolean;

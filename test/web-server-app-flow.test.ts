@@ -51,7 +51,7 @@ describe.runIf(python.available)('web mode: the whole dataset flow over HTTP', (
   async function jobOver(jobId: string): Promise<JobProgress[]> {
     for (let waitedMs = 0; waitedMs < 180_000; waitedMs += 50) {
       const mine = progress.filter((p) => p.jobId === jobId);
-      if (mine.some((p) => p.state !== 'running')) return mine;
+      if (mine.some((p) => p.state !== 'running' && p.state !== 'queued')) return mine;
       await new Promise((resolve) => setTimeout(resolve, 50));
     }
     throw new Error(`job ${jobId} did not finish; events: ${JSON.stringify(progress)}`);

@@ -10,6 +10,7 @@ import { EventSource } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BridgeEvent, JobProgress } from '../electron/bridge-contract.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
+import { defaultJobLimits } from '../electron/job-limits.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import { startWebServer } from '../electron/web-server.ts';
 import type { RunningWebServer } from '../electron/web-server.ts';
@@ -89,6 +90,8 @@ describe('web bridge against the web-mode server', () => {
   it('answers requests with their results', async () => {
     const info = await bridge().invoke('app.info', {});
     expect(info).toMatchObject({ name: 'Pliant', mode: 'web', folderChoice: 'in-page' });
+    // The page states the limits the shell's job runner applies.
+    expect(info.jobLimits).toEqual(defaultJobLimits());
   });
 
   it('resolves folder.choose through the page\'s own chooser and grants that folder', async () => {
@@ -114,7 +117,7 @@ describe('web bridge against the web-mode server', () => {
     const finished = new Promise<void>((resolve) => {
       const stop = web.onEvent((event) => {
         events.push(event);
-        if (event.payload.state !== 'running') {
+        if (event.payload.state !== 'running' && event.payload.state !== 'queued') {
           stop();
           resolve();
         }
