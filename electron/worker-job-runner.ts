@@ -7,6 +7,7 @@
 import { randomUUID } from 'node:crypto';
 import { Worker } from 'node:worker_threads';
 import type { JobKind, JobLimits, JobProgress, JobState } from './bridge-contract.ts';
+import { inAppWords } from './app-run-words.ts';
 import { defaultJobLimits } from './job-limits.ts';
 import type { FromJobWorker, JobSpec, JobWorkerData, ToJobWorker } from './job-worker-protocol.ts';
 import { RequestError } from './request-error.ts';
@@ -129,7 +130,8 @@ export function createWorkerJobRunner(options: WorkerJobRunnerOptions): JobRunne
       return;
     }
     if (message.type === 'failed') {
-      finish(job, 'failed', message.message);
+      // The pipeline names run settings in neutral form (sim/dataset/run-words.ts); the app words them.
+      finish(job, 'failed', inAppWords(message.message));
       return;
     }
     job.done = message.done;

@@ -12,6 +12,7 @@ import type { ArrayLayout } from './episode-outcome.ts';
 import { digestFile } from './file-digest.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import { systemErrorCode } from './read-file-bytes.ts';
+import { say } from './run-words.ts';
 
 export interface EpisodeCompletion {
   record: EpisodeRecord;
@@ -64,16 +65,16 @@ export function readCompletion(outDir: string, path: string, expectedId: string)
   try {
     text = readFileSync(absolute, 'utf8');
   } catch (error) {
-    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} cannot be read (${systemErrorCode(error)})`, 'run the same command again with --resume to recompute that episode');
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} cannot be read (${systemErrorCode(error)})`, `${say('run-again-resuming')} to recompute that episode`);
   }
   let completion: EpisodeCompletion;
   try {
     completion = JSON.parse(text) as EpisodeCompletion;
   } catch (error) {
-    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} is not valid JSON (${error instanceof Error ? error.message : String(error)})`, 'run the same command again with --resume to recompute that episode');
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} is not valid JSON (${error instanceof Error ? error.message : String(error)})`, `${say('run-again-resuming')} to recompute that episode`);
   }
   if (completion?.record?.id !== expectedId) {
-    throw new DatasetReadError(absolute, '', `the completion record does not describe episode ${expectedId}`, 'run the same command again with --resume to recompute that episode');
+    throw new DatasetReadError(absolute, '', `the completion record does not describe episode ${expectedId}`, `${say('run-again-resuming')} to recompute that episode`);
   }
   return completion;
 }

@@ -8,6 +8,7 @@ import { readdirSync, rmSync } from 'node:fs';
 import { readdir, rm, stat } from 'node:fs/promises';
 import { isTemporaryName } from './atomic-file.ts';
 import { containedPathSync } from './contained-path.ts';
+import { say } from './run-words.ts';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Scenario } from '../scenario/scenario-types.ts';
@@ -93,14 +94,14 @@ async function folderEntries(path: string): Promise<string[] | null> {
   } catch {
     return null;
   }
-  if (!info.isDirectory()) throw new DatasetRequestError(`--out ${path} is a file, not a folder; choose a folder name`);
+  if (!info.isDirectory()) throw new DatasetRequestError(`${say('out')} ${path} is a file, not a folder; choose a folder name`);
   return readdir(path);
 }
 
 /** The shard a finished folder's manifest records; its head is read, never the whole file. */
 function manifestShard(manifestPath: string): ShardPlan | null {
   const { head, problems } = readManifestHead(manifestPath);
-  if (!head) throw new DatasetRequestError(`--resume: ${problems[0] ?? `${manifestPath} has no head`}; use --force to start over, or another --out folder`);
+  if (!head) throw new DatasetRequestError(`${say('resume:')} ${problems[0] ?? `${manifestPath} has no head`}; ${say('start-over')}, or ${say('other-out')}`);
   return head.shard;
 }
 
@@ -147,7 +148,7 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
   const startedAt = new Date().toISOString();
 
   // Everything that can be refused is checked before the folder is touched.
-  if (!Number.isInteger(request.workers) || request.workers < 1) throw new DatasetRequestError(`--workers ${request.workers} must be a whole number of at least 1`);
+  if (!Number.isInteger(request.workers) || request.workers < 1) throw new DatasetRequestError(`${say('workers')} ${request.workers} must be a whole number of at least 1`);
   const inputs = await gatherInputs(scenario, request.inputs);
   const seed = makeSeedFile(scenario, inputs.seedInputs, request.pliantVersion);
   const seedText = renderSeedFile(seed);
@@ -180,10 +181,10 @@ async function generateLocked(
       // seed.json is the first thing a run writes; without it only a run killed at its very
       // start can have left Pliant's own entries, and starting afresh finishes that.
       if (existing === null && entries.some((name) => !isOwnEntry(name))) {
-        throw new DatasetRequestError(`--resume: ${outDir} is not empty and has no ${SEED_FILE}, so it is not a Pliant dataset; choose another --out folder`);
+        throw new DatasetRequestError(`${say('resume:')} ${outDir} is not empty and has no ${SEED_FILE}, so it is not a Pliant dataset; ${say('other-out')}`);
       }
       if (existing !== null && existing !== seedText) {
-        throw new DatasetRequestError(`--resume: ${join(outDir, SEED_FILE)} describes a different dataset (other scenario, overrides or Pliant version); resume with the same scenario and flags, or use --force to start over`);
+        throw new DatasetRequestError(`${say('resume:')} ${join(outDir, SEED_FILE)} describes a different dataset (other scenario, overrides or Pliant version); resume with the same scenario and settings, or ${say('start-over')}`);
       }
       const planText = await readTextIfPresent(containedPathSync(outDir, WORK_PLAN_FILE));
       // The manifest is read as a stream: a finished folder's may be larger than any string.
@@ -193,7 +194,7 @@ async function generateLocked(
         ? (JSON.parse(planText) as WorkPlan).shard
         : manifestThere ? manifestShard(manifestPath) : undefined;
       if (recorded !== undefined && !samePlan(recorded, shard)) {
-        throw new DatasetRequestError(`--resume: ${outDir} holds ${describeShard(recorded)}, but this run asks for ${describeShard(shard)}; give the same --shard`);
+        throw new DatasetRequestError(`${say('resume:')} ${outDir} holds ${describeShard(recorded)}, but this run asks for ${describeShard(shard)}; ${say('same-shard')}`);
       }
       if (manifestThere && planText === null && !entries.includes(WORK_FOLDER)) {
         let ok = 0;
@@ -209,7 +210,7 @@ async function generateLocked(
     } else if (request.force) {
       const foreign = entries.filter((name) => !isOwnEntry(name));
       if (foreign.length > 0) {
-        throw new DatasetRequestError(`--force: ${outDir} holds files that Pliant did not write (${foreign.slice(0, 3).join(', ')}${foreign.length > 3 ? ', …' : ''}); choose an empty or new --out folder`);
+        throw new DatasetRequestError(`${say('force:')} ${outDir} holds files that Pliant did not write (${foreign.slice(0, 3).join(', ')}${foreign.length > 3 ? ', …' : ''}); ${say('other-out')}`);
       }
       for (const name of entries) {
         try {
@@ -219,7 +220,7 @@ async function generateLocked(
         }
       }
     } else {
-      throw new DatasetRequestError(`--out ${outDir} is not empty; give --resume to finish the run that started there, --force to replace it, or an empty folder`);
+      throw new DatasetRequestError(`${say('out')} ${outDir} is not empty; ${say('resume-or-replace')}`);
     }
   }
   for (const r of scenario.splits.heldOut) {
