@@ -9,6 +9,8 @@ import { readdir, rm, stat } from 'node:fs/promises';
 import { isTemporaryName } from './atomic-file.ts';
 import { containedPathSync } from './contained-path.ts';
 import { say } from './run-words.ts';
+import { planShard } from './completion-check.ts';
+import { DatasetReadError } from './dataset-read-error.ts';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Scenario } from '../scenario/scenario-types.ts';
@@ -105,6 +107,21 @@ function manifestShard(manifestPath: string): ShardPlan | null {
   return head.shard;
 }
 
+/** The shard the run plan of an interrupted run records; a damaged plan is reported, naming the file. */
+function recordedPlanShard(planText: string, planPath: string): ShardPlan | null {
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(planText);
+  } catch (error) {
+    throw new DatasetReadError(planPath, '', `the run plan is not valid JSON (${error instanceof Error ? error.message : String(error)})`, `delete it and resume again (the run writes it anew), or ${say('start-over')}`);
+  }
+  const shard = planShard(parsed);
+  if (typeof shard === 'string') {
+    throw new DatasetReadError(planPath, '', `the run plan is not one Pliant writes: ${shard}`, `delete it and resume again (the run writes it anew), or ${say('start-over')}`);
+  }
+  return shard;
+}
+
 function samePlan(a: ShardPlan | null, b: ShardPlan | null): boolean {
   return (a?.index ?? null) === (b?.index ?? null) && (a?.count ?? null) === (b?.count ?? null);
 }
@@ -191,7 +208,7 @@ async function generateLocked(
       const manifestPath = containedPathSync(outDir, MANIFEST_FILE);
       const manifestThere = entries.includes(MANIFEST_FILE);
       const recorded: ShardPlan | null | undefined = planText !== null
-        ? (JSON.parse(planText) as WorkPlan).shard
+        ? recordedPlanShard(planText, join(outDir, WORK_PLAN_FILE))
         : manifestThere ? manifestShard(manifestPath) : undefined;
       if (recorded !== undefined && !samePlan(recorded, shard)) {
         throw new DatasetRequestError(`${say('resume:')} ${outDir} holds ${describeShard(recorded)}, but this run asks for ${describeShard(shard)}; ${say('same-shard')}`);
