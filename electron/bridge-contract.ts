@@ -85,7 +85,7 @@ export interface AppInfo {
 }
 
 export interface ExampleScenario {
-  /** File name inside the bundled scenarios folder, e.g. "korrin-bay-tether.json". */
+  /** File name inside the bundled scenarios folder, e.g. "korrin-tether.json". */
   fileName: string;
   /** Absolute path, readable with `scenario.read` (the bundled folder is read-only). */
   path: string;
