@@ -3,7 +3,8 @@
 // temporary folders and real links (fs.symlinkSync) through the app's own handlers and job
 // workers: a CARD.md linked to an outside file is not served as the card, an episode file linked
 // to an outside copy (same bytes, so its checksum matches) is not read, verify names the link,
-// and a resumed export whose episodes/ links elsewhere fails before writing there. A link whose
+// a resumed export whose episodes/ links elsewhere fails before writing there, and a score
+// report's REPORT.md or a predicted episode linked outside is refused too. A link whose
 // target stays inside the folder is allowed. Containment after following links is common
 // practice (no source): a path is judged by where it leads, not by how it is spelled.
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, realpathSync, renameSync, rmSync, symlinkSync, unlinkSync, writeFileSync } from 'node:fs';
@@ -14,6 +15,7 @@ import { runCli } from '../sim/cli/main.ts';
 import { runDatasetJob } from '../sim/dataset/dataset-job.ts';
 import type { DatasetJobMessage } from '../sim/dataset/dataset-job.ts';
 import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
+import { generateScoreDataset, runPliant, writePersistencePredictions } from './support/score-fixture.ts';
 import type { AppSession } from './support/app-flow-session.ts';
 
 const work = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-links-')));
@@ -55,7 +57,7 @@ describe('links inside a chosen dataset folder', () => {
     const refusal = await session.refusal('dataset.summary', { path: dir });
     expect(refusal.code).toBe('invalid-dataset');
     expect(refusal.message).toContain(`${join(dir, 'CARD.md')} is a symbolic link`);
-    expect(refusal.message).toContain('leads outside the dataset folder');
+    expect(refusal.message).toContain(`that leads outside ${dir}, to ${join(outside, 'secret.md')}`);
     expect(refusal.message).not.toContain('a file outside the chosen folder');
   });
 
@@ -80,6 +82,27 @@ describe('links inside a chosen dataset folder', () => {
     const report = await session.call('dataset.verify', { path: dir });
     expect(report.ok).toBe(false);
     expect(report.problems.map((p) => p.message)).toContain('episodes/ep-000001.npz leads outside the dataset folder through a symbolic link; replace the link with the file itself');
+  });
+
+  it('refuses a score report\'s REPORT.md and a predicted episode that link outside their folders', async () => {
+    const dataset = await generateScoreDataset(chosen, 'score-tether');
+    const predictions = join(chosen, 'predictions');
+    writePersistencePredictions(dataset, predictions);
+    const report = join(chosen, 'score-report');
+    const scored = await runPliant(['score', dataset, predictions, '--out', report], work);
+    expect(scored.stderr).toBe('');
+    expect((await session.call('score.read', { path: report })).reportMarkdown).toBe(readFileSync(join(report, 'REPORT.md'), 'utf8'));
+    unlinkSync(join(report, 'REPORT.md'));
+    symlinkSync(join(outside, 'secret.md'), join(report, 'REPORT.md'));
+    const refusal = await session.refusal('score.read', { path: report });
+    expect(refusal.code).toBe('invalid-dataset');
+    expect(refusal.message).toContain(`${join(report, 'REPORT.md')} is a symbolic link`);
+    const episode = readdirSync(predictions).find((n) => n.endsWith('.npz'))!;
+    renameSync(join(predictions, episode), join(outside, episode));
+    symlinkSync(join(outside, episode), join(predictions, episode));
+    const predicted = await session.refusal('predictions.episodeArrays', { path: predictions, episodeId: episode.replace(/\.npz$/, '') });
+    expect(predicted.code).toBe('invalid-dataset');
+    expect(predicted.message).toContain(`that leads outside ${predictions}`);
   });
 
   it('fails a resumed export whose episodes/ links outside, writing nothing there', async () => {

@@ -1,5 +1,5 @@
 // Keeps every file a dataset folder's reader opens, and every file a run writes, inside that
-// folder once symbolic links are followed. Checking the folder itself is not enough: a CARD.md
+// folder once symbolic links are followed (the app's score and predictions readers use it too). Checking the folder itself is not enough: a CARD.md
 // that links to a file elsewhere would be shown as the card, and an episodes/ that links
 // elsewhere would have a resumed run write (and tidy up) files outside the folder. A link whose
 // target stays inside the folder is harmless and allowed.
@@ -53,7 +53,7 @@ async function realPathAsync(absolute: string): Promise<string> {
 
 function leadsOut(dir: string, relativePath: string, real: string): DatasetRequestError {
   return new DatasetRequestError(
-    `${join(dir, relativePath)} is a symbolic link (or lies under one) that leads outside the dataset folder, to ${real}; ` +
+    `${join(dir, relativePath)} is a symbolic link (or lies under one) that leads outside ${dir}, to ${real}; ` +
       'Pliant reads and writes only inside the folder, so replace the link with the file or folder itself',
   );
 }
