@@ -2,7 +2,10 @@
 // scenarios (read-only). Every path a request names is resolved here, symlinks included, and
 // refused unless it lands inside one of them: the renderer is treated as untrusted, so a
 // compromised page can reach no more of the disk than the person deliberately opened.
-// Picks last for the session only; nothing is remembered between starts.
+// In web mode the page itself confirms picks (there is no system dialog), so there every pick
+// must also lie inside the root folder given when the server was started: a compromised page
+// can then reach no more than that root. Picks last for the session only; nothing is
+// remembered between starts.
 import { realpath, stat } from 'node:fs/promises';
 import { basename, dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
 import type { FolderPurpose } from '../sim/bridge/bridge-contract.ts';
@@ -19,8 +22,11 @@ export class AllowedFolders {
   private readonly picked: AllowedFolder[] = [];
   private readonly readOnlyRoots: string[];
 
-  /** `readOnlyRoots` must already be real paths (the caller resolves them once at start). */
-  constructor(readOnlyRoots: readonly string[]) {
+  /**
+   * `readOnlyRoots` and `confinedTo` must already be real paths (the caller resolves them once
+   * at start). With `confinedTo` (web mode), no folder outside it can be allowed.
+   */
+  constructor(readOnlyRoots: readonly string[], readonly confinedTo: string | null = null) {
     this.readOnlyRoots = [...readOnlyRoots];
   }
 
@@ -28,6 +34,7 @@ export class AllowedFolders {
   async allow(folderPath: string, purpose: FolderPurpose): Promise<string> {
     refuseUnsafeSpelling(folderPath);
     const real = await realpath(folderPath);
+    this.refuseOutsideConfinement(folderPath, real);
     if (!(await stat(real)).isDirectory()) {
       throw new RequestError('path-refused', `${shown(folderPath)} is a file, not a folder. Pick a folder.`);
     }
@@ -39,6 +46,15 @@ export class AllowedFolders {
     return this.picked;
   }
 
+  /** Throws 'path-refused' when `real` (a real path) lies outside the web-mode root folder. */
+  refuseOutsideConfinement(requested: string, real: string): void {
+    if (this.confinedTo === null || isInside(this.confinedTo, real)) return;
+    throw new RequestError(
+      'path-refused',
+      `${shown(requested)} is outside ${shown(this.confinedTo)}, the root folder this web-mode server was started with. Pick a folder inside it, or stop the server and start it again with --root naming a folder that holds yours.`,
+    );
+  }
+
   /**
    * Resolves a requested path to a real absolute path inside an allowed folder, or throws
    * 'path-refused'. Writes are refused inside the bundled (read-only) folders even if the
@@ -47,7 +63,8 @@ export class AllowedFolders {
   async resolve(requested: string, access: PathAccess): Promise<string> {
     refuseUnsafeSpelling(requested);
     const real = await realPathAllowingMissingTail(resolve(requested));
-    const inPicked = this.picked.some((f) => isInside(f.path, real));
+    // Picks are inside the root already; checked again so no path outside it is ever answered.
+    const inPicked = this.picked.some((f) => isInside(f.path, real)) && (this.confinedTo === null || isInside(this.confinedTo, real));
     const inReadOnly = this.readOnlyRoots.some((root) => isInside(root, real));
     if (access === 'write' && inReadOnly) {
       throw new RequestError('path-refused', `${shown(requested)} is inside Pliant's bundled examples, which are read-only. Save a copy in a folder of yours instead.`);

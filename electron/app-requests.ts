@@ -12,6 +12,7 @@ export function appRequests(services: RequestServices): Pick<HandlerTable, 'app.
       folderChoice: services.folderChooser.mode,
       platform: services.app.platform,
       safetyNotice: SAFETY_CAUTION,
+      jobLimits: { ...services.jobRunner.limits },
     }),
   };
 }

@@ -7,6 +7,7 @@ import { DatasetReadError } from '../sim/dataset/dataset-read-error.ts';
 import { DatasetRequestError } from '../sim/dataset/dataset-request-error.ts';
 import { UnknownSortKeyError } from '../sim/dataset/episode-listing.ts';
 import type { RequestErrorCode } from '../sim/bridge/bridge-contract.ts';
+import { appMessageOf } from './app-run-words.ts';
 import { RequestError } from './request-error.ts';
 
 /** Error class names as they survive a worker thread's postMessage, where only the name and message cross. */
@@ -20,7 +21,7 @@ export const DATASET_ERROR_CODES: Readonly<Record<string, RequestErrorCode>> = {
 /** The RequestError for a pipeline error; anything else is returned unchanged for the registry to report. */
 export function translateDatasetError(error: unknown): unknown {
   const known = error instanceof DatasetNotFoundError || error instanceof DatasetRequestError || error instanceof DatasetReadError || error instanceof UnknownSortKeyError;
-  return known ? new RequestError(DATASET_ERROR_CODES[error.name], asSentence(error.message)) : error;
+  return known ? new RequestError(DATASET_ERROR_CODES[error.name], asSentence(appMessageOf(error))) : error;
 }
 
 export function asSentence(text: string): string {

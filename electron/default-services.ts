@@ -25,10 +25,12 @@ export interface DefaultServicesOptions {
 export async function createDefaultServices(options: DefaultServicesOptions): Promise<RequestServices> {
   const bundled = await realpath(options.bundledScenariosDir).catch(() => resolve(options.bundledScenariosDir));
   const pipeline: PipelineServices = { ...simPipelineServices(), ...options.pipeline };
+  // A root that does not exist is refused here rather than confining to nothing in silence.
+  const confinedTo = options.folderChooser.mode === 'in-page' ? await realpath(options.folderChooser.rootDir) : null;
   const services: RequestServices = {
     app: { name: 'Pliant', version: options.version, mode: options.mode, platform: process.platform },
     files: createNodeFileAccess(),
-    folders: new AllowedFolders([bundled]),
+    folders: new AllowedFolders([bundled], confinedTo),
     folderChooser: options.folderChooser,
     bundledScenariosDir: bundled,
     scenarioChecker: pipeline.scenarioChecker,

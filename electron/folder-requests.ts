@@ -2,7 +2,8 @@
 // file, in one step, whose folder is then allowed) and every pick is
 // added to the allowed folders. In web mode there is no dialog: the page browses subfolder names
 // with folder.browse and confirms one with folder.allow; the session token already proves the
-// caller is the person who started the server.
+// caller is the person who started the server, and both stay inside the root folder the server
+// was started with (allowed-folders.ts), so a compromised page cannot allow `/` for itself.
 import { basename, dirname, join } from 'node:path';
 import { realpath } from 'node:fs/promises';
 import { refuseUnsafeSpelling, shown } from './allowed-folders.ts';
@@ -42,9 +43,11 @@ export function folderRequests(services: RequestServices): FolderRequests {
 
     'folder.browse': async ({ path, jsonFiles }) => {
       inPageOnly('folder.browse');
-      const requested = path === '' ? files.homeFolder() : path;
+      const root = folders.confinedTo;
+      const requested = path === '' ? (root ?? files.homeFolder()) : path;
       refuseUnsafeSpelling(requested);
       const real = await realpath(requested);
+      folders.refuseOutsideConfinement(requested, real);
       if (!(await files.isFolder(real))) {
         throw new RequestError('path-refused', `${shown(path)} is a file, not a folder.`);
       }
@@ -52,7 +55,7 @@ export function folderRequests(services: RequestServices): FolderRequests {
       const parent = dirname(real);
       const listing: FolderListing = {
         path: real,
-        parent: parent === real ? null : parent,
+        parent: parent === real || real === root ? null : parent,
         folders: names.map((name) => ({ name, path: join(real, name) })),
         truncated,
       };

@@ -9,6 +9,7 @@ import type {
   EpisodePage,
   EpisodeQuery,
   FolderPurpose,
+  JobLimits,
   JobProgress,
   JobStarted,
   ScenarioCheck,
@@ -52,6 +53,8 @@ export interface SeedReader {
 
 /** Runs long jobs off the main thread and reports their progress. */
 export interface JobRunner {
+  /** How many jobs run at once, wait, and how many worker threads an export gets (app.info states them). */
+  readonly limits: JobLimits;
   begin(spec: JobSpec): JobStarted;
   /** False when the job is unknown or already over. */
   cancel(jobId: string): boolean;
@@ -75,11 +78,12 @@ export interface FileAccess {
 
 /**
  * 'native': the shell shows the system folder dialog. 'in-page': there is no dialog (web mode);
- * the page lists folders with folder.browse and confirms one with folder.allow.
+ * the page lists folders with folder.browse and confirms one with folder.allow, only inside
+ * `rootDir` (the web-mode root folder, from the command line).
  */
 export type FolderChooser =
   | { mode: 'native'; choose(purpose: FolderPurpose): Promise<string | null> }
-  | { mode: 'in-page' };
+  | { mode: 'in-page'; rootDir: string };
 
 export interface RequestServices {
   app: { name: string; version: string; mode: 'desktop' | 'web'; platform: string };

@@ -4,7 +4,7 @@
 // calibration report. Sizes are checked before anything is read, and a file that is there but
 // wrong is reported as such ('invalid-dataset'), never shown as if it were good.
 import { readFile, stat } from 'node:fs/promises';
-import { join } from 'node:path';
+import { containedPath } from '../sim/dataset/contained-path.ts';
 import { decodeNpz } from '../sim/dataset/npz.ts';
 import { scoreProblems } from '../sim/identify/score/score-check.ts';
 import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
@@ -34,6 +34,15 @@ async function readBounded(path: string, maxBytes: number, what: string, fix: st
   return readFile(path);
 }
 
+/** A file inside a chosen report or predictions folder, refused when a link leads it out of the folder. */
+async function inside(dir: string, name: string): Promise<string> {
+  try {
+    return await containedPath(dir, name);
+  } catch (error) {
+    throw translateDatasetError(error);
+  }
+}
+
 async function optionalText(path: string): Promise<string> {
   const info = await stat(path).catch(() => null);
   if (!info || !info.isFile() || info.size > MAX_REPORT_MARKDOWN_BYTES) return '';
@@ -59,7 +68,7 @@ function isObject(value: unknown): value is Record<string, unknown> {
 
 export const SIM_IDENTIFICATION_READER: IdentificationReader = {
   async score(reportDir) {
-    const path = join(reportDir, 'score.json');
+    const path = await inside(reportDir, 'score.json');
     const fix = 'open the folder `pliant score … --out DIR` (or a score job) wrote.';
     const document = parsedJson(await readBounded(path, MAX_REPORT_JSON_BYTES, 'score report', fix), path, 'score report');
     // The same JSON Schema `pliant score` checks before it writes, so the screen only shows reports it can read whole.
@@ -67,11 +76,11 @@ export const SIM_IDENTIFICATION_READER: IdentificationReader = {
     if (problems.length > 0) {
       throw new RequestError('invalid-dataset', `${shown(path)} is not a score report of this Pliant: ${problems.slice(0, 3).join('; ')}${problems.length > 3 ? ` and ${problems.length - 3} more` : ''}. ${fix}`);
     }
-    return { path: reportDir, score: scoreView(document as ScoreDocument), reportMarkdown: await optionalText(join(reportDir, 'REPORT.md')) };
+    return { path: reportDir, score: scoreView(document as ScoreDocument), reportMarkdown: await optionalText(await inside(reportDir, 'REPORT.md')) };
   },
 
   async predictionArrays(predictionsDir, episodeId) {
-    const path = join(predictionsDir, `${episodeId}.npz`);
+    const path = await inside(predictionsDir, `${episodeId}.npz`);
     const fix = `the predictions folder needs one ${episodeId}.npz holding "positions" (T+1, N, 3); see LAYOUT.md, "Predictions folder".`;
     const bytes = await readBounded(path, MAX_PREDICTION_FILE_BYTES, 'predicted episode', fix);
     let arrays;
@@ -96,7 +105,7 @@ export const SIM_IDENTIFICATION_READER: IdentificationReader = {
   },
 
   async calibration(reportDir): Promise<CalibrationReport> {
-    const path = join(reportDir, 'calibration.json');
+    const path = await inside(reportDir, 'calibration.json');
     const fix = 'open the report folder `pliant calibrate` wrote.';
     const document = parsedJson(await readBounded(path, MAX_REPORT_JSON_BYTES, 'calibration report', fix), path, 'calibration report');
     if (!isObject(document) || document.calibrationFormat !== 1 || !Array.isArray(document.parameters) || !isObject(document.residualOverTime)) {
@@ -116,7 +125,7 @@ export const SIM_IDENTIFICATION_READER: IdentificationReader = {
       })),
       residualTimeS: numbers(residual.timeS),
       residualRmsM: numbers(residual.fittedRmsM),
-      reportMarkdown: await optionalText(join(reportDir, 'REPORT.md')),
+      reportMarkdown: await optionalText(await inside(reportDir, 'REPORT.md')),
     };
   },
 };

@@ -2,9 +2,14 @@
 // to open. Run through tsx. Opens a browser only when the BROWSER environment variable names one
 // (a common convention, no source); otherwise it just prints.
 //
-//   tsx electron/web-cli.ts [--port N] [--renderer DIR]
+//   tsx electron/web-cli.ts [--port N] [--renderer DIR] [--root DIR]
+//
+// The page can reach only folders inside the root folder (--root; by default the folder the
+// command was started in): it confirms folder picks itself, so the root is what stands between
+// a compromised page and the rest of the disk.
 import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
+import { realpath, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { SAFETY_NOTICE } from './safety-notice.ts';
@@ -14,20 +19,28 @@ import { startWebServer } from './web-server.ts';
 
 const repoRoot = fileURLToPath(new URL('..', import.meta.url));
 
-const USAGE = `Usage: npm run web [-- --port N] [-- --renderer DIR]
+const USAGE = `Usage: npm run web [-- --port N] [-- --renderer DIR] [-- --root DIR]
 
 Serves Pliant to a browser on this machine (127.0.0.1 only) and prints the address to open.
   --port N        listen on port N (default: a free port the system picks)
   --renderer DIR  the built renderer folder (default: dist/renderer)
+  --root DIR      the page may open and write folders inside DIR only
+                  (default: the folder the command was started in)
 Set BROWSER to a browser command to have it opened for you.`;
 
 interface CliOptions {
   port: number;
   rendererDir: string;
+  rootDir: string;
+}
+
+/** npm runs scripts in the package folder and keeps the folder it was started in as INIT_CWD. */
+function startedIn(): string {
+  return process.env.INIT_CWD ?? process.cwd();
 }
 
 function parseArguments(argv: readonly string[]): CliOptions | string {
-  const options: CliOptions = { port: 0, rendererDir: join(repoRoot, 'dist', 'renderer') };
+  const options: CliOptions = { port: 0, rendererDir: join(repoRoot, 'dist', 'renderer'), rootDir: startedIn() };
   for (let i = 0; i < argv.length; i += 1) {
     const flag = argv[i];
     const value = argv[i + 1];
@@ -42,6 +55,10 @@ function parseArguments(argv: readonly string[]): CliOptions | string {
     } else if (flag === '--renderer') {
       if (value === undefined) return `--renderer needs a folder.\n\n${USAGE}`;
       options.rendererDir = resolve(value);
+      i += 1;
+    } else if (flag === '--root') {
+      if (value === undefined) return `--root needs a folder.\n\n${USAGE}`;
+      options.rootDir = resolve(startedIn(), value);
       i += 1;
     } else {
       return `Unknown option ${JSON.stringify(flag)}.\n\n${USAGE}`;
@@ -61,12 +78,18 @@ async function main(): Promise<number> {
     process.stderr.write(`No built renderer in ${parsed.rendererDir} (index.html is missing). Run "npm run build:renderer" first, or pass --renderer.\n`);
     return 1;
   }
+  const rootInfo = await stat(parsed.rootDir).catch(() => null);
+  if (!rootInfo?.isDirectory()) {
+    process.stderr.write(`--root ${JSON.stringify(parsed.rootDir)} is not a folder${rootInfo ? '' : ' (it does not exist)'}. Give a folder that exists.\n`);
+    return 2;
+  }
+  const rootDir = await realpath(parsed.rootDir);
   const version = (JSON.parse(readFileSync(join(repoRoot, 'package.json'), 'utf8')) as { version: string }).version;
   const services = await createDefaultServices({
     mode: 'web',
     version,
     bundledScenariosDir: join(repoRoot, 'scenarios'),
-    folderChooser: { mode: 'in-page' },
+    folderChooser: { mode: 'in-page', rootDir },
     reportInternalError: (name, error) => console.error(`[pliant] request ${name} failed:`, error),
   });
   let server;
@@ -86,6 +109,7 @@ async function main(): Promise<number> {
   }
   process.stdout.write(
     `Pliant web mode is running. Open this address in a browser on this machine:\n\n  ${server.url}\n\n` +
+      `The page may open and write folders inside ${rootDir} only (change with --root).\n` +
       `The address carries this session's key; anyone with it can use Pliant as you. Stop with Ctrl+C.\n${SAFETY_NOTICE}\n`,
   );
 

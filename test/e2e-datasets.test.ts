@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { defaultJobLimits } from '../electron/job-limits.ts';
 import { bodyPixels, chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
 import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
 import { waitInPage } from './support/e2e-page-condition.ts';
@@ -73,6 +74,16 @@ describe.runIf(chromium.available && python.available)('Export, Datasets and See
     expect(caution).toContain('does not replace hardware testing');
     expect(caution).toContain('conservative limits');
     expect(await page.isVisible('[data-screen="export"] [data-role="safety-caution"]')).toBe(true);
+  });
+
+  it('states the job limits the shell applies: jobs at once, the queue, worker threads up to the core count', async () => {
+    await page.click('[data-nav="export"]');
+    const limits = defaultJobLimits();
+    expect(await page.textContent('[data-role="export-job-limits"]')).toBe(
+      `At most ${limits.runningJobs} jobs (exports, regenerations, scores, pictures) run at once; later ones wait in a queue of up to ${limits.queuedJobs}, in the order they were started, and the progress line shows their place.`,
+    );
+    expect(await page.getAttribute('[data-role="export-workers"]', 'max')).toBe(String(limits.workerThreadsPerJob));
+    expect(await page.textContent('[data-screen="export"] .form-grid')).toContain(`1 to ${limits.workerThreadsPerJob}, the number of cores Pliant counts on this computer`);
   });
 
   it('a small export reaches its last episode and every checksum verifies', async () => {

@@ -199,7 +199,9 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     expect(await page.$$eval(`${legend} .legend-swatches li`, (items) => items.length)).toBeGreaterThan(1);
   });
 
-  it(`a ${LARGE_LATTICE_NODES}-node lattice plays with a per-frame update far inside the 16.7 ms of a 60 Hz frame (common practice, no source)`, async () => {
+  // No timing is asserted: how long a frame takes is a benchmark's question, and a loaded machine
+  // must not fail the suite. The test checks that the large lattice plays and the readout measures.
+  it(`a ${LARGE_LATTICE_NODES}-node lattice plays and its frame-cost readout measures the update and the draw`, async () => {
     await openDemo(page, 'korrin-fin.json');
     await replaceScenarioText(page, largeLatticeScenarioText());
     expect(await page.getAttribute('[data-role="problem-summary"]', 'data-state')).toBe('ok');

@@ -4,13 +4,14 @@
 // common practice, no source); the rest runs real worker threads from a small worker script that
 // speaks the protocol in electron/job-worker-protocol.ts.
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
 import type { JobSpec, JobWorkerData } from '../electron/job-worker-protocol.ts';
 import { RequestError } from '../electron/request-error.ts';
+import { defaultJobLimits } from '../electron/job-limits.ts';
 import { createWorkerJobRunner } from '../electron/worker-job-runner.ts';
 import type { JobWorker } from '../electron/worker-job-runner.ts';
 
@@ -137,6 +138,80 @@ describe('progress arithmetic (worked example)', () => {
     } catch (error) {
       expect((error as RequestError).code).toBe('not-available');
     }
+  });
+});
+
+describe('queue and limits', () => {
+  const limits = { runningJobs: 1, queuedJobs: 2, workerThreadsPerJob: 2 };
+
+  it('runs at most runningJobs at once, queues the rest in order with their places, and refuses beyond the queue', () => {
+    const hands: ReturnType<typeof handWorker>[] = [];
+    const started: JobWorkerData[] = [];
+    let next = 0;
+    const runner = createWorkerJobRunner({
+      workerUrls: { export: new URL('file:///unused.mjs') },
+      startWorker: (_url, data) => {
+        started.push(data);
+        const hand = handWorker();
+        hands.push(hand);
+        return hand.worker;
+      },
+      newJobId: () => `job-${(next += 1)}`,
+      limits,
+    });
+    expect(runner.limits).toEqual(limits);
+    const events: JobProgress[] = [];
+    runner.onProgress((p) => events.push(p));
+    runner.begin(exportSpec('a'));
+    runner.begin(exportSpec('b'));
+    runner.begin(exportSpec('c'));
+    expect(started.map((d) => d.jobId)).toEqual(['job-1']);
+    expect(events.map((e) => [e.jobId, e.state, e.queuePosition])).toEqual([
+      ['job-1', 'running', undefined],
+      ['job-2', 'queued', 1],
+      ['job-3', 'queued', 2],
+    ]);
+    let refusal: unknown;
+    try {
+      runner.begin(exportSpec('d'));
+    } catch (error) {
+      refusal = error;
+    }
+    expect(refusal).toBeInstanceOf(RequestError);
+    expect((refusal as RequestError).code).toBe('not-available');
+    expect((refusal as RequestError).message).toBe('1 jobs are running and 2 are waiting, the most Pliant accepts. Wait for one to finish, or cancel one, then start this one again.');
+
+    // The first finishes: the next in line starts and the one behind it moves up.
+    events.length = 0;
+    hands[0].listeners.message({ type: 'done', done: 3, total: 3 });
+    expect(started.map((d) => d.jobId)).toEqual(['job-1', 'job-2']);
+    expect(events.map((e) => [e.jobId, e.state, e.queuePosition])).toEqual([
+      ['job-1', 'done', undefined],
+      ['job-2', 'running', undefined],
+      ['job-3', 'queued', 1],
+    ]);
+
+    // A waiting job cancels at once and never starts a worker.
+    events.length = 0;
+    expect(runner.cancel('job-3')).toBe(true);
+    expect(runner.cancel('job-3')).toBe(false);
+    expect(events).toEqual([{ jobId: 'job-3', kind: 'export', done: 0, total: 0, episodesPerS: 0, etaS: null, state: 'cancelled', message: 'Cancelled while waiting in the queue; it never started, so nothing was written.' }]);
+    hands[1].listeners.message({ type: 'done', done: 3, total: 3 });
+    expect(started.map((d) => d.jobId)).toEqual(['job-1', 'job-2']);
+  });
+
+  it('gives an export no more worker threads than workerThreadsPerJob', () => {
+    const started: JobWorkerData[] = [];
+    const runner = createWorkerJobRunner({ workerUrls: { export: new URL('file:///unused.mjs') }, startWorker: (_url, data) => (started.push(data), handWorker().worker), limits });
+    runner.begin({ ...exportSpec('many'), workers: 64 } as JobSpec);
+    runner.onProgress(() => {});
+    expect(started[0].spec).toMatchObject({ kind: 'export', workers: 2 });
+  });
+
+  it('by default runs two jobs at once, queues up to 16 and caps worker threads at the core count', () => {
+    expect(defaultJobLimits(2)).toEqual({ runningJobs: 2, queuedJobs: 16, workerThreadsPerJob: 2 });
+    expect(defaultJobLimits(8).workerThreadsPerJob).toBe(8);
+    expect(createWorkerJobRunner({ workerUrls: {} }).limits).toEqual(defaultJobLimits(availableParallelism()));
   });
 });
 

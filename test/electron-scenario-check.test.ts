@@ -3,6 +3,7 @@
 // column, as editors count): in '{\n  "nonsense": 1\n}' the key starts on line 2, column 3; in
 // '{ "a": ' the missing value is at the end of the text, line 1, column 8 (ECMA-404: a member
 // needs a value after its colon).
+import { tmpdir } from 'node:os';
 import { describe, expect, it } from 'vitest';
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
@@ -13,7 +14,7 @@ async function registry() {
     mode: 'web',
     version: '0.1.0',
     bundledScenariosDir: '/nonexistent-pliant-scenarios',
-    folderChooser: { mode: 'in-page' },
+    folderChooser: { mode: 'in-page', rootDir: tmpdir() },
     pipeline: { scenarioChecker: SIM_SCENARIO_CHECKER },
   });
   return createRequestHandlers(services);

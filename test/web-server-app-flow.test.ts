@@ -51,7 +51,7 @@ describe.runIf(python.available)('web mode: the whole dataset flow over HTTP', (
   async function jobOver(jobId: string): Promise<JobProgress[]> {
     for (let waitedMs = 0; waitedMs < 180_000; waitedMs += 50) {
       const mine = progress.filter((p) => p.jobId === jobId);
-      if (mine.some((p) => p.state !== 'running')) return mine;
+      if (mine.some((p) => p.state !== 'running' && p.state !== 'queued')) return mine;
       await new Promise((resolve) => setTimeout(resolve, 50));
     }
     throw new Error(`job ${jobId} did not finish; events: ${JSON.stringify(progress)}`);
@@ -62,7 +62,7 @@ describe.runIf(python.available)('web mode: the whole dataset flow over HTTP', (
     mkdirSync(join(root, 'renderer'));
     writeFileSync(join(root, 'renderer', 'index.html'), '<!doctype html><title>Pliant</title>');
     mkdirSync(join(root, 'korrin-bay'));
-    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(REPO_ROOT, 'scenarios'), folderChooser: { mode: 'in-page' } });
+    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(REPO_ROOT, 'scenarios'), folderChooser: { mode: 'in-page', rootDir: root } });
     server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer'), port: 0 });
     events = new EventSource(`http://127.0.0.1:${server.port}/api/events?session=${server.token}`);
     await new Promise<void>((resolve, reject) => {

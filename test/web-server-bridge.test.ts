@@ -10,6 +10,7 @@ import { EventSource } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BridgeEvent, JobProgress } from '../sim/bridge/bridge-contract.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
+import { defaultJobLimits } from '../electron/job-limits.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import { startWebServer } from '../electron/web-server.ts';
 import type { RunningWebServer } from '../electron/web-server.ts';
@@ -62,7 +63,7 @@ parentPort.postMessage({ type: 'done', done: 3, total: 3 });
     mode: 'web',
     version: '0.1.0',
     bundledScenariosDir: join(root, 'none'),
-    folderChooser: { mode: 'in-page' },
+    folderChooser: { mode: 'in-page', rootDir: root },
     pipeline: { jobWorkerUrls: { export: pathToFileURL(worker) } },
   });
   server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer') });
@@ -89,6 +90,8 @@ describe('web bridge against the web-mode server', () => {
   it('answers requests with their results', async () => {
     const info = await bridge().invoke('app.info', {});
     expect(info).toMatchObject({ name: 'Pliant', mode: 'web', folderChoice: 'in-page' });
+    // The page states the limits the shell's job runner applies.
+    expect(info.jobLimits).toEqual(defaultJobLimits());
   });
 
   it('resolves folder.choose through the page\'s own chooser and grants that folder', async () => {
@@ -114,7 +117,7 @@ describe('web bridge against the web-mode server', () => {
     const finished = new Promise<void>((resolve) => {
       const stop = web.onEvent((event) => {
         events.push(event);
-        if (event.payload.state !== 'running') {
+        if (event.payload.state !== 'running' && event.payload.state !== 'queued') {
           stop();
           resolve();
         }
@@ -137,7 +140,7 @@ describe('web bridge against the web-mode server', () => {
   });
 
   it('reports a stopped server as shell-unreachable', async () => {
-    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'none'), folderChooser: { mode: 'in-page' } });
+    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'none'), folderChooser: { mode: 'in-page', rootDir: root } });
     const shortLived = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer') });
     const web = createWebBridge({ origin: `http://127.0.0.1:${shortLived.port}`, token: shortLived.token, fetch: (url, init) => fetch(url, init), createEventSource: eventSource });
     await shortLived.close();

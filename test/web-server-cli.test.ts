@@ -27,10 +27,13 @@ afterAll(() => {
   rmSync(datasets, { recursive: true, force: true });
 });
 
-function startCli(args: string[]) {
+/** `startedIn` stands for the folder `npm run web` was typed in (npm passes it as INIT_CWD). */
+function startCli(args: string[], startedIn?: string) {
   const env = { ...process.env };
   delete env.BROWSER;
-  const child = spawn(process.execPath, ['--import', 'tsx', 'electron/web-cli.ts', ...args], { cwd: process.cwd(), env, stdio: ['ignore', 'pipe', 'pipe'] });
+  delete env.INIT_CWD;
+  if (startedIn !== undefined) env.INIT_CWD = startedIn;
+  const child = spawn(process.execPath, ['--import', 'tsx', join(process.cwd(), 'electron/web-cli.ts'), ...args], { cwd: process.cwd(), env, stdio: ['ignore', 'pipe', 'pipe'] });
   let stdout = '';
   let stderr = '';
   child.stdout.on('data', (c: Buffer) => (stdout += c.toString('utf8')));
@@ -39,9 +42,22 @@ function startCli(args: string[]) {
   return { child, exited, out: () => stdout, err: () => stderr };
 }
 
+function addressOf(cli: ReturnType<typeof startCli>): Promise<string> {
+  return new Promise<string>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`no address printed; stderr: ${cli.err()}`)), 60_000);
+    cli.child.stdout.on('data', () => {
+      const match = /http:\/\/127\.0\.0\.1:\d+\/#session=[0-9a-f]{64}/.exec(cli.out());
+      if (match && cli.out().includes(SAFETY_CAUTION)) {
+        clearTimeout(timer);
+        resolve(match[0]);
+      }
+    });
+  });
+}
+
 describe('web-mode command line', () => {
   it('prints the address, serves the page and answers requests, then stops on SIGTERM', async () => {
-    const cli = startCli(['--port', '0', '--renderer', renderer]);
+    const cli = startCli(['--port', '0', '--renderer', renderer, '--root', datasets]);
     const url = await new Promise<string>((resolve, reject) => {
       const timer = setTimeout(() => reject(new Error(`no address printed; stderr: ${cli.err()}`)), 60_000);
       cli.child.stdout.on('data', () => {
@@ -54,6 +70,7 @@ describe('web-mode command line', () => {
       });
     });
     expect(cli.out()).toMatch(/does not replace hardware testing/);
+    expect(cli.out()).toContain(`The page may open and write folders inside ${datasets} only (change with --root).`);
     const address = new URL(url);
     const page = await fetch(new URL('/', address));
     expect(await page.text()).toBe('<!doctype html><title>Pliant web</title>');
@@ -68,6 +85,29 @@ describe('web-mode command line', () => {
     expect(await request('dataset.verify', { path: tether })).toMatchObject({ ok: true, result: { ok: true, problems: [] } });
     cli.child.kill('SIGTERM');
     expect(await cli.exited).toBe(0);
+  });
+
+  it('confines the page to the folder it was started in when --root is not given', async () => {
+    // Started in `renderer`: the dataset folder beside it is outside the root.
+    const cli = startCli(['--port', '0', '--renderer', renderer], renderer);
+    const url = await addressOf(cli);
+    expect(cli.out()).toContain(`inside ${renderer} only`);
+    const address = new URL(url);
+    const token = address.hash.replace('#session=', '');
+    const reply = await (await fetch(new URL('/api/request/folder.allow', address), {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-pliant-session': token },
+      body: JSON.stringify({ path: join(datasets, 'tether'), purpose: 'dataset' }),
+    })).json() as { ok: boolean; error: { code: string } };
+    expect(reply).toMatchObject({ ok: false, error: { code: 'path-refused' } });
+    cli.child.kill('SIGTERM');
+    expect(await cli.exited).toBe(0);
+  });
+
+  it('explains a --root that is not a folder and exits 2', async () => {
+    const cli = startCli(['--renderer', renderer, '--root', join(datasets, 'no-such-folder')]);
+    expect(await cli.exited).toBe(2);
+    expect(cli.err()).toMatch(/^--root ".*no-such-folder" is not a folder \(it does not exist\)\. Give a folder that exists\./);
   });
 
   it('explains a bad --port and exits 2', async () => {

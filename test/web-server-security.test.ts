@@ -59,7 +59,7 @@ beforeAll(async () => {
   writeFileSync(join(rendererDir, '.env'), 'KEY=1');
   writeFileSync(join(root, 'secret.txt'), 'not part of the app');
   symlinkSync(root, join(rendererDir, 'escape'));
-  const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'scenarios'), folderChooser: { mode: 'in-page' } });
+  const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'scenarios'), folderChooser: { mode: 'in-page', rootDir: root } });
   server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir });
   port = server.port;
 });
@@ -89,7 +89,7 @@ describe('binding and session key', () => {
   });
 
   it('draws a new key on every start', async () => {
-    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'scenarios'), folderChooser: { mode: 'in-page' } });
+    const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'scenarios'), folderChooser: { mode: 'in-page', rootDir: root } });
     const second = await startWebServer({ handlers: createRequestHandlers(services), rendererDir: join(root, 'renderer') });
     try {
       expect(second.token).toMatch(/^[0-9a-f]{64}$/);
@@ -268,6 +268,27 @@ describe('accepted requests', () => {
     expect(JSON.parse(written.body)).toEqual({ ok: true, result: { path: target, bytes: 25 } });
     expect(JSON.parse((await api('scenario.read', { path: target })).body)).toEqual({ ok: true, result: { path: target, text } });
     expect(errorCode(await api('folder.choose', { purpose: 'dataset' }))).toBe('unsupported-in-mode');
+  });
+
+  it('keeps the page inside the root folder it was started with: no folder outside it can be allowed, browsed or read', async () => {
+    // The root is the temporary folder `root`; its parent and `/` lie outside it.
+    const outside = join(root, '..');
+    const parent = realpathSync(outside);
+    symlinkSync(parent, join(root, 'korrin-bay', 'link-out'));
+    expect(errorCode(await api('folder.allow', { path: '/', purpose: 'scenario' }))).toBe('path-refused');
+    expect(errorCode(await api('folder.allow', { path: parent, purpose: 'dataset' }))).toBe('path-refused');
+    // A link inside the root that leads out of it is judged by where it leads.
+    expect(errorCode(await api('folder.allow', { path: join(root, 'korrin-bay', 'link-out'), purpose: 'dataset' }))).toBe('path-refused');
+    expect(errorCode(await api('folder.browse', { path: '/' }))).toBe('path-refused');
+    expect(errorCode(await api('folder.browse', { path: join(root, 'korrin-bay', 'link-out') }))).toBe('path-refused');
+    const refusal = JSON.parse((await api('folder.allow', { path: '/', purpose: 'scenario' })).body) as { error: { message: string } };
+    expect(refusal.error.message).toContain('root folder this web-mode server was started with');
+    expect(refusal.error.message).toContain(JSON.stringify(root));
+    // Browsing starts at the root, and the root has no parent to climb to.
+    const start = JSON.parse((await api('folder.browse', { path: '' })).body) as { result: { path: string; parent: string | null } };
+    expect(start.result).toMatchObject({ path: root, parent: null });
+    expect(errorCode(await api('scenario.read', { path: join(parent, 'anything.json') }))).toBe('path-refused');
+    expect(errorCode(await api('folder.listJson', { path: parent }))).toBe('path-refused');
   });
 
   it('opens the event stream with the key as text/event-stream', async () => {

@@ -7,7 +7,7 @@ export type ScenarioChecker = (text: string, fileName: string) => Promise<Scenar
 
 export interface SweepState {
   text: string;
-  /** Bare file name used in problem lines, e.g. "korrin-bay-tether.json". */
+  /** Bare file name used in problem lines, e.g. "korrin-tether.json". */
   fileName: string;
   /** Where the text was read from or last saved to; null for a new, unsaved scenario. */
   path: string | null;

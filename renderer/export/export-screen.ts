@@ -32,14 +32,17 @@ export class ExportScreen implements Screen {
   private parentFolder: string | null = null;
   private jobId: string | null = null;
   private outDir: string | null = null;
+  /** Most worker threads an export gets here: the shell caps them at the core count. */
+  private readonly maxWorkers: number;
 
   constructor(private readonly bridge: PliantBridge, private readonly sweep: SweepDocument, info: AppInfo, private readonly openDataset: (path: string) => void) {
     this.scenarioLine = h('p', { className: 'export-scenario', attrs: { 'data-role': 'export-scenario' } });
     this.folderLine = h('span', { className: 'folder-line', attrs: { 'data-role': 'export-folder' }, text: 'no folder chosen' });
     this.nameInput = h('input', { attrs: { type: 'text', spellcheck: 'false', 'aria-label': 'Dataset folder name', 'data-role': 'export-name' } });
     this.format = select([['npz', 'NPZ (zipped NPY arrays)'], ['hdf5', 'HDF5'], ['both', 'NPZ and HDF5']], 'npz', { 'data-role': 'export-format' });
-    const cores = Math.max(1, Math.min(BRIDGE_LIMITS.maxWorkers, navigator.hardwareConcurrency || 2));
-    this.workers = h('input', { attrs: { type: 'number', min: '1', max: String(BRIDGE_LIMITS.maxWorkers), step: '1', value: String(Math.max(1, cores - 1)), 'data-role': 'export-workers' } });
+    const limits = info.jobLimits;
+    this.maxWorkers = Math.max(1, Math.min(BRIDGE_LIMITS.maxWorkers, limits.workerThreadsPerJob));
+    this.workers = h('input', { attrs: { type: 'number', min: '1', max: String(this.maxWorkers), step: '1', value: String(Math.max(1, this.maxWorkers - 1)), 'data-role': 'export-workers' } });
     this.resume = h('input', { attrs: { type: 'checkbox', 'data-role': 'export-resume' } });
     this.startButton = button('Start export', () => void this.start(), { className: 'primary', attrs: { 'data-role': 'export-start' } });
     this.cancelButton = button('Cancel', () => void this.cancel(), { attrs: { 'data-role': 'export-cancel' } });
@@ -58,9 +61,14 @@ export class ExportScreen implements Screen {
         h('div', { className: 'field-inline' }, h('span', { className: 'field-caption', text: 'Into folder' }), this.folderLine, button('Choose…', () => void this.chooseFolder(), { attrs: { 'data-role': 'export-choose' } })),
         labelled('Dataset folder name', this.nameInput),
         labelled('Format', this.format),
-        labelled('Worker threads', this.workers, `1 to ${BRIDGE_LIMITS.maxWorkers}; this computer has ${navigator.hardwareConcurrency || 'an unknown number of'} cores`),
+        labelled('Worker threads', this.workers, `1 to ${this.maxWorkers}, the number of cores Pliant counts on this computer`),
         labelled('Resume a cancelled export in this folder', this.resume),
       ),
+      h('p', {
+        className: 'job-limits',
+        attrs: { 'data-role': 'export-job-limits' },
+        text: `At most ${limits.runningJobs} jobs (exports, regenerations, scores, pictures) run at once; later ones wait in a queue of up to ${limits.queuedJobs}, in the order they were started, and the progress line shows their place.`,
+      }),
       h('div', { className: 'toolbar' }, this.startButton, this.cancelButton),
       this.status.root,
       this.job.bar,
@@ -115,8 +123,8 @@ export class ExportScreen implements Screen {
       return;
     }
     const workers = Math.round(Number(this.workers.value));
-    if (!(workers >= 1 && workers <= BRIDGE_LIMITS.maxWorkers)) {
-      this.status.show('error', `Worker threads must be a whole number from 1 to ${BRIDGE_LIMITS.maxWorkers}, got ${this.workers.value}.`);
+    if (!(workers >= 1 && workers <= this.maxWorkers)) {
+      this.status.show('error', `Worker threads must be a whole number from 1 to ${this.maxWorkers}, got ${this.workers.value}.`);
       return;
     }
     this.outDir = insideFolder(this.parentFolder, name);

@@ -40,6 +40,8 @@ export class JobProgressView {
     this.text.textContent = words;
     this.text.removeAttribute('data-done');
     this.text.removeAttribute('data-total');
+    this.text.removeAttribute('data-state');
+    this.text.removeAttribute('data-queue-position');
   }
 
   follow(jobId: string): void {
@@ -55,7 +57,10 @@ export class JobProgressView {
     this.text.textContent = describeRate(p);
     this.text.setAttribute('data-done', String(p.done));
     this.text.setAttribute('data-total', String(p.total));
-    if (p.state === 'running') return;
+    this.text.setAttribute('data-state', p.state);
+    if (p.state === 'queued') this.text.setAttribute('data-queue-position', String(p.queuePosition ?? ''));
+    else this.text.removeAttribute('data-queue-position');
+    if (p.state === 'running' || p.state === 'queued') return;
     this.jobId = null;
     this.ended(p);
   }

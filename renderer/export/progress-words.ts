@@ -1,9 +1,12 @@
 // Job progress in words: how many episodes (a render job: pictures) are done, how fast, and about
-// how long is left.
+// how long is left; or, for a job waiting for a free place, where it stands in the queue.
 import type { JobProgress } from '../../sim/bridge/bridge-contract.ts';
 
 export function describeRate(p: JobProgress): string {
   const counted = p.kind === 'render' ? 'pictures' : 'episodes';
+  if (p.state === 'queued') {
+    return `waiting to start · ${p.queuePosition === 1 ? 'next in the queue' : `number ${p.queuePosition ?? '?'} in the queue`}`;
+  }
   const head = `${p.done} of ${p.total} ${counted}`;
   const rate = p.episodesPerS > 0 ? ` · ${p.episodesPerS >= 10 ? p.episodesPerS.toFixed(0) : p.episodesPerS.toPrecision(2)} ${counted}/s` : '';
   if (p.state === 'done') return `${head} · done${rate}`;

@@ -92,7 +92,7 @@ export class SweepScreen implements Screen {
     }
   }
 
-  /** Opens a demo by file name (e.g. "korrin-bay-tether.json"). */
+  /** Opens a demo by file name (e.g. "korrin-tether.json"). */
   async openExampleNamed(fileName: string): Promise<void> {
     if (this.exampleList.length === 0) await this.shown();
     const example = this.exampleList.find((e) => e.fileName === fileName);

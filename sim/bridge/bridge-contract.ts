@@ -58,7 +58,18 @@ export type JobKind = 'export' | 'reproduce' | 'score' | 'render';
 export type PictureOutput = 'gif' | 'frames';
 /** Seen from the side (x right, y up), from above (x right, z down) or both side by side. */
 export type PictureView = 'side' | 'above' | 'both';
-export type JobState = 'running' | 'done' | 'cancelled' | 'failed';
+/** 'queued': accepted, waiting for a free place among the jobs that run at once (JobLimits). */
+export type JobState = 'queued' | 'running' | 'done' | 'cancelled' | 'failed';
+
+/** How much long work the shell runs at once; the export screen states them. */
+export interface JobLimits {
+  /** Jobs that run at the same time; later ones wait in a queue, in the order they were started. */
+  runningJobs: number;
+  /** Most jobs that may wait; a job started beyond this is refused with 'not-available'. */
+  queuedJobs: number;
+  /** An export asking for more worker threads gets this many (the machine's core count). */
+  workerThreadsPerJob: number;
+}
 /** Element types an episode array may have; bytes are little-endian. */
 export type ArrayDtype = 'float64' | 'float32' | 'int32' | 'uint32' | 'int16' | 'uint16' | 'int8' | 'uint8';
 
@@ -72,10 +83,11 @@ export interface AppInfo {
   platform: string;
   /** Shown on the export screen and in every dataset card. */
   safetyNotice: string;
+  jobLimits: JobLimits;
 }
 
 export interface ExampleScenario {
-  /** File name inside the bundled scenarios folder, e.g. "korrin-bay-tether.json". */
+  /** File name inside the bundled scenarios folder, e.g. "korrin-tether.json". */
   fileName: string;
   /** Absolute path, readable with `scenario.read` (the bundled folder is read-only). */
   path: string;
@@ -377,6 +389,8 @@ export interface JobProgress {
   /** Seconds left at the current rate; null before the rate is known. */
   etaS: number | null;
   state: JobState;
+  /** While 'queued': 1 for the job that starts next, 2 for the one after it, and so on. */
+  queuePosition?: number;
   /** Why a job failed or was cancelled, or what a finished job found, in words for the user. */
   message?: string;
 }

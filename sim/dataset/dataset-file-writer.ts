@@ -1,10 +1,13 @@
 // Writes one file of a dataset folder through a temporary name and a rename (atomic-file.ts), so
 // a reader or a resumed run never finds half a file under its final name, and returns its
 // manifest entry. Failures arrive as DatasetWriteError, which names the file and what to do.
+// A file whose folder (episodes/, card/, …) is a link leading out of the dataset folder is
+// refused before anything is written (contained-path.ts).
 import { createHash } from 'node:crypto';
 import { mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { writeFileAtomic, writeFileAtomicStreamed } from './atomic-file.ts';
+import { containedPathSync } from './contained-path.ts';
 import { sha256Hex } from './sha256.ts';
 import type { FileRecord } from './dataset-manifest.ts';
 import { toDatasetWriteError } from './dataset-write-error.ts';
@@ -19,7 +22,7 @@ export function ensureFolder(path: string): void {
 
 export function writeDatasetFile(outDir: string, relativePath: string, data: Uint8Array | string): FileRecord {
   const bytes = typeof data === 'string' ? new TextEncoder().encode(data) : data;
-  const path = join(outDir, relativePath);
+  const path = containedPathSync(outDir, relativePath);
   ensureFolder(dirname(path));
   writeFileAtomic(path, bytes);
   return { path: relativePath, sha256: sha256Hex(bytes), sizeBytes: bytes.length };
@@ -33,7 +36,7 @@ const STREAMED_PIECE_UNITS = 1 << 16;
  * UTF-8 on the way, so the whole text never has to be in memory; atomic like writeDatasetFile.
  */
 export function writeDatasetTextStreamed(outDir: string, relativePath: string, produce: (emit: (text: string) => void) => void): FileRecord {
-  const path = join(outDir, relativePath);
+  const path = containedPathSync(outDir, relativePath);
   ensureFolder(dirname(path));
   const hash = createHash('sha256');
   const encoder = new TextEncoder();

@@ -10,6 +10,7 @@
 // file is written one episode group at a time, and manifest.json is written member by member.
 // What is kept for the whole sweep is a few numbers per episode (split positions and the
 // scalar labels the card's histograms need).
+import { say } from './run-words.ts';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import { NORMALISED_ARRAYS } from './dataset-manifest.ts';
@@ -199,7 +200,7 @@ async function assembleSplit(request: FinishRequest, split: string, positions: r
   await writeSplitHdf5(absolute, { datasetName: request.seed.scenario.name, split, masterSeed: request.seed.masterSeed, normalisation }, splitEpisodes(request, positions), request.seed.scenario.export.compression);
   const { completions } = request;
   const digest = await digestFile(absolute);
-  if (digest.kind !== 'hashed') throw new DatasetReadError(absolute, '', `the file just written cannot be read back (${digest.kind === 'missing' ? 'ENOENT' : digest.reason})`, 'check the disk and run the same command again with --resume');
+  if (digest.kind !== 'hashed') throw new DatasetReadError(absolute, '', `the file just written cannot be read back (${digest.kind === 'missing' ? 'ENOENT' : digest.reason})`, `check the disk and ${say('run-again-resuming')}`);
   return {
     path,
     sha256: digest.sha256,

@@ -2,6 +2,7 @@
 // (checked against the schema) and whether a run is still in progress there.
 import { stat } from 'node:fs/promises';
 import { join } from 'node:path';
+import { containedPath } from './contained-path.ts';
 import { MANIFEST_FILE, SEED_FILE, WORK_FOLDER } from './dataset-files.ts';
 import type { DatasetManifest } from './dataset-manifest.ts';
 import { manifestProblems } from './manifest-check.ts';
@@ -27,8 +28,8 @@ export async function readFolderState(dir: string): Promise<FolderState> {
     throw new DatasetRequestError(`${dir} does not exist; give the folder a Pliant run wrote`);
   }
   if (!info.isDirectory()) throw new DatasetRequestError(`${dir} is a file; give the dataset folder that holds ${MANIFEST_FILE}`);
-  const seedText = await readTextIfPresent(join(dir, SEED_FILE));
-  const manifestText = await readTextIfPresent(join(dir, MANIFEST_FILE));
+  const seedText = await readTextIfPresent(await containedPath(dir, SEED_FILE));
+  const manifestText = await readTextIfPresent(await containedPath(dir, MANIFEST_FILE));
   let inProgress: boolean;
   try {
     inProgress = (await stat(join(dir, WORK_FOLDER))).isDirectory();

@@ -12,6 +12,7 @@ import { DatasetWriteError } from './dataset-write-error.ts';
 import { EpisodeBuildError } from './episode-product.ts';
 import { generateDataset } from './generate-dataset.ts';
 import type { GenerationEvent } from './generation-progress.ts';
+import { RejectionLimitError } from './rejection-limit.ts';
 import { replayFilesOf } from './replay-inputs.ts';
 import { reproduceDataset, seedEditedWords } from './reproduce-dataset.ts';
 import type { JobMessage } from './job-message.ts';
@@ -27,7 +28,9 @@ const PROGRESS_INTERVAL_MS = 250;
 
 function expectedFailure(error: unknown): string | null {
   if (error instanceof ScenarioProblemError) return formatProblems(error.problems, 'scenario');
-  if (error instanceof DatasetRequestError || error instanceof DatasetWriteError || error instanceof DatasetReadError || error instanceof EpisodeBuildError) return error.message;
+  // Neutral text (run-words.ts): the shell that shows the message words the run's settings itself.
+  if (error instanceof DatasetRequestError || error instanceof DatasetWriteError || error instanceof DatasetReadError || error instanceof RejectionLimitError) return error.neutralMessage;
+  if (error instanceof EpisodeBuildError) return error.message;
   return null;
 }
 

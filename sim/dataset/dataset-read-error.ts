@@ -1,10 +1,14 @@
 // The user-facing error for a dataset or controls file that cannot be read or is not in the
 // expected format: names the file and the place in it, what is wrong and how to fix it.
 
+import { COMMAND_LINE_WORDS, wordRun } from './run-words.ts';
+
 export class DatasetReadError extends Error {
   override readonly name = 'DatasetReadError';
   /** The file that was being read. */
   readonly path: string;
+  /** The message with the run's settings in neutral form (run-words.ts), for a shell to word itself. */
+  readonly neutralMessage: string;
 
   /**
    * @param path the file
@@ -13,7 +17,9 @@ export class DatasetReadError extends Error {
    * @param fix how to fix it
    */
   constructor(path: string, where: string, problem: string, fix: string) {
-    super(`${path}${where ? ` (${where})` : ''}: ${problem}; ${fix}`);
+    const neutral = `${path}${where ? ` (${where})` : ''}: ${problem}; ${fix}`;
+    super(wordRun(neutral, COMMAND_LINE_WORDS));
     this.path = path;
+    this.neutralMessage = neutral;
   }
 }

@@ -6,6 +6,7 @@
 import { readFile, stat } from 'node:fs/promises';
 import { basename, join } from 'node:path';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from './dataset-files.ts';
+import { containedPath } from './contained-path.ts';
 import { readFolderState } from './dataset-folder-state.ts';
 import type { ArrayRecord, DatasetManifest, StoredDtype } from './dataset-manifest.ts';
 import { DatasetNotFoundError } from './dataset-not-found-error.ts';
@@ -113,7 +114,7 @@ async function summarise(dir: string, entry: CachedDataset): Promise<DatasetSumm
   const formats: ('npz' | 'hdf5')[] = [];
   if (manifest.files.some((f) => f.kind === 'episode-npz')) formats.push('npz');
   if (manifest.files.some((f) => f.kind === 'split-hdf5')) formats.push('hdf5');
-  const seedPath = join(dir, SEED_FILE);
+  const seedPath = await containedPath(dir, SEED_FILE);
   const seedThere = await stat(seedPath).then((s) => s.isFile(), () => false);
   const finished = manifest.run.finishedAt;
   return {
@@ -133,9 +134,11 @@ async function summarise(dir: string, entry: CachedDataset): Promise<DatasetSumm
 }
 
 async function readCard(dir: string): Promise<string> {
+  // Outside the try: a card that links out of the folder is refused, not reported as missing.
+  const path = await containedPath(dir, CARD_FILE);
   let text: string;
   try {
-    text = await readFile(join(dir, CARD_FILE), 'utf8');
+    text = await readFile(path, 'utf8');
   } catch {
     return `(${CARD_FILE} is missing from this folder; run Verify to see what else is.)`;
   }

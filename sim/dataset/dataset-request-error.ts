@@ -3,9 +3,15 @@
 // to fix it; the command line prints only that and exits with 2. (Failed reads and writes on the
 // way are DatasetReadError and DatasetWriteError.)
 
+import { COMMAND_LINE_WORDS, wordRun } from './run-words.ts';
+
 export class DatasetRequestError extends Error {
+  /** The message with the run's settings in neutral form (run-words.ts), for a shell to word itself. */
+  readonly neutralMessage: string;
+
   constructor(message: string) {
-    super(message);
+    super(wordRun(message, COMMAND_LINE_WORDS));
     this.name = 'DatasetRequestError';
+    this.neutralMessage = message;
   }
 }

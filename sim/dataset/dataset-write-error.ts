@@ -1,6 +1,7 @@
 // The user-facing error for a dataset file that could not be written: says what went wrong,
 // where, and how to fix it, in one line the command line and the app can show as it is.
 import { dirname } from 'node:path';
+import { COMMAND_LINE_WORDS, say, wordRun } from './run-words.ts';
 
 export type DatasetWriteFailure =
   | 'disk-full'
@@ -21,9 +22,12 @@ export class DatasetWriteError extends Error {
   readonly errno: string | undefined;
   /** The same as `errno`, under the name Node's system errors use, so code that checks `error.code` treats both alike. */
   readonly code: string | undefined;
+  /** The message with the run's settings in neutral form (run-words.ts), for a shell to word itself. */
+  readonly neutralMessage: string;
 
   constructor(failure: DatasetWriteFailure, path: string, message: string, errno?: string) {
-    super(message);
+    super(wordRun(message, COMMAND_LINE_WORDS));
+    this.neutralMessage = message;
     this.failure = failure;
     this.path = path;
     this.errno = errno;
@@ -51,7 +55,7 @@ export function datasetWriteErrorFromErrno(errno: string | undefined, finalPath:
     case 'ENOSPC':
     case 'EDQUOT':
       return new DatasetWriteError('disk-full', finalPath,
-        `the disk is full while writing ${finalPath}; free space and run again with --resume`, errno);
+        `the disk is full while writing ${finalPath}; free space and ${say('again-resuming')}`, errno);
     case 'EACCES':
     case 'EPERM':
     case 'EROFS':
@@ -68,7 +72,7 @@ export function datasetWriteErrorFromErrno(errno: string | undefined, finalPath:
         `cannot write ${finalPath}: a folder of that name is in the way; move it aside or choose another output folder`, errno);
     default:
       return new DatasetWriteError('failed', finalPath,
-        `could not write ${finalPath}: ${detail}${errno ? ` (${errno})` : ''}; check the disk and run again with --resume`, errno);
+        `could not write ${finalPath}: ${detail}${errno ? ` (${errno})` : ''}; check the disk and ${say('again-resuming')}`, errno);
   }
 }
 

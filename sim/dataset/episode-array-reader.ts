@@ -5,6 +5,7 @@
 // shown as if it were the episode.
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
+import { containedPath } from './contained-path.ts';
 import { DatasetNotFoundError } from './dataset-not-found-error.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import type { ArrayRecord, DataFileRecord, DatasetManifest, EpisodeRecord } from './dataset-manifest.ts';
@@ -44,7 +45,7 @@ export async function readEpisodeArrays(dir: string, manifest: DatasetManifest, 
   const file = files.find((f) => f.kind === 'episode-npz') ?? files.find((f) => f.kind === 'split-hdf5');
   if (!file) throw new DatasetReadError(join(dir, 'manifest.json'), `episode ${episodeId}`, 'the manifest names no data file for this episode', FIX);
   const records = recordsIn(file, episodeId);
-  const path = join(dir, file.path);
+  const path = await containedPath(dir, file.path);
   const arrays = file.kind === 'episode-npz'
     ? await readNpzChecked(path, file)
     : await readHdf5GroupArrays(path, episodeId, records.map((r) => r.name));

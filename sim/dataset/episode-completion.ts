@@ -12,6 +12,8 @@ import type { ArrayLayout } from './episode-outcome.ts';
 import { digestFile } from './file-digest.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import { systemErrorCode } from './read-file-bytes.ts';
+import { say } from './run-words.ts';
+import { asCompletion, completionProblem } from './completion-check.ts';
 
 export interface EpisodeCompletion {
   record: EpisodeRecord;
@@ -39,14 +41,16 @@ async function readIfPresent(path: string): Promise<Uint8Array | null> {
 export async function readTrustedCompletion(outDir: string, path: string, expectedId: string): Promise<EpisodeCompletion | null> {
   const text = await readIfPresent(join(outDir, path));
   if (text === null) return null;
-  let completion: EpisodeCompletion;
+  let parsed: unknown;
   try {
-    completion = JSON.parse(Buffer.from(text).toString('utf8')) as EpisodeCompletion;
+    parsed = JSON.parse(Buffer.from(text).toString('utf8'));
   } catch {
     return null;
   }
-  if (completion?.record?.id !== expectedId) return null;
-  if (completion.record.status === 'rejected') return completion.npz === null ? completion : null;
+  // A record of the wrong shape is not trusted: that episode is computed again.
+  const completion = asCompletion(parsed, expectedId);
+  if (completion === null) return null;
+  if (completion.record.status === 'rejected') return completion;
   if (!completion.npz) return null;
   const digest = await digestFile(join(outDir, completion.npz.path));
   if (digest.kind !== 'hashed' || digest.sizeBytes !== completion.npz.sizeBytes || digest.sha256 !== completion.npz.sha256) return null;
@@ -64,16 +68,17 @@ export function readCompletion(outDir: string, path: string, expectedId: string)
   try {
     text = readFileSync(absolute, 'utf8');
   } catch (error) {
-    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} cannot be read (${systemErrorCode(error)})`, 'run the same command again with --resume to recompute that episode');
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} cannot be read (${systemErrorCode(error)})`, `${say('run-again-resuming')} to recompute that episode`);
   }
-  let completion: EpisodeCompletion;
+  let parsed: unknown;
   try {
-    completion = JSON.parse(text) as EpisodeCompletion;
+    parsed = JSON.parse(text);
   } catch (error) {
-    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} is not valid JSON (${error instanceof Error ? error.message : String(error)})`, 'run the same command again with --resume to recompute that episode');
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} is not valid JSON (${error instanceof Error ? error.message : String(error)})`, `${say('run-again-resuming')} to recompute that episode`);
   }
-  if (completion?.record?.id !== expectedId) {
-    throw new DatasetReadError(absolute, '', `the completion record does not describe episode ${expectedId}`, 'run the same command again with --resume to recompute that episode');
+  const problem = completionProblem(parsed, expectedId);
+  if (problem !== null) {
+    throw new DatasetReadError(absolute, '', `the completion record of episode ${expectedId} is not one Pliant writes: ${problem}`, `${say('run-again-resuming')} to recompute that episode`);
   }
-  return completion;
+  return parsed as EpisodeCompletion;
 }

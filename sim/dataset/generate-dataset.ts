@@ -7,6 +7,10 @@
 import { readdirSync, rmSync } from 'node:fs';
 import { readdir, rm, stat } from 'node:fs/promises';
 import { isTemporaryName } from './atomic-file.ts';
+import { containedPathSync } from './contained-path.ts';
+import { say } from './run-words.ts';
+import { planShard } from './completion-check.ts';
+import { DatasetReadError } from './dataset-read-error.ts';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Scenario } from '../scenario/scenario-types.ts';
@@ -92,15 +96,30 @@ async function folderEntries(path: string): Promise<string[] | null> {
   } catch {
     return null;
   }
-  if (!info.isDirectory()) throw new DatasetRequestError(`--out ${path} is a file, not a folder; choose a folder name`);
+  if (!info.isDirectory()) throw new DatasetRequestError(`${say('out')} ${path} is a file, not a folder; choose a folder name`);
   return readdir(path);
 }
 
 /** The shard a finished folder's manifest records; its head is read, never the whole file. */
 function manifestShard(manifestPath: string): ShardPlan | null {
   const { head, problems } = readManifestHead(manifestPath);
-  if (!head) throw new DatasetRequestError(`--resume: ${problems[0] ?? `${manifestPath} has no head`}; use --force to start over, or another --out folder`);
+  if (!head) throw new DatasetRequestError(`${say('resume:')} ${problems[0] ?? `${manifestPath} has no head`}; ${say('start-over')}, or ${say('other-out')}`);
   return head.shard;
+}
+
+/** The shard the run plan of an interrupted run records; a damaged plan is reported, naming the file. */
+function recordedPlanShard(planText: string, planPath: string): ShardPlan | null {
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(planText);
+  } catch (error) {
+    throw new DatasetReadError(planPath, '', `the run plan is not valid JSON (${error instanceof Error ? error.message : String(error)})`, `delete it and resume again (the run writes it anew), or ${say('start-over')}`);
+  }
+  const shard = planShard(parsed);
+  if (typeof shard === 'string') {
+    throw new DatasetReadError(planPath, '', `the run plan is not one Pliant writes: ${shard}`, `delete it and resume again (the run writes it anew), or ${say('start-over')}`);
+  }
+  return shard;
 }
 
 function samePlan(a: ShardPlan | null, b: ShardPlan | null): boolean {
@@ -118,7 +137,10 @@ function effectiveShard(shard: ShardPlan | null): ShardPlan | null {
 
 /** Deletes the hidden temporary files of writes a killed run left half done. */
 function removeTemporaryFiles(outDir: string): void {
-  for (const folder of ['', CARD_PICTURES_FOLDER, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER, WORK_DONE_FOLDER, WORK_PARTS_FOLDER]) {
+  const folders = ['', CARD_PICTURES_FOLDER, EPISODES_FOLDER, INPUTS_FOLDER, WORK_FOLDER, WORK_DONE_FOLDER, WORK_PARTS_FOLDER];
+  // Every folder first, so a link leading out of the dataset is refused before anything is deleted or read.
+  for (const folder of folders) containedPathSync(outDir, folder);
+  for (const folder of folders) {
     let names: string[];
     try {
       names = readdirSync(join(outDir, folder));
@@ -143,7 +165,7 @@ export async function generateDataset(request: GenerateRequest): Promise<Generat
   const startedAt = new Date().toISOString();
 
   // Everything that can be refused is checked before the folder is touched.
-  if (!Number.isInteger(request.workers) || request.workers < 1) throw new DatasetRequestError(`--workers ${request.workers} must be a whole number of at least 1`);
+  if (!Number.isInteger(request.workers) || request.workers < 1) throw new DatasetRequestError(`${say('workers')} ${request.workers} must be a whole number of at least 1`);
   const inputs = await gatherInputs(scenario, request.inputs);
   const seed = makeSeedFile(scenario, inputs.seedInputs, request.pliantVersion);
   const seedText = renderSeedFile(seed);
@@ -172,24 +194,24 @@ async function generateLocked(
   let resuming = false;
   if (entries !== null && entries.length > 0) {
     if (request.resume) {
-      const existing = await readTextIfPresent(join(outDir, SEED_FILE));
+      const existing = await readTextIfPresent(containedPathSync(outDir, SEED_FILE));
       // seed.json is the first thing a run writes; without it only a run killed at its very
       // start can have left Pliant's own entries, and starting afresh finishes that.
       if (existing === null && entries.some((name) => !isOwnEntry(name))) {
-        throw new DatasetRequestError(`--resume: ${outDir} is not empty and has no ${SEED_FILE}, so it is not a Pliant dataset; choose another --out folder`);
+        throw new DatasetRequestError(`${say('resume:')} ${outDir} is not empty and has no ${SEED_FILE}, so it is not a Pliant dataset; ${say('other-out')}`);
       }
       if (existing !== null && existing !== seedText) {
-        throw new DatasetRequestError(`--resume: ${join(outDir, SEED_FILE)} describes a different dataset (other scenario, overrides or Pliant version); resume with the same scenario and flags, or use --force to start over`);
+        throw new DatasetRequestError(`${say('resume:')} ${join(outDir, SEED_FILE)} describes a different dataset (other scenario, overrides or Pliant version); resume with the same scenario and settings, or ${say('start-over')}`);
       }
-      const planText = await readTextIfPresent(join(outDir, WORK_PLAN_FILE));
+      const planText = await readTextIfPresent(containedPathSync(outDir, WORK_PLAN_FILE));
       // The manifest is read as a stream: a finished folder's may be larger than any string.
-      const manifestPath = join(outDir, MANIFEST_FILE);
+      const manifestPath = containedPathSync(outDir, MANIFEST_FILE);
       const manifestThere = entries.includes(MANIFEST_FILE);
       const recorded: ShardPlan | null | undefined = planText !== null
-        ? (JSON.parse(planText) as WorkPlan).shard
+        ? recordedPlanShard(planText, join(outDir, WORK_PLAN_FILE))
         : manifestThere ? manifestShard(manifestPath) : undefined;
       if (recorded !== undefined && !samePlan(recorded, shard)) {
-        throw new DatasetRequestError(`--resume: ${outDir} holds ${describeShard(recorded)}, but this run asks for ${describeShard(shard)}; give the same --shard`);
+        throw new DatasetRequestError(`${say('resume:')} ${outDir} holds ${describeShard(recorded)}, but this run asks for ${describeShard(shard)}; ${say('same-shard')}`);
       }
       if (manifestThere && planText === null && !entries.includes(WORK_FOLDER)) {
         let ok = 0;
@@ -205,7 +227,7 @@ async function generateLocked(
     } else if (request.force) {
       const foreign = entries.filter((name) => !isOwnEntry(name));
       if (foreign.length > 0) {
-        throw new DatasetRequestError(`--force: ${outDir} holds files that Pliant did not write (${foreign.slice(0, 3).join(', ')}${foreign.length > 3 ? ', …' : ''}); choose an empty or new --out folder`);
+        throw new DatasetRequestError(`${say('force:')} ${outDir} holds files that Pliant did not write (${foreign.slice(0, 3).join(', ')}${foreign.length > 3 ? ', …' : ''}); ${say('other-out')}`);
       }
       for (const name of entries) {
         try {
@@ -215,7 +237,7 @@ async function generateLocked(
         }
       }
     } else {
-      throw new DatasetRequestError(`--out ${outDir} is not empty; give --resume to finish the run that started there, --force to replace it, or an empty folder`);
+      throw new DatasetRequestError(`${say('out')} ${outDir} is not empty; ${say('resume-or-replace')}`);
     }
   }
   for (const r of scenario.splits.heldOut) {

@@ -4,6 +4,7 @@
 // episodes this run computes (one shard's share under --shard). The report splits the episodes
 // done so far at the median of each numeric label and names the labels whose rejections gather
 // on one side, with the range the rejected episodes came from.
+import { COMMAND_LINE_WORDS, say, wordRun } from './run-words.ts';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
 
@@ -14,9 +15,13 @@ const NAMED_LABELS = 3;
 
 /** Thrown when more episodes were rejected than the limit allows; the command line exits with 2. */
 export class RejectionLimitError extends Error {
+  /** The message with the run's settings in neutral form (run-words.ts), for a shell to word itself. */
+  readonly neutralMessage: string;
+
   constructor(message: string) {
-    super(message);
+    super(wordRun(message, COMMAND_LINE_WORDS));
     this.name = 'RejectionLimitError';
+    this.neutralMessage = message;
   }
 }
 
@@ -72,6 +77,6 @@ export function rejectionLimitMessage(scenario: Scenario, runEpisodes: number, e
     `stopped: ${rejected} of the ${episodes.length} episodes computed so far were rejected as unstable, more than maxRejectedFraction ${fraction}${scenario.maxRejectedFraction === undefined ? ' (the default)' : ''} of this run's ${runEpisodes} episodes allows (${rejectedEpisodeLimit(scenario, runEpisodes)}).`,
     lines.length > 0 ? 'Where the rejected episodes come from:' : 'No sampled parameter separates the rejected episodes from the others.',
     ...lines,
-    `Narrow those ranges in the scenario (or let "substeps": "auto" choose the step), or raise "maxRejectedFraction" (1 never stops); then start over with --force. The records of the episodes done so far stay in ${outDir}/.pliant-work/done for inspection.`,
+    `Narrow those ranges in the scenario (or let "substeps": "auto" choose the step), or raise "maxRejectedFraction" (1 never stops); then ${say('start-over')}. The records of the episodes done so far stay in ${outDir}/.pliant-work/done for inspection.`,
   ].join('\n');
 }

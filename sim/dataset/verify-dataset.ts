@@ -11,6 +11,7 @@ import { readdir, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { LOCK_FILE, MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeNpzPath, splitHdf5Path } from './dataset-files.ts';
 import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from './episode-records-digest.ts';
+import { containedPathSync } from './contained-path.ts';
 import { describeUnhashed, digestFile } from './file-digest.ts';
 import type { FileRecord, ManifestHead } from './dataset-manifest.ts';
 import { DatasetRequestError } from './dataset-request-error.ts';
@@ -50,7 +51,15 @@ const MAX_UNLISTED_SEARCH_FILES = 10_000_000;
 export const MAX_LISTED_PROBLEMS = 1000;
 
 export async function checkFileRecord(dir: string, record: FileRecord): Promise<string | null> {
-  const digest = await digestFile(join(dir, record.path));
+  let path: string;
+  try {
+    path = containedPathSync(dir, record.path);
+  } catch (error) {
+    if (error instanceof DatasetRequestError) return `${record.path} leads outside the dataset folder through a symbolic link; replace the link with the file itself`;
+    // Any other failure (no permission on a folder) is what reading the file reports below.
+    path = join(dir, record.path);
+  }
+  const digest = await digestFile(path);
   if (digest.kind !== 'hashed') return describeUnhashed(digest, record.path);
   if (digest.sizeBytes !== record.sizeBytes) return `size mismatch: ${record.path} has ${digest.sizeBytes} bytes, the manifest says ${record.sizeBytes}`;
   if (digest.sha256 !== record.sha256) return `checksum mismatch: ${record.path} has SHA-256 ${digest.sha256}, the manifest says ${record.sha256}`;

@@ -33,6 +33,26 @@ export const MAX_NUMBER_SEED = Number.MAX_SAFE_INTEGER;
 export const MAX_STRING_SEED = 18446744073709551615n;
 /** Sum of split fractions may differ from 1 by this much (rounding in hand-written decimals). */
 export const FRACTION_SUM_TOLERANCE = 1e-9;
+/** Materials of one lattice body. */
+export const MAX_LATTICE_MATERIALS = 64;
+/** Material templates of one scenario. */
+export const MAX_MATERIAL_TEMPLATES = 64;
+/** Characters of a material's name. */
+export const MAX_MATERIAL_NAME_CHARS = 64;
+/** Control channels that actuate lattice cells; channels are numbered 0 to this − 1. */
+export const MAX_ACTUATOR_CHANNELS = 64;
+/** Static obstacles besides the ground plane. */
+export const MAX_OBSTACLES = 64;
+/** Longest time between records, s (one hour). */
+export const MAX_RECORD_INTERVAL_S = 3600;
+/** Longest ramp-in of the control signals, s. */
+export const MAX_RAMP_IN_S = 3600;
+/** Longest settling before recording, s. */
+export const MAX_SETTLE_S = 600;
+/** Strata per parameter of a stratified design. */
+export const MAX_DESIGN_BINS = 1000;
+/** Characters of a scenario's description. */
+export const MAX_DESCRIPTION_CHARS = 4000;
 /** Markers listed by node index in an observation block. */
 export const MAX_OBSERVATION_MARKERS = MAX_NODES;
 /**

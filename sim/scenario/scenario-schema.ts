@@ -6,7 +6,27 @@ import { controlSpecSchema } from '../controls/control-spec-schema.ts';
 import type { JsonSchema } from '../random/value-spec-schema.ts';
 import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
-import { MAX_CHAIN_PARTS, MAX_EPISODES, MAX_MODE_COORDINATES, MAX_NAMED_PARAMETERS, MAX_NODES, MAX_NUMBER_SEED, MAX_OBSERVATION_MARKERS, MAX_RECORDED_STEPS, MAX_SUBSTEPS } from './scenario-limits.ts';
+import {
+  MAX_ACTUATOR_CHANNELS,
+  MAX_CHAIN_PARTS,
+  MAX_DESCRIPTION_CHARS,
+  MAX_DESIGN_BINS,
+  MAX_EPISODES,
+  MAX_LATTICE_MATERIALS,
+  MAX_MATERIAL_NAME_CHARS,
+  MAX_MATERIAL_TEMPLATES,
+  MAX_MODE_COORDINATES,
+  MAX_NAMED_PARAMETERS,
+  MAX_NODES,
+  MAX_NUMBER_SEED,
+  MAX_OBSERVATION_MARKERS,
+  MAX_OBSTACLES,
+  MAX_RAMP_IN_S,
+  MAX_RECORD_INTERVAL_S,
+  MAX_RECORDED_STEPS,
+  MAX_SETTLE_S,
+  MAX_SUBSTEPS,
+} from './scenario-limits.ts';
 import { SAFETY_CAUTION } from './safety-caution.ts';
 import { withFieldTitles } from './field-titles.ts';
 import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
@@ -155,7 +175,7 @@ const generatorSchema = closed(
     },
     actuatedChannelCount: valueSpecSchema(
       'When given, each cell of an actuated material (actuatorChannel not null) is driven by one of this many channels, each equally likely; otherwise cells keep their material\'s channel.',
-      { integer: true, minimum: 0, maximum: 64 },
+      { integer: true, minimum: 0, maximum: MAX_ACTUATOR_CHANNELS },
     ),
   },
   ['dimension', 'boundsCells', 'cellCount', 'materialWeights'],
@@ -181,7 +201,7 @@ const shapeSchema: JsonSchema = {
   ),
 };
 
-const MATERIAL_NAME: JsonSchema = { type: 'string', minLength: 1, maxLength: 64, description: 'Name shown in labels and channel descriptions.' };
+const MATERIAL_NAME: JsonSchema = { type: 'string', minLength: 1, maxLength: MAX_MATERIAL_NAME_CHARS, description: 'Name shown in labels and channel descriptions.' };
 const TEMPLATE_NAME_PATTERN = '^[A-Za-z][A-Za-z0-9_-]{0,31}$';
 
 // The members a material and a template share. Defaults are filled only into plain materials:
@@ -194,7 +214,7 @@ function materialMembers(withDefaults: boolean): Record<string, JsonSchema> {
     actuatorChannel: {
       type: ['integer', 'null'],
       minimum: 0,
-      maximum: 63,
+      maximum: MAX_ACTUATOR_CHANNELS - 1,
       default: null,
       description: 'Control channel that actuates cells of this material, or null for a passive material.',
     },
@@ -236,7 +256,7 @@ const materialTemplatesSchema: JsonSchema = {
   type: 'object',
   description: 'Shared material members, by template name: a material {"name": ..., "template": "<name>", ...} takes every member of its template and replaces those it gives itself. Expanded into plain materials when the scenario is checked, so samples and the seed file show full materials.',
   propertyNames: { pattern: TEMPLATE_NAME_PATTERN },
-  maxProperties: 64,
+  maxProperties: MAX_MATERIAL_TEMPLATES,
   additionalProperties: closed('A material template: any members of a material except its name.', materialMembers(false), []),
 };
 
@@ -266,7 +286,7 @@ const latticeSchema = closed(
     kind: { const: 'lattice' },
     cellSizeM: valueSpecSchema('Edge length of one cell, m.', { exclusiveMinimum: 0 }),
     shape: shapeSchema,
-    materials: { type: 'array', minItems: 1, maxItems: 64, items: materialSchema, description: 'Materials, referred to by position (1 is the first); each one plain or started from a template of materialTemplates.' },
+    materials: { type: 'array', minItems: 1, maxItems: MAX_LATTICE_MATERIALS, items: materialSchema, description: 'Materials, referred to by position (1 is the first); each one plain or started from a template of materialTemplates.' },
     materialTemplates: materialTemplatesSchema,
     base: { type: 'string', enum: ['clamped', 'free'], default: 'free', description: 'clamped: the bottom nodes of the lowest layer are pinned; free: nothing is pinned.' },
     originM: vector3('Position of the grid\'s minimum corner, m.', {}, [0, 0, 0]),
@@ -338,7 +358,7 @@ const worldSchema = closed(
       },
       ['densityKgPerM3', 'normalDragNsPerM3', 'tangentialDragNsPerM3'],
     ),
-    obstacles: { type: 'array', items: obstacleSchema, default: [], maxItems: 64, description: 'Static rigid obstacles besides the ground plane, at most 64; nodes do not collide with each other.' },
+    obstacles: { type: 'array', items: obstacleSchema, default: [], maxItems: MAX_OBSTACLES, description: `Static rigid obstacles besides the ground plane, at most ${MAX_OBSTACLES}; nodes do not collide with each other.` },
   },
   [],
 );
@@ -359,7 +379,7 @@ const controlsSchema = closed(
     rampInS: {
       type: 'number',
       minimum: 0,
-      maximum: 3600,
+      maximum: MAX_RAMP_IN_S,
       default: DEFAULT_RAMP_IN_S,
       description: `Every channel's signal (after its clip) is multiplied by a raised-cosine ramp ½(1 − cos(π·t/rampInS)) from 0 to 1 over the first rampInS seconds, so episodes start smoothly from the built state instead of with a jolt; 0 turns it off. Replayed tables are used as written, without the ramp. Default ${DEFAULT_RAMP_IN_S} s.`,
     },
@@ -370,7 +390,7 @@ const controlsSchema = closed(
 const timeSchema = closed(
   'Recording: the record interval, the number of records and the integration sub-steps; fixed for the whole sweep so every episode has the same time base.',
   {
-    recordIntervalS: { type: 'number', exclusiveMinimum: 0, maximum: 3600, description: 'Time between records (and between control updates), s.' },
+    recordIntervalS: { type: 'number', exclusiveMinimum: 0, maximum: MAX_RECORD_INTERVAL_S, description: 'Time between records (and between control updates), s.' },
     recordedSteps: { type: 'integer', minimum: 1, maximum: MAX_RECORDED_STEPS, description: 'Records per episode after the initial state.' },
     substeps: {
       type: ['integer', 'string', 'object'],
@@ -438,7 +458,7 @@ const initialStateSchema = closed(
     rotationRad: valueSpecSchema('Rigid rotation of the start pose, rad, about rotationAxisUnit through the first pinned or driven node (a chain\'s top: the chain starts at this angle), or through the centre of mass of a body with none. 2-D lattices turn about z.', { default: 0 }),
     rotationAxisUnit: vector3('Axis of the start rotation, normalised before use.', {}, [0, 0, 1]),
     translationM: vector3('Shift of the start pose of a body with no pinned or driven node, m.', {}, [0, 0, 0]),
-    settleS: valueSpecSchema('Seconds the system relaxes under its world (controls at 0, extra drag settleDragPerS) before recording starts, so hanging or resting bodies start at rest; 0 for none. Velocities are zeroed afterwards.', { minimum: 0, maximum: 600, default: 0 }),
+    settleS: valueSpecSchema('Seconds the system relaxes under its world (controls at 0, extra drag settleDragPerS) before recording starts, so hanging or resting bodies start at rest; 0 for none. Velocities are zeroed afterwards.', { minimum: 0, maximum: MAX_SETTLE_S, default: 0 }),
     settleDragPerS: valueSpecSchema('Extra mass-proportional drag while settling, 1/s (about twice the slowest mode\'s angular frequency settles it fastest).', { minimum: 0, default: 10 }),
     velocityMPerS: vector3('Uniform start velocity of every free node, m/s (after settling).', {}, [0, 0, 0]),
     spinRadPerS: vector3('Start angular velocity about the rotation pivot, rad/s: each free node gets ω × (x − pivot) on top of velocityMPerS.', {}, [0, 0, 0]),
@@ -486,7 +506,7 @@ const splitsSchema = closed(
       'Deal the splits stratum by stratum so each split spans the listed parameters\' ranges: each parameter is cut into "bins" strata of equal episode counts, and within every combination of strata the splits keep their shares (counts, or the fractions rounded to whole episodes).',
       {
         parameters: { type: 'array', minItems: 1, uniqueItems: true, items: { type: 'string', pattern: '^/' }, description: 'JSON pointers of distributed parameters, e.g. ["/system/lengthM"].' },
-        bins: { type: 'integer', minimum: 1, maximum: 1000, description: 'Strata per parameter; 4 when left out.' },
+        bins: { type: 'integer', minimum: 1, maximum: MAX_DESIGN_BINS, description: 'Strata per parameter; 4 when left out.' },
       },
       ['parameters'],
     ),
@@ -593,7 +613,7 @@ export const SCENARIO_SCHEMA: JsonSchema = withFieldTitles({
       pattern: '^[A-Za-z0-9][A-Za-z0-9._-]{0,63}$',
       description: 'Short name used in file names: letters, digits, ".", "_" and "-", starting with a letter or digit, at most 64 characters.',
     },
-    description: { type: 'string', maxLength: 4000, default: '', description: 'What the sweep is for; copied into the dataset card.' },
+    description: { type: 'string', maxLength: MAX_DESCRIPTION_CHARS, default: '', description: 'What the sweep is for; copied into the dataset card.' },
     params: paramsSchema,
     system: systemSchema,
     world: { ...worldSchema, default: {} },

@@ -83,7 +83,7 @@ export function followJob(handlers: RequestHandlers, start: () => Promise<{ jobI
     const settleIfOver = (): void => {
       if (jobId === null) return;
       const mine = seen.filter((p) => p.jobId === jobId);
-      if (mine.some((p) => p.state !== 'running')) {
+      if (mine.some((p) => p.state !== 'running' && p.state !== 'queued')) {
         stop();
         resolve(mine);
       }

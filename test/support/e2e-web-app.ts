@@ -42,7 +42,8 @@ export async function startPliantWebApp(): Promise<PliantWebApp> {
     mode: 'web',
     version,
     bundledScenariosDir: SCENARIOS_DIR,
-    folderChooser: { mode: 'in-page' },
+    // The e2e tests make their folders in the system's temporary folder.
+    folderChooser: { mode: 'in-page', rootDir: tmpdir() },
     reportInternalError: (name, error) => console.error(`[e2e] request ${name} failed:`, error),
   });
   const server = await startWebServer({ handlers: createRequestHandlers(services), rendererDir, port: 0 });
