@@ -24,7 +24,7 @@ beforeAll(async () => {
   mkdirSync(join(root, '.settings'));
   mkdirSync(join(root, 'folder.json'));
   for (const name of ['tank-tether.json', 'Eel-Sweep.JSON', 'notes.txt', '.hidden.json', 'b-fin.json']) writeFileSync(join(root, name), '{}');
-  const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'korrin-bay'), folderChooser: { mode: 'in-page' } });
+  const services = await createDefaultServices({ mode: 'web', version: '0.1.0', bundledScenariosDir: join(root, 'korrin-bay'), folderChooser: { mode: 'in-page', rootDir: root } });
   handlers = createRequestHandlers(services);
 });
 
