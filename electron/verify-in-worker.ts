@@ -5,10 +5,10 @@
 // so repeated clicks (or a hostile page) cannot start a thread per request.
 import { Worker } from 'node:worker_threads';
 import type { VerifyByFileReport } from '../sim/dataset/verify-by-file.ts';
-import { asSentence, DATASET_ERROR_CODES } from './dataset-error-translation.ts';
-import { RequestError } from './request-error.ts';
+import { translateDatasetError } from './dataset-error-translation.ts';
+import { ReportedError, type ErrorReport } from '../sim/errors/error-report.ts';
 
-type FromVerifyWorker = { type: 'report'; report: VerifyByFileReport } | { type: 'failed'; name: string; message: string };
+type FromVerifyWorker = { type: 'report'; report: VerifyByFileReport } | { type: 'failed'; error: ErrorReport };
 
 /** Verifications of different folders that may run at once; later ones wait their turn. */
 export const MAX_PARALLEL_VERIFICATIONS = 2;
@@ -59,8 +59,7 @@ function verifyInWorker(workerUrl: URL, dir: string): Promise<VerifyByFileReport
       answered = true;
       if (message.type === 'report') resolve(message.report);
       else {
-        const code = DATASET_ERROR_CODES[message.name];
-        reject(code ? new RequestError(code, asSentence(message.message)) : new Error(message.message));
+        reject(translateDatasetError(new ReportedError(message.error)));
       }
     });
     worker.once('error', (error) => {

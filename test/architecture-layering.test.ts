@@ -7,8 +7,15 @@ import { describe, expect, it } from 'vitest';
 
 const ROOT = resolve(import.meta.dirname, '..');
 
-/** Which top-level folders each folder may import from (besides itself). */
+/**
+ * The bottom room every folder may import: the error taxonomy (kinds and stable codes), which
+ * imports nothing itself, so that an error thrown anywhere says what kind it is.
+ */
+const SHARED = ['sim/errors'];
+
+/** Which top-level folders each folder may import from (besides itself and SHARED). */
 const ALLOWED: Record<string, string[]> = {
+  'sim/errors': [],
   'sim/random': [],
   // Deterministic SVG charts (line, histogram, scatter, edge sketches) for the card and the reports.
   'sim/plots': [],
@@ -25,7 +32,7 @@ const ALLOWED: Record<string, string[]> = {
   // Scoring, baselines and calibration sit after the files: they read datasets, never the CLI.
   'sim/identify': ['sim/core', 'sim/systems', 'sim/random', 'sim/controls', 'sim/episode', 'sim/design', 'sim/scenario', 'sim/dataset', 'sim/plots'],
 };
-const ENVIRONMENT_FREE = ['sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
+const ENVIRONMENT_FREE = ['sim/errors', 'sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
 
 function sourceFiles(folder: string): string[] {
   const abs = join(ROOT, folder);
@@ -57,14 +64,15 @@ function folderOf(path: string): string {
 
 describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
   for (const [folder, allowed] of Object.entries(ALLOWED)) {
-    it(`${folder} imports only ${allowed.length ? allowed.join(', ') : 'itself'}${ENVIRONMENT_FREE.includes(folder) ? ' and nothing from Node, the DOM or Electron' : ''}`, () => {
+    const mayImport = folder === 'sim/errors' ? allowed : [...SHARED, ...allowed];
+    it(`${folder} imports only ${mayImport.length ? mayImport.join(', ') : 'itself'}${ENVIRONMENT_FREE.includes(folder) ? ' and nothing from Node, the DOM or Electron' : ''}`, () => {
       const violations: string[] = [];
       for (const file of sourceFiles(folder)) {
         for (const spec of importsOf(file)) {
           if (spec.startsWith('.')) {
             const target = relative(ROOT, resolve(dirname(join(ROOT, file)), spec));
             const targetFolder = folderOf(target);
-            if (targetFolder !== folder && !allowed.includes(targetFolder) && !allowed.includes(target)) {
+            if (targetFolder !== folder && !mayImport.includes(targetFolder) && !mayImport.includes(target)) {
               violations.push(`${file} imports ${target}`);
             }
           } else if (ENVIRONMENT_FREE.includes(folder) && (spec.startsWith('node:') || ['fs', 'path', 'os', 'electron', 'worker_threads', 'child_process'].includes(spec))) {
@@ -79,6 +87,7 @@ describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
   it('has source files in the core folders (the check above is not vacuous)', () => {
     expect(sourceFiles('sim/core').length).toBeGreaterThan(5);
     expect(sourceFiles('sim/systems').length).toBeGreaterThan(3);
+    expect(sourceFiles('sim/errors').length).toBeGreaterThan(2);
   });
 
   it('renderer/ imports no Node-side code (sim/dataset, sim/cli, electron/ other than the bridge contract, node:*)', () => {

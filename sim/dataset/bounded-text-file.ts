@@ -7,6 +7,9 @@ import { DatasetRequestError } from './dataset-request-error.ts';
 
 export const MiB = 1024 * 1024;
 
+/** The stable error code of a folder given where a file was asked for. */
+export const PATH_IS_FOLDER_CODE = 'path-is-folder';
+
 /**
  * The UTF-8 text of the file at `path`, at most `maxBytes` long (see readBoundedBytes).
  */
@@ -24,7 +27,7 @@ export function readBoundedBytes(path: string, maxBytes: number, what: string): 
   const fd = openSync(path, 'r');
   try {
     const info = fstatSync(fd);
-    if (info.isDirectory()) throw new DatasetRequestError(`${what} is a folder; give a file`);
+    if (info.isDirectory()) throw new DatasetRequestError(`${what} is a folder; give a file`, PATH_IS_FOLDER_CODE);
     if (!info.isFile()) throw new DatasetRequestError(`${what} is not a regular file (a device, pipe or socket); give the file itself`);
     if (info.size > maxBytes) throw new DatasetRequestError(`${what} is ${sizeText(info.size)}, more than the ${sizeText(maxBytes)} Pliant reads for it; check that it is the file you meant`);
     // One byte more than allowed, so reading it proves the file is too long.

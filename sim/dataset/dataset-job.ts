@@ -6,10 +6,7 @@
 import { checkScenarioText } from '../scenario/check-scenario.ts';
 import { withOverrides } from '../scenario/scenario-overrides.ts';
 import { ScenarioProblemError, formatProblems } from '../scenario/scenario-problem.ts';
-import { DatasetReadError } from './dataset-read-error.ts';
-import { DatasetRequestError } from './dataset-request-error.ts';
-import { DatasetWriteError } from './dataset-write-error.ts';
-import { EpisodeBuildError } from './episode-product.ts';
+import { reportOf } from '../errors/error-report.ts';
 import { generateDataset } from './generate-dataset.ts';
 import type { GenerationEvent } from './generation-progress.ts';
 import { replayFilesOf } from './replay-inputs.ts';
@@ -25,10 +22,11 @@ export type DatasetJobMessage = JobMessage;
 /** Progress more often than this only loads the shell's message queue. */
 const PROGRESS_INTERVAL_MS = 250;
 
+/** The job's words for an expected failure (a user's or the environment's), or null for a bug. */
 function expectedFailure(error: unknown): string | null {
   if (error instanceof ScenarioProblemError) return formatProblems(error.problems, 'scenario');
-  if (error instanceof DatasetRequestError || error instanceof DatasetWriteError || error instanceof DatasetReadError || error instanceof EpisodeBuildError) return error.message;
-  return null;
+  const report = reportOf(error);
+  return report.kind === 'bug' ? null : report.message;
 }
 
 export async function runDatasetJob(job: DatasetJob, post: (message: DatasetJobMessage) => void, cancelled: () => boolean, pliantVersion: string, nowMs: () => number = Date.now): Promise<void> {

@@ -1,7 +1,8 @@
 // The user-facing error for a dataset or controls file that cannot be read or is not in the
 // expected format: names the file and the place in it, what is wrong and how to fix it.
+import { PliantError } from '../errors/pliant-error.ts';
 
-export class DatasetReadError extends Error {
+export class DatasetReadError extends PliantError {
   override readonly name = 'DatasetReadError';
   /** The file that was being read. */
   readonly path: string;
@@ -13,7 +14,7 @@ export class DatasetReadError extends Error {
    * @param fix how to fix it
    */
   constructor(path: string, where: string, problem: string, fix: string) {
-    super(`${path}${where ? ` (${where})` : ''}: ${problem}; ${fix}`);
+    super('environment', 'dataset-read', `${path}${where ? ` (${where})` : ''}: ${problem}; ${fix}`);
     this.path = path;
   }
 }

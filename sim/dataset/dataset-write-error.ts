@@ -1,6 +1,8 @@
 // The user-facing error for a dataset file that could not be written: says what went wrong,
 // where, and how to fix it, in one line the command line and the app can show as it is.
 import { dirname } from 'node:path';
+import { PliantError } from '../errors/pliant-error.ts';
+import { systemErrorCode } from '../errors/system-error-kind.ts';
 
 export type DatasetWriteFailure =
   | 'disk-full'
@@ -11,7 +13,13 @@ export type DatasetWriteFailure =
   | 'too-large'
   | 'failed';
 
-export class DatasetWriteError extends Error {
+/**
+ * Always of kind 'environment' (never a usage mistake): whatever the cause (a full disk, no
+ * permission, a missing folder, a name in the way), the machine refused the write, and the
+ * command line has always exited with 1 for it (tests pin that). `errorCode` is "write-" and the
+ * failure, e.g. "write-disk-full".
+ */
+export class DatasetWriteError extends PliantError {
   override readonly name = 'DatasetWriteError';
   /** What kind of failure this is, for callers that react differently (e.g. stop a whole run on a full disk). */
   readonly failure: DatasetWriteFailure;
@@ -23,7 +31,7 @@ export class DatasetWriteError extends Error {
   readonly code: string | undefined;
 
   constructor(failure: DatasetWriteFailure, path: string, message: string, errno?: string) {
-    super(message);
+    super('environment', `write-${failure}`, message);
     this.failure = failure;
     this.path = path;
     this.errno = errno;
@@ -39,9 +47,7 @@ const PERMISSION_REASONS: Record<string, string> = {
 
 /** The errno code of a Node.js system error, or undefined for any other value. */
 export function errnoCodeOf(error: unknown): string | undefined {
-  if (typeof error !== 'object' || error === null) return undefined;
-  const code = (error as { code?: unknown }).code;
-  return typeof code === 'string' && /^E[A-Z0-9]+$/.test(code) ? code : undefined;
+  return systemErrorCode(error);
 }
 
 /** Turns an operating-system error met while writing `finalPath` into a DatasetWriteError. */

@@ -3,6 +3,7 @@
 // into pages. Built once per manifest from the records alone, so listing never opens a data file;
 // each column's sort order is computed the first time it is asked for and kept, so turning pages
 // of a large dataset costs a filter pass, not a sort.
+import { PliantError } from '../errors/pliant-error.ts';
 import type { EpisodeRecord } from './dataset-manifest.ts';
 
 export type ScalarLabel = number | string | boolean;
@@ -35,10 +36,10 @@ export interface EpisodeListPage {
 export const FIXED_SORT_KEYS = ['episodeId', 'split', 'status'] as const;
 
 /** A sort key the dataset has no column for; the message names the columns it does have. */
-export class UnknownSortKeyError extends Error {
+export class UnknownSortKeyError extends PliantError {
   constructor(key: string, known: readonly string[]) {
     const shownKeys = known.length > 12 ? `${known.slice(0, 12).join(', ')} and ${known.length - 12} more label keys` : known.join(', ');
-    super(`this dataset has no column "${key}" to sort by; use one of ${shownKeys}`);
+    super('user', 'unknown-sort-key', `this dataset has no column "${key}" to sort by; use one of ${shownKeys}`);
     this.name = 'UnknownSortKeyError';
   }
 }

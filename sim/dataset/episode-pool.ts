@@ -1,12 +1,14 @@
 // Computes a list of episodes on W worker threads (or in this thread when W is 1) and hands each
 // finished outcome to the writer one at a time. Workers take the next index as soon as they are
 // free, so the order outcomes arrive in varies; nothing written depends on that order.
+import { PliantError } from '../errors/pliant-error.ts';
 import { Worker } from 'node:worker_threads';
 import type { Scenario } from '../scenario/scenario-types.ts';
 import type { ExportDtype } from './dataset-manifest.ts';
 import { computeEpisodeOutcome } from './episode-outcome.ts';
 import type { EpisodeOutcome } from './episode-outcome.ts';
-import { EpisodeBuildError } from './episode-product.ts';
+import { EPISODE_BUILD_ERROR_CODE, EpisodeBuildError } from './episode-product.ts';
+import { ReportedError, type ErrorReport } from '../errors/error-report.ts';
 import type { ReplayTable } from './replay-inputs.ts';
 import type { FromEpisodeWorker, ToEpisodeWorker } from './episode-worker-messages.ts';
 import { episodeWorkerUrl } from './episode-worker-source.ts';
@@ -24,11 +26,22 @@ export interface PoolRequest {
 }
 
 /** A worker thread failed for a reason other than the episode itself. */
-export class EpisodeWorkerError extends Error {
+export class EpisodeWorkerError extends PliantError {
   constructor(message: string) {
-    super(message);
+    super('bug', 'episode-worker', message);
     this.name = 'EpisodeWorkerError';
   }
+}
+
+/**
+ * The error a worker's report stands for on this side: an episode the scenario cannot build stays
+ * an EpisodeBuildError (the command line adds the --resume hint), another expected failure keeps
+ * its kind and code, and a bug in the worker is an EpisodeWorkerError naming the episode.
+ */
+function failureFromWorker(index: number, report: ErrorReport): Error {
+  if (report.errorCode === EPISODE_BUILD_ERROR_CODE) return new EpisodeBuildError(report.message);
+  if (report.kind !== 'bug') return new ReportedError(report);
+  return new EpisodeWorkerError(`episode ${index}: ${report.message}`);
 }
 
 // An episode's arrays, and the deflate tables its NPZ file is compressed with, die young and
@@ -85,7 +98,7 @@ function runOnWorkers(request: PoolRequest, workerCount: number): Promise<void> 
       worker.on('message', (message: FromEpisodeWorker) => {
         inFlight--;
         if (message.type === 'failed') {
-          end(message.buildError ? new EpisodeBuildError(message.message) : new EpisodeWorkerError(`episode ${message.index}: ${message.message}`));
+          end(failureFromWorker(message.index, message.error));
           return;
         }
         // Writes happen one after another; a failed write ends the run.

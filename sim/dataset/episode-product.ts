@@ -2,6 +2,7 @@
 // returns either its arrays and manifest record, or a record saying why it was rejected. The
 // same function runs in the main thread and in worker threads, so where an episode is computed
 // can never change what is written.
+import { PliantError } from '../errors/pliant-error.ts';
 import { sampleEpisode } from '../scenario/sample-episode.ts';
 import { observeEpisode } from '../scenario/observe-episode.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
@@ -25,10 +26,12 @@ export interface EpisodeProduct {
   arrays: EpisodeArray[] | null;
 }
 
+export const EPISODE_BUILD_ERROR_CODE = 'episode-build';
+
 /** An episode that could not even be built: a scenario problem, not an unstable simulation. */
-export class EpisodeBuildError extends Error {
+export class EpisodeBuildError extends PliantError {
   constructor(message: string) {
-    super(message);
+    super('user', EPISODE_BUILD_ERROR_CODE, message);
     this.name = 'EpisodeBuildError';
   }
 

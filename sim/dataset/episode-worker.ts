@@ -4,6 +4,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import type { Scenario } from '../scenario/scenario-types.ts';
 import type { ExportDtype } from './dataset-manifest.ts';
+import { reportOf } from '../errors/error-report.ts';
 import { computeEpisodeOutcome } from './episode-outcome.ts';
 import { ReplayTable } from './replay-inputs.ts';
 import type { ReplayData } from './replay-inputs.ts';
@@ -31,7 +32,7 @@ port.on('message', (message: ToEpisodeWorker) => {
     if (outcome.npz) transfer.push(outcome.npz.buffer as ArrayBuffer);
     reply = { type: 'outcome', index: message.index, outcome };
   } catch (error) {
-    reply = { type: 'failed', index: message.index, message: error instanceof Error ? error.message : String(error), buildError: error instanceof Error && error.name === 'EpisodeBuildError' };
+    reply = { type: 'failed', index: message.index, error: reportOf(error) };
   }
   port.postMessage(reply, transfer);
 });

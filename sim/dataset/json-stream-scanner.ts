@@ -7,6 +7,7 @@
 //
 // Scanning works on bytes: every structural character of JSON is ASCII, and no byte of a
 // multi-byte UTF-8 sequence is below 0x80, so a byte-wise scan never splits a character wrongly.
+import { PliantError } from '../errors/pliant-error.ts';
 
 export type JsonPath = readonly (string | number)[];
 
@@ -31,9 +32,9 @@ export interface JsonStreamLimits {
 }
 
 /** Malformed or over-limit input; `line` is 1-based. */
-export class JsonStreamError extends Error {
+export class JsonStreamError extends PliantError {
   constructor(readonly line: number, readonly problem: string) {
-    super(`line ${line}: ${problem}`);
+    super('environment', 'json-damaged', `line ${line}: ${problem}`);
     this.name = 'JsonStreamError';
   }
 }

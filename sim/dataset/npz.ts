@@ -9,6 +9,7 @@
 // The archive is built in memory and has no ZIP64 records, so it must stay under 4 GiB.
 import { unzipSync, zipSync, type Zippable } from 'fflate';
 import { writeFileAtomic, type AtomicWriteOptions } from './atomic-file.ts';
+import { PliantError } from '../errors/pliant-error.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import { DatasetWriteError } from './dataset-write-error.ts';
 import type { NamedArray } from './named-array.ts';
@@ -37,6 +38,14 @@ const REGULAR_FILE_0644 = (0o100644 << 16) >>> 0;
 // Without ZIP64, sizes and offsets are 32-bit fields.
 const ZIP32_LIMIT_BYTES = 0xffffffff;
 
+/** The arrays do not fit one NPZ file without ZIP64; writeNpzFile turns it into a DatasetWriteError naming the file. */
+export class NpzTooLargeError extends PliantError {
+  constructor(totalBytes: number) {
+    super('user', 'npz-too-large', `the arrays add up to ${totalBytes} bytes, 4 GiB or more, beyond what an NPZ file without ZIP64 holds`);
+    this.name = 'NpzTooLargeError';
+  }
+}
+
 /** Encodes the arrays as an NPZ archive; names must be distinct. */
 export function encodeNpz(arrays: readonly NamedArray[], options: NpzOptions = {}): Uint8Array {
   const compression = options.compression ?? 'deflate';
@@ -49,7 +58,7 @@ export function encodeNpz(arrays: readonly NamedArray[], options: NpzOptions = {
     if (Object.hasOwn(members, memberName)) throw new RangeError(`two arrays are named '${array.name}'; NPZ member names must be distinct`);
     const bytes = encodeNpyBytes(array);
     totalBytes += bytes.byteLength;
-    if (totalBytes >= ZIP32_LIMIT_BYTES) throw new RangeError('the arrays add up to 4 GiB or more, beyond what an NPZ file without ZIP64 holds');
+    if (totalBytes >= ZIP32_LIMIT_BYTES) throw new NpzTooLargeError(totalBytes);
     members[memberName] = bytes;
   }
   return zipSync(members, { level, mtime: fixedMemberTime(), os: UNIX_HOST, attrs: REGULAR_FILE_0644 });
@@ -61,7 +70,7 @@ export function writeNpzFile(path: string, arrays: readonly NamedArray[], option
   try {
     bytes = encodeNpz(arrays, options);
   } catch (error) {
-    if (error instanceof RangeError && /4 GiB/.test(error.message)) {
+    if (error instanceof NpzTooLargeError) {
       throw new DatasetWriteError('too-large', path,
         `cannot write ${path}: ${error.message}; put fewer episodes in each file or choose the HDF5 format`);
     }

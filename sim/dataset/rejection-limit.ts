@@ -4,6 +4,7 @@
 // episodes this run computes (one shard's share under --shard). The report splits the episodes
 // done so far at the median of each numeric label and names the labels whose rejections gather
 // on one side, with the range the rejected episodes came from.
+import { PliantError } from '../errors/pliant-error.ts';
 import type { LabelValue } from '../scenario/sampled-episode.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';
 
@@ -13,9 +14,9 @@ export const DEFAULT_MAX_REJECTED_FRACTION = 0.5;
 const NAMED_LABELS = 3;
 
 /** Thrown when more episodes were rejected than the limit allows; the command line exits with 2. */
-export class RejectionLimitError extends Error {
+export class RejectionLimitError extends PliantError {
   constructor(message: string) {
-    super(message);
+    super('user', 'rejection-limit', message);
     this.name = 'RejectionLimitError';
   }
 }

@@ -2,6 +2,7 @@
 // index leaves remainder I when divided by N, so shards interleave and stay balanced however
 // the costs of episodes vary along the sweep. Also reads the shard from the scheduler's
 // environment for `--shard auto` (Slurm job arrays, Kubernetes Indexed Jobs).
+import { PliantError } from '../errors/pliant-error.ts';
 
 export interface ShardPlan {
   index: number;
@@ -9,9 +10,9 @@ export interface ShardPlan {
 }
 
 /** A shard that cannot be used: the message names the flag or variable and how to fix it. */
-export class ShardPlanError extends Error {
+export class ShardPlanError extends PliantError {
   constructor(message: string) {
-    super(message);
+    super('user', 'shard-plan', message);
     this.name = 'ShardPlanError';
   }
 }

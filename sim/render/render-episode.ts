@@ -28,7 +28,7 @@ export type FrameDrawnListener = (drawn: number, total: number) => void | Promis
 /** An episode lacks an array a picture needs; each caller words how to check the folder. */
 export class MissingPictureArrayError extends DatasetRequestError {
   constructor(readonly episodeId: string, readonly arrayName: string) {
-    super(`episode ${episodeId} has no "${arrayName}" array, which a picture needs; check the folder with \`pliant verify\``);
+    super(`episode ${episodeId} has no "${arrayName}" array, which a picture needs; check the folder with \`pliant verify\``, 'missing-picture-array');
   }
 }
 
