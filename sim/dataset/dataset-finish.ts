@@ -13,11 +13,10 @@
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import { NORMALISED_ARRAYS } from './dataset-manifest.ts';
-import type { ColumnStatistics, DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead, NormalisedArrayName } from './dataset-manifest.ts';
+import type { ArrayLayout, ColumnStatistics, DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead, NormalisedArrayName } from './dataset-manifest.ts';
 import { combineMoments } from './column-moments.ts';
 import type { ColumnMoments } from './column-moments.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
-import type { ArrayLayout } from './episode-outcome.ts';
 import { describeArray } from './episode-array-catalogue.ts';
 import { renderDatasetCard } from './dataset-card.ts';
 import { CardTally } from './card-tally.ts';

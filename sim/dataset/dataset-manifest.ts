@@ -16,6 +16,13 @@ export type ExportFormat = 'npz' | 'hdf5' | 'both';
 export type ExportDtype = 'float32' | 'float64';
 export type StoredDtype = 'float32' | 'float64' | Exclude<CatalogueDtype, 'float'>;
 
+/** The name, stored dtype and shape of one array in an episode's file. */
+export interface ArrayLayout {
+  name: string;
+  dtype: StoredDtype;
+  shape: number[];
+}
+
 export interface ArrayRecord {
   /** Name inside the file: the NPZ member without ".npy", or the HDF5 dataset path. */
   name: string;

@@ -7,8 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { EpisodeRecord, FileRecord } from './dataset-manifest.ts';
-import type { ArrayLayout } from './episode-outcome.ts';
+import type { ArrayLayout, EpisodeRecord, FileRecord } from './dataset-manifest.ts';
 import { digestFile } from './file-digest.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import { systemErrorCode } from './read-file-bytes.ts';

@@ -2,17 +2,11 @@
 // and the bytes of its NPZ file, ready to be written. Computing it is the whole cost of an
 // episode (simulation and compression), so this is what worker threads do.
 import type { Scenario } from '../scenario/scenario-types.ts';
-import type { EpisodeRecord, ExportDtype, StoredDtype } from './dataset-manifest.ts';
+import type { ArrayLayout, EpisodeRecord, ExportDtype, StoredDtype } from './dataset-manifest.ts';
 import { produceEpisode } from './episode-product.ts';
 import { encodeEpisodeNpz } from './episode-npz.ts';
 import type { ReplayTable } from './replay-inputs.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
-
-export interface ArrayLayout {
-  name: string;
-  dtype: StoredDtype;
-  shape: number[];
-}
 
 export interface EpisodeOutcome {
   record: EpisodeRecord;
