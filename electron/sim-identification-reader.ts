@@ -5,7 +5,7 @@
 // wrong is reported as such ('invalid-dataset'), never shown as if it were good.
 import { readFile, stat } from 'node:fs/promises';
 import { join } from 'node:path';
-import { decodeNpz } from '../sim/dataset/npz.ts';
+import { decodeNpz } from '../sim/dataset/formats/npz.ts';
 import { scoreProblems } from '../sim/identify/score/score-check.ts';
 import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
 import { shown } from './allowed-folders.ts';

@@ -1,10 +1,10 @@
 // Runs dataset verifications in worker threads and waits for their reports: hashing every file
 // of a large dataset must not stall the Electron main process or the web server. The worker is
-// sim/dataset/dataset-verify-worker.ts; it posts either the report or the error it met. A page
+// sim/dataset/jobs/dataset-verify-worker.ts; it posts either the report or the error it met. A page
 // asking again for a folder already being checked shares that check, and only a few run at once,
 // so repeated clicks (or a hostile page) cannot start a thread per request.
 import { Worker } from 'node:worker_threads';
-import type { VerifyByFileReport } from '../sim/dataset/verify-by-file.ts';
+import type { VerifyByFileReport } from '../sim/dataset/read/verify-by-file.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
 import { ReportedError, type ErrorReport } from '../sim/errors/error-report.ts';
 

@@ -34,6 +34,24 @@ const ALLOWED: Record<string, string[]> = {
 };
 const ENVIRONMENT_FREE = ['sim/errors', 'sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
 
+/**
+ * The rooms of sim/dataset and which other rooms of it each may import: the file formats import
+ * nothing else of sim/dataset, the folder's description (manifest) only the formats, and so on up
+ * to the app's jobs. Writing may use reading (merge verifies its shards, reproduce compares
+ * folders); reading never uses writing.
+ */
+const DATASET_ROOMS: Record<string, string[]> = {
+  'sim/dataset/formats': [],
+  'sim/dataset/manifest': ['sim/dataset/formats'],
+  'sim/dataset/card': ['sim/dataset/formats', 'sim/dataset/manifest'],
+  'sim/dataset/read': ['sim/dataset/formats', 'sim/dataset/manifest', 'sim/dataset/card'],
+  'sim/dataset/write': ['sim/dataset/formats', 'sim/dataset/manifest', 'sim/dataset/card', 'sim/dataset/read'],
+  'sim/dataset/jobs': ['sim/dataset/formats', 'sim/dataset/manifest', 'sim/dataset/card', 'sim/dataset/read', 'sim/dataset/write'],
+};
+
+/** A room stays small enough to find one's way in (project rule). */
+const MAX_FILES_PER_ROOM = 30;
+
 function sourceFiles(folder: string): string[] {
   const abs = join(ROOT, folder);
   let entries: string[];
@@ -83,6 +101,29 @@ describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
       expect(violations).toEqual([]);
     });
   }
+
+  for (const [room, allowed] of Object.entries(DATASET_ROOMS)) {
+    it(`${room} imports ${allowed.length ? `of sim/dataset only ${allowed.join(', ')}` : 'nothing else of sim/dataset'}`, () => {
+      const violations: string[] = [];
+      for (const file of sourceFiles(room)) {
+        for (const spec of importsOf(file)) {
+          if (!spec.startsWith('.')) continue;
+          const target = relative(ROOT, resolve(dirname(join(ROOT, file)), spec));
+          if (!target.startsWith('sim/dataset/')) continue;
+          const targetRoom = target.split('/').slice(0, 3).join('/');
+          if (targetRoom !== room && !allowed.includes(targetRoom)) violations.push(`${file} imports ${target}`);
+        }
+      }
+      expect(sourceFiles(room).length).toBeGreaterThan(0);
+      expect(violations).toEqual([]);
+    });
+  }
+
+  it(`every source file of sim/dataset lives in one of its rooms, each of fewer than ${MAX_FILES_PER_ROOM} files`, () => {
+    const loose = sourceFiles('sim/dataset').filter((file) => !Object.keys(DATASET_ROOMS).some((room) => file.startsWith(`${room}/`)));
+    expect(loose).toEqual([]);
+    for (const room of Object.keys(DATASET_ROOMS)) expect(sourceFiles(room).length, room).toBeLessThan(MAX_FILES_PER_ROOM);
+  });
 
   it('has source files in the core folders (the check above is not vacuous)', () => {
     expect(sourceFiles('sim/core').length).toBeGreaterThan(5);

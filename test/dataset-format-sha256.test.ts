@@ -4,8 +4,8 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { DatasetReadError } from '../sim/dataset/dataset-read-error.ts';
-import { sha256FileHex, sha256Hex } from '../sim/dataset/sha256.ts';
+import { DatasetReadError } from '../sim/dataset/formats/dataset-read-error.ts';
+import { sha256FileHex, sha256Hex } from '../sim/dataset/formats/sha256.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

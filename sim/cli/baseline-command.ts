@@ -9,7 +9,7 @@ import { CliUsageError } from './command.ts';
 import { choiceOption, parseArguments, wholeNumberOption, type ParsedArguments } from './command-arguments.ts';
 import { asCliFailure } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { BASELINE_MODEL_NAMES, type BaselineModel } from '../identify/baselines/baseline-model.ts';
 import { readBaselineModel, writeBaselineModel } from '../identify/baselines/baseline-model-file.ts';
 import { baselineModelHead, fitBaseline } from '../identify/baselines/baseline-fit.ts';

@@ -3,7 +3,7 @@
 // finished episodes are kept for --resume. Which exit code a failure gets is not decided here
 // but by its kind, once, in exit-codes.ts.
 import { CliUsageError } from './command.ts';
-import { EpisodeBuildError } from '../dataset/episode-product.ts';
+import { EpisodeBuildError } from '../dataset/write/episode-product.ts';
 import { ScenarioProblemError, formatProblems } from '../scenario/scenario-problem.ts';
 
 export function asCliFailure(error: unknown, scenarioName = 'scenario'): unknown {

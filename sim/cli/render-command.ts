@@ -7,7 +7,7 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments, wholeNumberOption } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { renderEpisode, renderedGif, renderedPngs } from '../render/render-episode.ts';
 import type { PictureView } from '../render/episode-picture.ts';
 

@@ -9,7 +9,7 @@ import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { reproduceDataset, seedEditedWords } from '../dataset/reproduce-dataset.ts';
+import { reproduceDataset, seedEditedWords } from '../dataset/write/reproduce-dataset.ts';
 
 export const reproduceCommand: CliCommand = {
   name: 'reproduce',

@@ -11,8 +11,8 @@ import { ScenarioProblemError, formatProblems } from '../scenario/scenario-probl
 import type { ScenarioProblem } from '../scenario/scenario-problem.ts';
 import type { CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
-import { MiB, PATH_IS_FOLDER_CODE, readBoundedText } from '../dataset/bounded-text-file.ts';
-import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
+import { MiB, PATH_IS_FOLDER_CODE, readBoundedText } from '../dataset/formats/bounded-text-file.ts';
+import { DatasetRequestError } from '../dataset/formats/dataset-request-error.ts';
 
 /** Scenario files are short documents; replay arrays live in files of their own. */
 export const MAX_SCENARIO_FILE_BYTES = 16 * MiB;

@@ -5,12 +5,12 @@
 // app's words, never a stack trace or a command-line flag.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
-import { toDatasetWriteError } from '../dataset/dataset-write-error.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
+import { toDatasetWriteError } from '../dataset/formats/dataset-write-error.ts';
 import { reportOf } from '../errors/error-report.ts';
 import type { PictureView } from './episode-picture.ts';
 import { MissingPictureArrayError, renderEpisode, renderedGif, renderedPngs } from './render-episode.ts';
-import type { JobMessage } from '../dataset/job-message.ts';
+import type { JobMessage } from '../dataset/jobs/job-message.ts';
 
 export interface RenderJob {
   kind: 'render';

@@ -5,7 +5,7 @@
 import { reportOf } from '../../errors/error-report.ts';
 import { writeScore } from './score-outputs.ts';
 import { DEFAULT_VPT_THRESHOLD, scorePredictions } from './score-predictions.ts';
-import type { JobMessage } from '../../dataset/job-message.ts';
+import type { JobMessage } from '../../dataset/jobs/job-message.ts';
 
 export interface ScoreJob {
   kind: 'score';
