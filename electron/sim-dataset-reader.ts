@@ -76,6 +76,6 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
 
     // Streamed hashing in the main process: each chunk is short work between reads, so requests
     // keep being answered while a large folder is compared.
-    compare: (originalDir, regeneratedDir) => translated(async () => ({ comparisons: await compareDatasetFolders(originalDir, regeneratedDir) })),
+    compare: (originalDir, regeneratedDir) => translated(async () => ({ comparisons: (await compareDatasetFolders(originalDir, regeneratedDir)).map(({ path, result }) => ({ file: path, result })) })),
   };
 }

@@ -125,6 +125,11 @@ describe('layering of sim/ (DEVELOPERS.md, project rule)', () => {
     for (const room of Object.keys(DATASET_ROOMS)) expect(sourceFiles(room).length, room).toBeLessThan(MAX_FILES_PER_ROOM);
   });
 
+  it('one hashing path: only sim/dataset/formats/file-digest.ts calls createHash (files streamed, bytes, pieces)', () => {
+    const hashing = [...sourceFiles('sim'), ...sourceFiles('electron')].filter((file) => /\bcreateHash\s*\(/.test(readFileSync(join(ROOT, file), 'utf8')));
+    expect(hashing).toEqual(['sim/dataset/formats/file-digest.ts']);
+  });
+
   it('has source files in the core folders (the check above is not vacuous)', () => {
     expect(sourceFiles('sim/core').length).toBeGreaterThan(5);
     expect(sourceFiles('sim/systems').length).toBeGreaterThan(3);

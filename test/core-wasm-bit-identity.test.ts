@@ -36,7 +36,7 @@ import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { computeEpisodeOutcome } from '../sim/dataset/write/episode-outcome.ts';
 import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
-import { sha256Hex } from '../sim/dataset/formats/sha256.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 

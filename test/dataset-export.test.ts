@@ -25,7 +25,7 @@ import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.t
 import { MANIFEST_SCHEMA } from '../sim/dataset/manifest/manifest-schema.ts';
 import { produceEpisode } from '../sim/dataset/write/episode-product.ts';
 import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
-import { sha256Hex } from '../sim/dataset/formats/sha256.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -20,7 +20,7 @@ import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.t
 import { manifestProblems } from '../sim/dataset/manifest/manifest-check.ts';
 import type { NamedArray } from '../sim/dataset/formats/named-array.ts';
 import { parseSeedFile } from '../sim/dataset/manifest/seed-file.ts';
-import { sha256Hex } from '../sim/dataset/formats/sha256.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import { writeSplitHdf5 } from '../sim/dataset/write/split-hdf5.ts';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { COMPRESSION_LEVELS, EXPORT_COMPRESSIONS } from '../sim/scenario/export-compression.ts';

@@ -5,7 +5,7 @@
 // histograms need (nothing for a label while it keeps one value, 8 bytes per episode while it
 // is a number, and 2 bytes per value for the split it came from, which the SVG pictures count
 // by), and one SHA-256 digest per distinct list-valued label.
-import { createHash } from 'node:crypto';
+import { Sha256Stream } from '../formats/file-digest.ts';
 import type { LabelValue } from '../../scenario/sampled-episode.ts';
 import type { EpisodeRecord, EpisodeRejection, EpisodeSimulation } from '../manifest/dataset-manifest.ts';
 
@@ -206,7 +206,7 @@ export class CardTally {
         tally.scalars.push(value);
         tally.scalarSplits.push(splitCode);
       }
-      else tally.compoundDigests.add(createHash('sha256').update(JSON.stringify(value)).digest('base64'));
+      else tally.compoundDigests.add(new Sha256Stream().update(JSON.stringify(value)).hex());
     }
   }
 }

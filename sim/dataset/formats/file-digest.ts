@@ -1,9 +1,12 @@
-// The one way Pliant hashes a file on disk (SHA-256, FIPS 180-4): streamed in 1 MiB pieces, so
+// The one way Pliant takes the SHA-256 (FIPS 180-4) of a file or of bytes, as lowercase hex, for
+// the manifest's checksums: anyone can check a regenerated file against the published digest.
+// A file on disk is streamed in 1 MiB pieces, so
 // a file of any size — a split HDF5 file of several GiB — is hashed in little memory, and the
 // event loop gets a turn every 64 MiB. A file that is there but cannot be read (no
 // permission, a folder in its place, an I/O error) is "unreadable" with the system's reason,
 // never "missing": only ENOENT means missing. `verify`, `reproduce`, the app's comparison,
-// `merge` and `--resume` all come here.
+// `merge` and `--resume` all come here, and so does every other SHA-256 in Pliant (test/
+// architecture-layering.test.ts checks that nothing else calls node:crypto's createHash).
 import { createHash } from 'node:crypto';
 import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
 import { systemErrorCode } from './read-file-bytes.ts';
@@ -57,6 +60,32 @@ export async function digestFile(path: string): Promise<FileDigest> {
   } finally {
     closeSync(fd);
   }
+}
+
+/**
+ * SHA-256 of a sequence fed piece by piece — bytes, or text taken as UTF-8 — for content that is
+ * never whole in memory: a manifest written in pieces, the records parsed from one.
+ */
+export class Sha256Stream {
+  private readonly hash = createHash('sha256');
+
+  update(piece: Uint8Array | string): this {
+    this.hash.update(piece);
+    return this;
+  }
+
+  /** The digest as lowercase hex; the stream takes no more pieces after this. */
+  hex(): string {
+    return this.hash.digest('hex');
+  }
+}
+
+/** SHA-256 of bytes already in memory (a file just encoded), or of several buffers taken as one byte sequence. */
+export function sha256Hex(content: Uint8Array | readonly Uint8Array[]): string {
+  const hash = createHash('sha256');
+  const chunks = content instanceof Uint8Array ? [content] : content;
+  for (const chunk of chunks) hash.update(chunk);
+  return hash.digest('hex');
 }
 
 /** How a digest that is not a hash reads in a report, e.g. "missing file: x" / "unreadable file: x (EACCES)". */

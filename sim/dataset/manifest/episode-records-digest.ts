@@ -4,14 +4,13 @@
 // line feed, in list order; JSON.parse then JSON.stringify gives the same text back for every
 // record Pliant writes (finite numbers, strings, booleans, null), so a reader recomputes the
 // digest from the parsed records without keeping the file's text.
-import { createHash } from 'node:crypto';
-import type { Hash } from 'node:crypto';
+import { Sha256Stream } from '../formats/file-digest.ts';
 
 /** The manifest member, placed right after `episodes`. Absent in manifests of Pliant 0.1.0 before it. */
 export const EPISODE_RECORDS_DIGEST_MEMBER = 'episodeRecordsSha256';
 
 export class EpisodeRecordsDigest {
-  private readonly hash: Hash = createHash('sha256');
+  private readonly hash = new Sha256Stream();
 
   add(record: unknown): void {
     this.hash.update(JSON.stringify(record));
@@ -19,6 +18,6 @@ export class EpisodeRecordsDigest {
   }
 
   hex(): string {
-    return this.hash.digest('hex');
+    return this.hash.hex();
   }
 }

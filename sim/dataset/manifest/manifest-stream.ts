@@ -7,8 +7,8 @@
 //
 // The format is unchanged: this reads exactly what dataset-finish.ts writes (and any other
 // layout of the same JSON). `readFolderState` stays for the small readers of ordinary folders.
+import { Sha256Stream } from '../formats/file-digest.ts';
 import { EPISODE_RECORDS_DIGEST_MEMBER } from './episode-records-digest.ts';
-import { createHash } from 'node:crypto';
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import { join } from 'node:path';
 import { MANIFEST_FILE } from './dataset-files.ts';
@@ -299,7 +299,7 @@ export function manifestDigestWithoutRun(manifestPath: string): string | null {
   } catch {
     return null;
   }
-  const hash = createHash('sha256');
+  const hash = new Sha256Stream();
   try {
     for (const event of scanJsonStream(source, walked, { maxValueBytes: MAX_MANIFEST_PIECE_BYTES, maxDepth: MAX_PIECE_DEPTH })) {
       if (event.path[0] === 'run') continue;
@@ -312,13 +312,5 @@ export function manifestDigestWithoutRun(manifestPath: string): string | null {
   } finally {
     source.close();
   }
-  return hash.digest('hex');
-}
-
-/** Paths of the documents and data files the manifest lists, in its order, one at a time. */
-export function* listedManifestPaths(manifestPath: string): Generator<string> {
-  for (const event of readManifestStream(manifestPath)) {
-    if (event.kind === 'file') yield event.record.path;
-    else if (event.kind === 'documents') for (const d of event.documents) yield d.path;
-  }
+  return hash.hex();
 }

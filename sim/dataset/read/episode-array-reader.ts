@@ -11,7 +11,7 @@ import type { ArrayRecord, DataFileRecord, DatasetManifest, EpisodeRecord } from
 import { readHdf5GroupArrays } from '../formats/hdf5-group-reader.ts';
 import type { NamedArray } from '../formats/named-array.ts';
 import { decodeNpz } from '../formats/npz.ts';
-import { sha256Hex } from '../formats/sha256.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
 
 export interface EpisodeArraysRead {
   episode: EpisodeRecord;

@@ -9,7 +9,7 @@ import { SEED_FILE } from '../manifest/dataset-files.ts';
 import { DatasetNotFoundError } from '../formats/dataset-not-found-error.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { parseSeedFile } from '../manifest/seed-file.ts';
-import { sha256Hex } from '../formats/sha256.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
 
 export interface SeedSummaryRead {
   path: string;

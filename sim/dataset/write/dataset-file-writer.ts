@@ -1,11 +1,10 @@
 // Writes one file of a dataset folder through a temporary name and a rename (atomic-file.ts), so
 // a reader or a resumed run never finds half a file under its final name, and returns its
 // manifest entry. Failures arrive as DatasetWriteError, which names the file and what to do.
-import { createHash } from 'node:crypto';
 import { mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { writeFileAtomic, writeFileAtomicStreamed } from '../formats/atomic-file.ts';
-import { sha256Hex } from '../formats/sha256.ts';
+import { Sha256Stream, sha256Hex } from '../formats/file-digest.ts';
 import type { FileRecord } from '../manifest/dataset-manifest.ts';
 import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
 
@@ -35,7 +34,7 @@ const STREAMED_PIECE_UNITS = 1 << 16;
 export function writeDatasetTextStreamed(outDir: string, relativePath: string, produce: (emit: (text: string) => void) => void): FileRecord {
   const path = join(outDir, relativePath);
   ensureFolder(dirname(path));
-  const hash = createHash('sha256');
+  const hash = new Sha256Stream();
   const encoder = new TextEncoder();
   let sizeBytes = 0;
   writeFileAtomicStreamed(path, (write) => {
@@ -55,5 +54,5 @@ export function writeDatasetTextStreamed(outDir: string, relativePath: string, p
     });
     flush();
   });
-  return { path: relativePath, sha256: hash.digest('hex'), sizeBytes };
+  return { path: relativePath, sha256: hash.hex(), sizeBytes };
 }

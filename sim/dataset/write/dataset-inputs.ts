@@ -13,7 +13,7 @@ import type { SeedInput } from '../manifest/seed-file.ts';
 import { INPUTS_FOLDER } from '../manifest/dataset-files.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { ScenarioProblemError } from '../../scenario/scenario-problem.ts';
-import { sha256Hex } from '../formats/sha256.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
 
 export interface GatheredInputs {
   table: ReplayTable;

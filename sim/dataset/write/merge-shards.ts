@@ -22,7 +22,7 @@ import { folderOverlap } from './folder-overlap.ts';
 import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
 import { lockFolder } from './folder-lock.ts';
 import { checkFileRecord } from '../read/verify-dataset.ts';
-import { sha256Hex } from '../formats/sha256.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
 import type { GenerationListener } from './generation-progress.ts';
 
 export interface MergeRequest {

@@ -5,20 +5,18 @@ import { dirname, join, resolve } from 'node:path';
 import { parseSeedFile } from '../manifest/seed-file.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { MiB, readBoundedText } from '../formats/bounded-text-file.ts';
-
-/** A seed file holds the resolved scenario and the run's settings, never the episodes. */
-const MAX_SEED_FILE_BYTES = 64 * MiB;
 import { generateDataset } from './generate-dataset.ts';
 import type { GenerateResult } from './generate-dataset.ts';
 import type { GenerationListener } from './generation-progress.ts';
 import { MANIFEST_FILE, SEED_FILE } from '../manifest/dataset-files.ts';
-import { sha256Hex } from '../formats/sha256.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
 import { DatasetReadError } from '../formats/dataset-read-error.ts';
-import { listedManifestPaths, manifestDigestWithoutRun, readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
-import { digestFile } from '../formats/file-digest.ts';
-import type { FileDigest } from '../formats/file-digest.ts';
+import { readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
+import { compareDatasetFolders } from '../read/dataset-comparison.ts';
+import type { FileComparison } from '../read/dataset-comparison.ts';
 
-export type FileComparison = 'identical' | 'different' | 'missing in original' | 'missing in regenerated' | 'unreadable in original' | 'unreadable in regenerated';
+/** A seed file holds the resolved scenario and the run's settings, never the episodes. */
+const MAX_SEED_FILE_BYTES = 64 * MiB;
 
 export interface ReproduceRequest {
   seedPath: string;
@@ -34,7 +32,8 @@ export interface ReproduceReport {
   generated: GenerateResult;
   /** Pliant version that wrote the seed file; bytes may differ when it is not this one. */
   seedVersion: string;
-  comparisons: Array<{ path: string; result: FileComparison }>;
+  /** The folder comparison (read/dataset-comparison.ts) of the original and the regenerated folder. */
+  comparisons: FileComparison[];
   identical: boolean;
   /**
    * The seed file against the SHA-256 the original manifest recorded for it: `matches` is null
@@ -60,14 +59,6 @@ function recordedSeedDigest(manifestPath: string): string | null {
     if (!(error instanceof DatasetReadError)) throw error;
   }
   return null;
-}
-
-function compareDigests(a: FileDigest, b: FileDigest): FileComparison {
-  if (a.kind === 'missing') return 'missing in original';
-  if (a.kind === 'unreadable') return 'unreadable in original';
-  if (b.kind === 'missing') return 'missing in regenerated';
-  if (b.kind === 'unreadable') return 'unreadable in regenerated';
-  return a.sha256 === b.sha256 ? 'identical' : 'different';
 }
 
 export async function reproduceDataset(request: ReproduceRequest): Promise<ReproduceReport> {
@@ -106,21 +97,10 @@ export async function reproduceDataset(request: ReproduceRequest): Promise<Repro
     shouldStop: request.shouldStop,
     runInfo: { command: ['pliant', 'reproduce', request.seedPath], reproducing: originalDir },
   });
-  const comparisons: ReproduceReport['comparisons'] = [];
   const seedSha256 = sha256Hex(new TextEncoder().encode(seedText));
   const recordedSha256 = originalThere ? recordedSeedDigest(originalManifest) : null;
   const seedFile = { sha256: seedSha256, recordedSha256, matches: recordedSha256 === null ? null : recordedSha256 === seedSha256 };
-  if (generated.status === 'stopped') return { generated, seedVersion: seed.pliantVersion, comparisons, identical: false, seedFile };
-  const paths = new Set<string>();
-  if (originalHead) for (const path of listedManifestPaths(originalManifest)) paths.add(path);
-  for (const path of generated.listedPaths ?? []) paths.add(path);
-  for (const path of [...paths].sort()) {
-    comparisons.push({ path, result: compareDigests(await digestFile(join(originalDir, path)), await digestFile(join(generated.outDir, path))) });
-  }
-  const a = originalThere ? manifestDigestWithoutRun(originalManifest) : null;
-  comparisons.push({
-    path: `${MANIFEST_FILE} (all but "run")`,
-    result: a === null ? 'missing in original' : a === manifestDigestWithoutRun(join(generated.outDir, MANIFEST_FILE)) ? 'identical' : 'different',
-  });
+  if (generated.status === 'stopped') return { generated, seedVersion: seed.pliantVersion, comparisons: [], identical: false, seedFile };
+  const comparisons = await compareDatasetFolders(originalDir, generated.outDir, { requireOriginalManifest: false, regeneratedListed: generated.listedPaths ?? undefined });
   return { generated, seedVersion: seed.pliantVersion, comparisons, identical: comparisons.every((c) => c.result === 'identical'), seedFile };
 }

@@ -10,7 +10,7 @@ import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../../datas
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 import { readEpisodeArrays } from '../../dataset/read/episode-array-reader.ts';
 import type { NamedArray } from '../../dataset/formats/named-array.ts';
-import { sha256Hex } from '../../dataset/formats/sha256.ts';
+import { sha256Hex } from '../../dataset/formats/file-digest.ts';
 
 export interface ScoredDataset {
   dir: string;
