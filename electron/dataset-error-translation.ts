@@ -1,27 +1,51 @@
-// Turns the dataset pipeline's own errors into the contract's error codes, so the renderer can
-// tell "not there" (not-found) from "there but not a readable dataset" (invalid-dataset) and a
-// bad sort column (invalid-arguments). The pipeline's messages already say what, where and how
-// to fix it; only their first letter and final full stop are adjusted to read as sentences.
-import { DatasetNotFoundError } from '../sim/dataset/dataset-not-found-error.ts';
-import { DatasetReadError } from '../sim/dataset/dataset-read-error.ts';
-import { DatasetRequestError } from '../sim/dataset/dataset-request-error.ts';
-import { UnknownSortKeyError } from '../sim/dataset/episode-listing.ts';
+// The app's one mapping from an error's kind and stable code (sim/errors/pliant-error.ts) to the
+// bridge contract's error codes, so the renderer can tell "not there" (not-found) from "there but
+// not a readable dataset" (invalid-dataset), a bad argument (invalid-arguments) and the machine's
+// refusals (permission-denied, io-error). Codes the table does not name fall back on the kind:
+// a user's mistake is invalid-arguments, the environment's is io-error, a bug is internal. The
+// pipeline's messages already say what, where and how to fix it; only their first letter and
+// final full stop are adjusted to read as sentences.
+import { PliantError } from '../sim/errors/pliant-error.ts';
+import type { ErrorKind } from '../sim/errors/pliant-error.ts';
+import type { ErrorReport } from '../sim/errors/error-report.ts';
 import type { RequestErrorCode } from '../sim/bridge/bridge-contract.ts';
 import { appMessageOf } from './app-run-words.ts';
 import { RequestError } from './request-error.ts';
 
-/** Error class names as they survive a worker thread's postMessage, where only the name and message cross. */
-export const DATASET_ERROR_CODES: Readonly<Record<string, RequestErrorCode>> = {
-  DatasetNotFoundError: 'not-found',
-  DatasetRequestError: 'invalid-dataset',
-  DatasetReadError: 'invalid-dataset',
-  UnknownSortKeyError: 'invalid-arguments',
+/** Stable error codes with a more telling contract code than their kind's. */
+const REQUEST_CODE_BY_ERROR_CODE: Readonly<Record<string, RequestErrorCode>> = {
+  'dataset-not-found': 'not-found',
+  'dataset-request': 'invalid-dataset',
+  'path-is-folder': 'invalid-dataset',
+  'dataset-read': 'invalid-dataset',
+  'json-damaged': 'invalid-dataset',
+  'missing-picture-array': 'invalid-dataset',
+  'unknown-sort-key': 'invalid-arguments',
+  'write-disk-full': 'io-error',
+  'write-not-writable': 'permission-denied',
+  'write-missing-folder': 'not-found',
+  'write-not-a-folder': 'not-found',
+  'write-in-the-way': 'already-exists',
+  'write-too-large': 'too-large',
+  'npz-too-large': 'too-large',
 };
 
-/** The RequestError for a pipeline error; anything else is returned unchanged for the registry to report. */
+export const REQUEST_CODE_BY_KIND: Readonly<Record<ErrorKind, RequestErrorCode>> = {
+  user: 'invalid-arguments',
+  environment: 'io-error',
+  bug: 'internal',
+};
+
+/** The contract code for an error's report. */
+export function requestErrorCodeOf(report: Pick<ErrorReport, 'kind' | 'errorCode'>): RequestErrorCode {
+  if (report.kind === 'bug') return 'internal';
+  return REQUEST_CODE_BY_ERROR_CODE[report.errorCode] ?? REQUEST_CODE_BY_KIND[report.kind];
+}
+
+/** The RequestError for one of Pliant's own expected errors; bugs and anything else are returned unchanged for the registry to report. */
 export function translateDatasetError(error: unknown): unknown {
-  const known = error instanceof DatasetNotFoundError || error instanceof DatasetRequestError || error instanceof DatasetReadError || error instanceof UnknownSortKeyError;
-  return known ? new RequestError(DATASET_ERROR_CODES[error.name], asSentence(appMessageOf(error))) : error;
+  if (!(error instanceof PliantError) || error.kind === 'bug') return error;
+  return new RequestError(requestErrorCodeOf(error), asSentence(appMessageOf(error)));
 }
 
 export function asSentence(text: string): string {

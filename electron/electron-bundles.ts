@@ -2,7 +2,7 @@
 // preload.cjs (one CommonJS file, because a sandboxed preload script cannot import other modules)
 // and the dataset pipeline's worker threads. A packaged app has no TypeScript loader and no sim/
 // folder, so each worker is bundled beside main.mjs under the file name its URL names in a
-// checkout (sim/dataset/app-worker-urls.ts, episode-pool.ts, sim/identify/score/score-worker-url.ts,
+// checkout (sim/dataset/jobs/app-worker-urls.ts, episode-pool.ts, sim/identify/score/score-worker-url.ts,
 // sim/render/render-worker-url.ts): the same `new URL('./…',
 // import.meta.url)` then finds the bundled worker in dist/electron.
 import { build } from 'esbuild';
@@ -14,9 +14,9 @@ const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
 /** Bundled worker file name → its TypeScript entry. */
 export const WORKER_BUNDLES: Readonly<Record<string, string>> = {
-  'dataset-job-worker-entry.mjs': 'sim/dataset/dataset-job-worker.ts',
-  'dataset-verify-worker-entry.mjs': 'sim/dataset/dataset-verify-worker.ts',
-  'episode-worker-entry.mjs': 'sim/dataset/episode-worker.ts',
+  'dataset-job-worker-entry.mjs': 'sim/dataset/jobs/dataset-job-worker.ts',
+  'dataset-verify-worker-entry.mjs': 'sim/dataset/jobs/dataset-verify-worker.ts',
+  'episode-worker-entry.mjs': 'sim/dataset/write/episode-worker.ts',
   'score-job-worker-entry.mjs': 'sim/identify/score/score-job-worker.ts',
   'render-job-worker-entry.mjs': 'sim/render/render-job-worker.ts',
 };

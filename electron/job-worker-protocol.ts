@@ -4,7 +4,7 @@
 // The dataset pipeline provides the worker entry; this file is all it needs to know about us.
 // Imports nothing at run time so a worker bundle stays free of the shell's code.
 import type { ExportFormat, JobKind, PictureOutput, PictureView } from '../sim/bridge/bridge-contract.ts';
-import type { JobMessage } from '../sim/dataset/job-message.ts';
+import type { JobMessage } from '../sim/dataset/jobs/job-message.ts';
 
 export interface ExportJobSpec {
   kind: 'export';

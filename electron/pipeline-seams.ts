@@ -2,7 +2,7 @@
 // the pipeline's own parts that fill them. Both shells (main.ts, web-cli.ts) get these through
 // createDefaultServices, so the desktop app and web mode answer every request with the same code;
 // tests may replace single parts.
-import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/app-worker-urls.ts';
+import { DATASET_JOB_WORKER_URL, DATASET_VERIFY_WORKER_URL } from '../sim/dataset/jobs/app-worker-urls.ts';
 import { SCORE_JOB_WORKER_URL } from '../sim/identify/score/score-worker-url.ts';
 import { RENDER_JOB_WORKER_URL } from '../sim/render/render-worker-url.ts';
 import type { JobKind } from '../sim/bridge/bridge-contract.ts';

@@ -2,6 +2,7 @@
 // message written for the person using the app; anything else that escapes a handler is turned
 // into one of these at the registry boundary so no stack trace ever reaches the renderer.
 import type { RequestErrorCode, RequestErrorInfo } from '../sim/bridge/bridge-contract.ts';
+import { translateDatasetError } from './dataset-error-translation.ts';
 
 export class RequestError extends Error {
   readonly code: RequestErrorCode;
@@ -29,12 +30,15 @@ const FS_CODES: Record<string, { code: RequestErrorCode; says: string }> = {
 };
 
 /**
- * Turns whatever a handler threw into a contract error. File-system errors keep their meaning
+ * Turns whatever a handler threw into a contract error. Pliant's own errors are mapped by their
+ * kind and code (dataset-error-translation.ts); raw file-system errors keep their meaning
  * (a missing file is "not-found", not "internal"); only the message text of other errors is
  * kept, because their stacks describe our code, not the user's problem.
  */
 export function toRequestErrorInfo(thrown: unknown, requestName: string): RequestErrorInfo {
   if (thrown instanceof RequestError) return thrown.toInfo();
+  const translated = translateDatasetError(thrown);
+  if (translated instanceof RequestError) return translated.toInfo();
   const errno = thrown as { code?: unknown; path?: unknown; message?: unknown } | null;
   if (errno && typeof errno.code === 'string' && FS_CODES[errno.code]) {
     const known = FS_CODES[errno.code];

@@ -1,10 +1,10 @@
-// The DatasetReader seam filled with the dataset pipeline's reader (sim/dataset/dataset-reader.ts):
+// The DatasetReader seam filled with the dataset pipeline's reader (sim/dataset/read/dataset-reader.ts):
 // summaries and episode pages from the manifest, one episode's arrays from its NPZ file or HDF5
 // group, and verification by the same code as `pliant verify`, run in a worker thread.
 import { stat } from 'node:fs/promises';
-import { compareDatasetFolders } from '../sim/dataset/dataset-comparison.ts';
-import { readDatasetOverview } from '../sim/dataset/dataset-overview.ts';
-import { DatasetReader as SimDatasetReader } from '../sim/dataset/dataset-reader.ts';
+import { compareDatasetFolders } from '../sim/dataset/read/dataset-comparison.ts';
+import { readDatasetOverview } from '../sim/dataset/read/dataset-overview.ts';
+import { DatasetReader as SimDatasetReader } from '../sim/dataset/read/dataset-reader.ts';
 import { shown } from './allowed-folders.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
 import { encodeArray } from './encoded-array.ts';
@@ -13,7 +13,7 @@ import type { DatasetReader } from './request-services.ts';
 import { createWorkerVerifier } from './verify-in-worker.ts';
 
 export interface SimDatasetReaderOptions {
-  /** Worker entry that runs one verification (sim/dataset/app-worker-urls.ts). */
+  /** Worker entry that runs one verification (sim/dataset/jobs/app-worker-urls.ts). */
   verifyWorkerUrl: URL;
 }
 
@@ -76,6 +76,6 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
 
     // Streamed hashing in the main process: each chunk is short work between reads, so requests
     // keep being answered while a large folder is compared.
-    compare: (originalDir, regeneratedDir) => translated(async () => ({ comparisons: await compareDatasetFolders(originalDir, regeneratedDir) })),
+    compare: (originalDir, regeneratedDir) => translated(async () => ({ comparisons: (await compareDatasetFolders(originalDir, regeneratedDir)).map(({ path, result }) => ({ file: path, result })) })),
   };
 }

@@ -1,6 +1,6 @@
-// The SeedReader seam filled with the dataset pipeline's seed reader (sim/dataset/seed-reader.ts),
+// The SeedReader seam filled with the dataset pipeline's seed reader (sim/dataset/read/seed-reader.ts),
 // which checks a seed file exactly as `pliant reproduce` does.
-import { readSeedSummary } from '../sim/dataset/seed-reader.ts';
+import { readSeedSummary } from '../sim/dataset/read/seed-reader.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
 import type { SeedReader } from './request-services.ts';
 

@@ -1,14 +1,14 @@
 // Runs dataset verifications in worker threads and waits for their reports: hashing every file
 // of a large dataset must not stall the Electron main process or the web server. The worker is
-// sim/dataset/dataset-verify-worker.ts; it posts either the report or the error it met. A page
+// sim/dataset/jobs/dataset-verify-worker.ts; it posts either the report or the error it met. A page
 // asking again for a folder already being checked shares that check, and only a few run at once,
 // so repeated clicks (or a hostile page) cannot start a thread per request.
 import { Worker } from 'node:worker_threads';
-import type { VerifyByFileReport } from '../sim/dataset/verify-by-file.ts';
-import { asSentence, DATASET_ERROR_CODES } from './dataset-error-translation.ts';
-import { RequestError } from './request-error.ts';
+import type { VerifyByFileReport } from '../sim/dataset/read/verify-by-file.ts';
+import { translateDatasetError } from './dataset-error-translation.ts';
+import { ReportedError, type ErrorReport } from '../sim/errors/error-report.ts';
 
-type FromVerifyWorker = { type: 'report'; report: VerifyByFileReport } | { type: 'failed'; name: string; message: string };
+type FromVerifyWorker = { type: 'report'; report: VerifyByFileReport } | { type: 'failed'; error: ErrorReport };
 
 /** Verifications of different folders that may run at once; later ones wait their turn. */
 export const MAX_PARALLEL_VERIFICATIONS = 2;
@@ -59,8 +59,7 @@ function verifyInWorker(workerUrl: URL, dir: string): Promise<VerifyByFileReport
       answered = true;
       if (message.type === 'report') resolve(message.report);
       else {
-        const code = DATASET_ERROR_CODES[message.name];
-        reject(code ? new RequestError(code, asSentence(message.message)) : new Error(message.message));
+        reject(translateDatasetError(new ReportedError(message.error)));
       }
     });
     worker.once('error', (error) => {

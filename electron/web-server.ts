@@ -41,7 +41,7 @@ export interface RunningWebServer {
   close(): Promise<void>;
 }
 
-const STATUS_BY_CODE: Partial<Record<RequestErrorCode, number>> = {
+export const STATUS_BY_CODE: Partial<Record<RequestErrorCode, number>> = {
   'unknown-request': 404,
   'invalid-arguments': 400,
   'path-refused': 403,

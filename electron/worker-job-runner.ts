@@ -130,7 +130,7 @@ export function createWorkerJobRunner(options: WorkerJobRunnerOptions): JobRunne
       return;
     }
     if (message.type === 'failed') {
-      // The pipeline names run settings in neutral form (sim/dataset/run-words.ts); the app words them.
+      // The pipeline names run settings in neutral form (sim/dataset/formats/run-words.ts); the app words them.
       finish(job, 'failed', inAppWords(message.message));
       return;
     }

@@ -1,12 +1,12 @@
-// The episode table behind dataset.episodes (sim/dataset/episode-listing.ts): sorting, filtering
+// The episode table behind dataset.episodes (sim/dataset/read/episode-listing.ts): sorting, filtering
 // and paging of manifest records, checked against Debian Python's sorted() with the ordering the
 // contract states (numbers, then text, then booleans, missing values last, ties by episode index;
 // descending reverses the whole order) and Python's str.lower() for the case-insensitive text
 // filter. The records are invented Korrin Bay eel-swimmer episodes, made up for this test only.
 import { describe, expect, it } from 'vitest';
-import type { EpisodeRecord } from '../sim/dataset/dataset-manifest.ts';
-import { EpisodeListing, UnknownSortKeyError } from '../sim/dataset/episode-listing.ts';
-import type { EpisodeListQuery } from '../sim/dataset/episode-listing.ts';
+import type { EpisodeRecord } from '../sim/dataset/manifest/dataset-manifest.ts';
+import { EpisodeListing, UnknownSortKeyError } from '../sim/dataset/read/episode-listing.ts';
+import type { EpisodeListQuery } from '../sim/dataset/read/episode-listing.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -314,20 +314,20 @@ h = lambda p: hashlib.sha256(open(p, "rb").read()).hexdigest()
 out = []
 for f in m["documents"] + m["files"]:
     there = os.path.join(b, f["path"])
-    out.append({"file": f["path"], "result": "missing" if not os.path.isfile(there) else "identical" if h(there) == h(os.path.join(a, f["path"])) else "different"})
+    out.append({"file": f["path"], "result": "missing in regenerated" if not os.path.isfile(there) else "identical" if h(there) == h(os.path.join(a, f["path"])) else "different"})
 strip = lambda p: {k: v for k, v in json.load(open(p)).items() if k != "run"}
 out.append({"file": "manifest.json", "result": "identical" if strip(os.path.join(a, "manifest.json")) == strip(os.path.join(b, "manifest.json")) else "different"})
 known = {o["file"] for o in out}
 extra = sorted(os.path.relpath(os.path.join(r, n), b) for r, _, names in os.walk(b) for n in names)
-out += [{"file": f, "result": "extra"} for f in extra if f not in known]
+out += [{"file": f, "result": "only in regenerated"} for f in extra if f not in known]
 print(json.dumps(out))`,
       [dataset, tampered],
     );
     expect(got.comparisons).toEqual(want);
     expect(got.comparisons.filter((c) => c.result !== 'identical')).toEqual([
-      { file: 'CARD.md', result: 'missing' },
+      { file: 'CARD.md', result: 'missing in regenerated' },
       { file: 'episodes/ep-000002.npz', result: 'different' },
-      { file: 'episodes/notes.txt', result: 'extra' },
+      { file: 'episodes/notes.txt', result: 'only in regenerated' },
     ]);
   });
 

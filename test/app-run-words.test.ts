@@ -1,4 +1,4 @@
-// The dataset run's refusals name its settings in a neutral form (sim/dataset/run-words.ts) that
+// The dataset run's refusals name its settings in a neutral form (sim/dataset/formats/run-words.ts) that
 // each shell words for itself: the app's export failures speak of the Export screen's tick box
 // and the dataset folder name, never of `--resume` or `--force`, which the app does not have; the
 // command line's same refusals keep their flags. Checked through the app's real handlers and
@@ -8,8 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import { DatasetRequestError } from '../sim/dataset/dataset-request-error.ts';
-import { COMMAND_LINE_WORDS, say, wordRun } from '../sim/dataset/run-words.ts';
+import { DatasetRequestError } from '../sim/dataset/formats/dataset-request-error.ts';
+import { COMMAND_LINE_WORDS, say, wordRun } from '../sim/dataset/formats/run-words.ts';
 import { APP_RUN_WORDS, inAppWords } from '../electron/app-run-words.ts';
 import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import type { AppSession } from './support/app-flow-session.ts';

@@ -15,15 +15,22 @@ import { describe, expect, it } from 'vitest';
 const ROOT = resolve(import.meta.dirname, '..');
 
 /** The environment-free folders: no Node, no DOM, no Electron (also type-checked by sim/tsconfig.core.json). */
-const ENVIRONMENT_FREE = ['sim/bridge', 'sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
+const ENVIRONMENT_FREE = ['sim/errors', 'sim/bridge', 'sim/plots', 'sim/random', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode', 'sim/scenario'];
 
 const SIM_BELOW_TOP = [
-  'sim/bridge', 'sim/random', 'sim/plots', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode',
+  'sim/errors', 'sim/bridge', 'sim/random', 'sim/plots', 'sim/core', 'sim/systems', 'sim/controls', 'sim/design', 'sim/episode',
   'sim/scenario', 'sim/dataset', 'sim/render', 'sim/identify',
 ];
 
-/** Which folders each folder may import from (besides itself). Every folder that holds source is listed. */
+/**
+ * The bottom room every folder may import: the error taxonomy (kinds and stable codes), which
+ * imports nothing itself, so that an error thrown anywhere says what kind it is.
+ */
+const SHARED = ['sim/errors'];
+
+/** Which folders each folder may import from (besides itself and SHARED). Every folder that holds source is listed. */
 const ALLOWED: Record<string, string[]> = {
+  'sim/errors': [],
   // The one agreement between the page and the shells: imports nothing, so neither side drags the other's environment in.
   'sim/bridge': [],
   'sim/random': [],
@@ -63,6 +70,24 @@ const MAY_IMPORT_ELECTRON = ['electron', 'test'];
 const ROOT_CONFIG_FILES = ['vitest.config.ts', 'eslint.config.js'];
 
 const NODE_BUILTINS = new Set(builtinModules.flatMap((name) => [name, `node:${name}`]));
+
+/**
+ * The rooms of sim/dataset and which other rooms of it each may import: the file formats import
+ * nothing else of sim/dataset, the folder's description (manifest) only the formats, and so on up
+ * to the app's jobs. Writing may use reading (merge verifies its shards, reproduce compares
+ * folders); reading never uses writing.
+ */
+const DATASET_ROOMS: Record<string, string[]> = {
+  'sim/dataset/formats': [],
+  'sim/dataset/manifest': ['sim/dataset/formats'],
+  'sim/dataset/card': ['sim/dataset/formats', 'sim/dataset/manifest'],
+  'sim/dataset/read': ['sim/dataset/formats', 'sim/dataset/manifest', 'sim/dataset/card'],
+  'sim/dataset/write': ['sim/dataset/formats', 'sim/dataset/manifest', 'sim/dataset/card', 'sim/dataset/read'],
+  'sim/dataset/jobs': ['sim/dataset/formats', 'sim/dataset/manifest', 'sim/dataset/card', 'sim/dataset/read', 'sim/dataset/write'],
+};
+
+/** A room stays small enough to find one's way in (project rule). */
+const MAX_FILES_PER_ROOM = 30;
 
 function sourceFiles(folder: string): string[] {
   const abs = join(ROOT, folder);
@@ -105,7 +130,7 @@ function packageName(spec: string): string {
 }
 
 function allows(room: string, targetRoom: string): boolean {
-  return targetRoom === room || ALLOWED[room].some((a) => targetRoom === a || targetRoom.startsWith(`${a}/`));
+  return targetRoom === room || SHARED.includes(targetRoom) || ALLOWED[room].some((a) => targetRoom === a || targetRoom.startsWith(`${a}/`));
 }
 
 /** Every broken rule of the table in `file`, one line each. */
@@ -188,6 +213,40 @@ describe('layering (DEVELOPERS.md "Layout", project rule)', () => {
       expect(targets.filter((t) => t.startsWith('sim/') && roomOf(t) !== 'sim/bridge')).toEqual([]);
     });
   }
+
+  for (const [room, allowed] of Object.entries(DATASET_ROOMS)) {
+    it(`${room} imports ${allowed.length ? `of sim/dataset only ${allowed.join(', ')}` : 'nothing else of sim/dataset'}`, () => {
+      const violations: string[] = [];
+      for (const file of sourceFiles(room)) {
+        for (const spec of importsOf(file)) {
+          if (!spec.startsWith('.')) continue;
+          const target = relative(ROOT, resolve(dirname(join(ROOT, file)), spec));
+          if (!target.startsWith('sim/dataset/')) continue;
+          const targetRoom = target.split('/').slice(0, 3).join('/');
+          if (targetRoom !== room && !allowed.includes(targetRoom)) violations.push(`${file} imports ${target}`);
+        }
+      }
+      expect(sourceFiles(room).length).toBeGreaterThan(0);
+      expect(violations).toEqual([]);
+    });
+  }
+
+  it(`every source file of sim/dataset lives in one of its rooms, each of fewer than ${MAX_FILES_PER_ROOM} files`, () => {
+    const loose = sourceFiles('sim/dataset').filter((file) => !Object.keys(DATASET_ROOMS).some((room) => file.startsWith(`${room}/`)));
+    expect(loose).toEqual([]);
+    for (const room of Object.keys(DATASET_ROOMS)) expect(sourceFiles(room).length, room).toBeLessThan(MAX_FILES_PER_ROOM);
+  });
+
+  it('one hashing path: only sim/dataset/formats/file-digest.ts calls createHash (files streamed, bytes, pieces)', () => {
+    const hashing = [...sourceFiles('sim'), ...sourceFiles('electron')].filter((file) => /\bcreateHash\s*\(/.test(readFileSync(join(ROOT, file), 'utf8')));
+    expect(hashing).toEqual(['sim/dataset/formats/file-digest.ts']);
+  });
+
+  it('has source files in the core folders (the check above is not vacuous)', () => {
+    expect(sourceFiles('sim/core').length).toBeGreaterThan(5);
+    expect(sourceFiles('sim/systems').length).toBeGreaterThan(3);
+    expect(sourceFiles('sim/errors').length).toBeGreaterThan(2);
+  });
 
   it('the sandboxed preload script imports only Electron and the bridge contract', () => {
     const imports = importsOf('electron/preload.ts').map((s) => (s.startsWith('.') ? targetOf('electron/preload.ts', s) : s));

@@ -9,9 +9,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import { decodeNpz, encodeNpz } from '../sim/dataset/npz.ts';
-import { sha256Hex } from '../sim/dataset/sha256.ts';
-import type { NamedArray } from '../sim/dataset/named-array.ts';
+import { decodeNpz, encodeNpz } from '../sim/dataset/formats/npz.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
+import type { NamedArray } from '../sim/dataset/formats/named-array.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -13,7 +13,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import type { EpisodeRecord } from '../sim/dataset/dataset-manifest.ts';
+import type { EpisodeRecord } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { episodesOfSplits, loadTrajectory, openDataset, type OpenDataset } from '../sim/identify/baselines/dataset-episodes.ts';
 import type { EpisodeTrajectory } from '../sim/identify/baselines/episode-trajectory.ts';
 import { buildGreyBoxDesign } from '../sim/identify/baselines/grey-box-design.ts';

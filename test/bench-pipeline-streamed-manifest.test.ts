@@ -1,5 +1,5 @@
 // manifest.json is written member by member so that a large sweep's manifest never sits in
-// memory (sim/dataset/streamed-json.ts), yet its text must stay exactly what
+// memory (sim/dataset/formats/streamed-json.ts), yet its text must stay exactly what
 // JSON.stringify(manifest, null, 2) gives (ECMA-262 §25.5.2, the engine's own implementation is
 // the reference), so that datasets written before and after are the same bytes. Checked on
 // values that exercise the layout rules (empty lists, members JSON leaves out, nesting, text that
@@ -9,7 +9,7 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { StreamedList, writeStreamedJson } from '../sim/dataset/streamed-json.ts';
+import { StreamedList, writeStreamedJson } from '../sim/dataset/formats/streamed-json.ts';
 import { runCli } from '../sim/cli/main.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -11,8 +11,8 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import { encodeNpyBytes } from '../sim/dataset/npy.ts';
-import { encodeNpz } from '../sim/dataset/npz.ts';
+import { encodeNpyBytes } from '../sim/dataset/formats/npy.ts';
+import { encodeNpz } from '../sim/dataset/formats/npz.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { cleanPositions } from './support/synthetic-measurement.ts';
 

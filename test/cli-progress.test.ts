@@ -4,7 +4,7 @@
 // per line (RFC 8259 text, parsed back with JSON.parse); nothing with --progress none.
 import { describe, expect, it } from 'vitest';
 import { ProgressDisplay } from '../sim/cli/progress-display.ts';
-import type { GenerationEvent } from '../sim/dataset/generation-progress.ts';
+import type { GenerationEvent } from '../sim/dataset/write/generation-progress.ts';
 
 function run(mode: 'bar' | 'json' | 'none', events: Array<[number, GenerationEvent]>): string {
   let now = 0;

@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
 

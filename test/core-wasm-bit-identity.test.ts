@@ -34,9 +34,9 @@ import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import { computeEpisodeOutcome } from '../sim/dataset/episode-outcome.ts';
-import { ReplayTable } from '../sim/dataset/replay-inputs.ts';
-import { sha256Hex } from '../sim/dataset/sha256.ts';
+import { computeEpisodeOutcome } from '../sim/dataset/write/episode-outcome.ts';
+import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 

@@ -17,7 +17,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -20,12 +20,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { generateDataset } from '../sim/dataset/generate-dataset.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
-import { MANIFEST_SCHEMA } from '../sim/dataset/manifest-schema.ts';
-import { produceEpisode } from '../sim/dataset/episode-product.ts';
-import { ReplayTable } from '../sim/dataset/replay-inputs.ts';
-import { sha256Hex } from '../sim/dataset/sha256.ts';
+import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
+import { MANIFEST_SCHEMA } from '../sim/dataset/manifest/manifest-schema.ts';
+import { produceEpisode } from '../sim/dataset/write/episode-product.ts';
+import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -10,8 +10,8 @@ import { closeSync, ftruncateSync, mkdirSync, mkdtempSync, openSync, rmSync, wri
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { digestFile } from '../sim/dataset/file-digest.ts';
-import { checkFileRecord } from '../sim/dataset/verify-dataset.ts';
+import { digestFile } from '../sim/dataset/formats/file-digest.ts';
+import { checkFileRecord } from '../sim/dataset/read/verify-dataset.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability } from './support/reference-python.ts';
 
 const work = mkdtempSync(join(tmpdir(), 'pliant-digest-'));

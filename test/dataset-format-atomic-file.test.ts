@@ -9,8 +9,8 @@ import { chmodSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, 
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { isTemporaryName, writeFileAtomic, writeFileAtomicVia, type AtomicFileSystem } from '../sim/dataset/atomic-file.ts';
-import { DatasetWriteError } from '../sim/dataset/dataset-write-error.ts';
+import { isTemporaryName, writeFileAtomic, writeFileAtomicVia, type AtomicFileSystem } from '../sim/dataset/formats/atomic-file.ts';
+import { DatasetWriteError } from '../sim/dataset/formats/dataset-write-error.ts';
 
 const root = mkdtempSync(join(tmpdir(), 'pliant-atomic-'));
 afterAll(() => {
@@ -197,7 +197,7 @@ describe('folders that cannot be written', () => {
       chmodSync(root, 0o755);
       const script = join(root, 'unprivileged-write.mjs');
       writeFileSync(script, `
-import { writeFileAtomic } from ${JSON.stringify(join(REPO, 'sim/dataset/atomic-file.ts'))};
+import { writeFileAtomic } from ${JSON.stringify(join(REPO, 'sim/dataset/formats/atomic-file.ts'))};
 try { writeFileAtomic(process.argv[2], new Uint8Array(8)); console.log(JSON.stringify({ written: true })); }
 catch (error) { console.log(JSON.stringify({ name: error.name, message: error.message })); }
 `);

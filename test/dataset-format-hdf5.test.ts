@@ -7,11 +7,11 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSy
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { DatasetWriteError } from '../sim/dataset/dataset-write-error.ts';
-import { HDF5_FIXED_TIME_S, encodeHdf5, fillHdf5File, writeHdf5File, type Hdf5Content } from '../sim/dataset/hdf5-writer.ts';
-import { loadHdf5Library } from '../sim/dataset/hdf5-runtime.ts';
-import { namedArray, type NamedArray } from '../sim/dataset/named-array.ts';
-import { NPY_DESCR } from '../sim/dataset/npy.ts';
+import { DatasetWriteError } from '../sim/dataset/formats/dataset-write-error.ts';
+import { HDF5_FIXED_TIME_S, encodeHdf5, fillHdf5File, writeHdf5File, type Hdf5Content } from '../sim/dataset/formats/hdf5-writer.ts';
+import { loadHdf5Library } from '../sim/dataset/formats/hdf5-runtime.ts';
+import { namedArray, type NamedArray } from '../sim/dataset/formats/named-array.ts';
+import { NPY_DESCR } from '../sim/dataset/formats/npy.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();
@@ -61,9 +61,9 @@ function contentAsJson(content: Hdf5Content): string {
 
 const CHILD_SCRIPT = `
 import { readFileSync } from 'node:fs';
-import { HDF5_FIXED_TIME_S, fillHdf5File, writeHdf5File } from ${JSON.stringify(join(REPO, 'sim/dataset/hdf5-writer.ts'))};
-import { loadHdf5Library } from ${JSON.stringify(join(REPO, 'sim/dataset/hdf5-runtime.ts'))};
-import { DatasetWriteError } from ${JSON.stringify(join(REPO, 'sim/dataset/dataset-write-error.ts'))};
+import { HDF5_FIXED_TIME_S, fillHdf5File, writeHdf5File } from ${JSON.stringify(join(REPO, 'sim/dataset/formats/hdf5-writer.ts'))};
+import { loadHdf5Library } from ${JSON.stringify(join(REPO, 'sim/dataset/formats/hdf5-runtime.ts'))};
+import { DatasetWriteError } from ${JSON.stringify(join(REPO, 'sim/dataset/formats/dataset-write-error.ts'))};
 const [mode, contentPath, target] = process.argv.slice(2);
 const TYPED = { float32: Float32Array, float64: Float64Array, int32: Int32Array, uint32: Uint32Array,
   int16: Int16Array, uint16: Uint16Array, int8: Int8Array, uint8: Uint8Array };

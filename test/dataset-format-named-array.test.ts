@@ -8,7 +8,7 @@ import {
   toFloat32,
   withFloatPrecision,
   type NamedArray,
-} from '../sim/dataset/named-array.ts';
+} from '../sim/dataset/formats/named-array.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

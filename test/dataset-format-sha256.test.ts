@@ -1,11 +1,10 @@
-// SHA-256 of buffers and files: known-answer vectors from FIPS 180-2 and the file digest
-// compared with Debian Python's hashlib.
+// SHA-256 of buffers and files through the one hashing module (file-digest.ts): known-answer
+// vectors from FIPS 180-2 and the streamed file digest compared with Debian Python's hashlib.
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { DatasetReadError } from '../sim/dataset/dataset-read-error.ts';
-import { sha256FileHex, sha256Hex } from '../sim/dataset/sha256.ts';
+import { digestFile, sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();
@@ -34,15 +33,15 @@ describe('SHA-256 known answers (FIPS 180-2, Appendix B; digests from memory)', 
     expect(sha256Hex(new Uint8Array(0))).toBe('e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855');
   });
 
-  it('B.1 as a file read through sha256FileHex', () => {
+  it('B.1 as a file streamed through digestFile', async () => {
     const path = join(folder, 'abc.txt');
     writeFileSync(path, 'abc');
-    expect(sha256FileHex(path)).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
+    expect(await digestFile(path)).toEqual({ kind: 'hashed', sha256: 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad', sizeBytes: 3 });
   });
 });
 
 describe.runIf(python.available)('file digests against Debian Python hashlib.sha256', () => {
-  it('a file longer than the 1 MiB read buffer (3 MiB + 17 bytes) hashes as hashlib does', () => {
+  it('a file longer than the 1 MiB read buffer (3 MiB + 17 bytes) hashes as hashlib does', async () => {
     const bytes = new Uint8Array(3 * (1 << 20) + 17);
     // A fixed byte pattern (a 32-bit LCG, Numerical Recipes constants) so the file has no repeating blocks.
     let state = 12345;
@@ -56,15 +55,14 @@ describe.runIf(python.available)('file digests against Debian Python hashlib.sha
       'import hashlib, json, sys; p = json.load(sys.stdin); print(json.dumps(hashlib.sha256(open(p, "rb").read()).hexdigest()))',
       path,
     );
-    expect(sha256FileHex(path)).toBe(reference);
+    expect(await digestFile(path)).toEqual({ kind: 'hashed', sha256: reference, sizeBytes: bytes.length });
     expect(sha256Hex(bytes)).toBe(reference);
   });
 });
 
 describe('unreadable files (common practice, no source)', () => {
-  it('a missing file gives a DatasetReadError naming it', () => {
-    const path = join(folder, 'no-such-file.npz');
-    expect(() => sha256FileHex(path)).toThrow(DatasetReadError);
-    expect(() => sha256FileHex(path)).toThrow(`${path}: cannot open the file (ENOENT); check that it exists and is readable`);
+  it('a missing file is "missing", a folder in its place "unreadable" (EISDIR), never a hash', async () => {
+    expect(await digestFile(join(folder, 'no-such-file.npz'))).toEqual({ kind: 'missing' });
+    expect(await digestFile(folder)).toEqual({ kind: 'unreadable', reason: 'EISDIR' });
   });
 });

@@ -11,9 +11,9 @@ import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import { runDatasetJob } from '../sim/dataset/dataset-job.ts';
-import type { DatasetJob, DatasetJobMessage } from '../sim/dataset/dataset-job.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
+import type { DatasetJob, DatasetJobMessage } from '../sim/dataset/jobs/dataset-job.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const work = mkdtempSync(join(tmpdir(), 'pliant-job-'));
@@ -99,7 +99,7 @@ describe('dataset jobs for the app', () => {
   it('runs in a worker thread started the way the shells start job workers', async () => {
     const dir = join(work, 'threaded');
     const spec: DatasetJob = { kind: 'export', scenarioText: scenarioText(), outDir: dir, format: 'hdf5', workers: 1, resume: false };
-    const worker = new Worker(new URL('../sim/dataset/dataset-job-worker-entry.mjs', import.meta.url), { workerData: { jobId: 'job-1', spec } });
+    const worker = new Worker(new URL('../sim/dataset/jobs/dataset-job-worker-entry.mjs', import.meta.url), { workerData: { jobId: 'job-1', spec } });
     const messages: DatasetJobMessage[] = [];
     const exitCode = await new Promise<number>((done, fail) => {
       worker.on('message', (m: DatasetJobMessage) => messages.push(m));

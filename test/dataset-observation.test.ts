@@ -25,10 +25,10 @@ import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
-import { generateDataset } from '../sim/dataset/generate-dataset.ts';
+import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
 import { observeTrajectory } from '../sim/episode/observe-trajectory.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -1,4 +1,4 @@
-// The Python loader shipped with Pliant (sim/dataset/python/pliant_data.py), checked against
+// The Python loader shipped with Pliant (sim/dataset/card/python/pliant_data.py), checked against
 // Debian's NumPy, h5py and PyTorch under /usr/bin/python3 on two generated Korrin Bay datasets:
 // a tether sweep whose part count varies (so node counts differ within a split), written as NPZ
 // and HDF5, and a fin lattice sweep written as HDF5 only. Each check names its reference:
@@ -12,13 +12,13 @@ import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { generateDataset } from '../sim/dataset/generate-dataset.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { runCli } from '../sim/cli/main.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability, referenceTorchAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
-const LOADER_DIR = join(ROOT, 'sim', 'dataset', 'python');
+const LOADER_DIR = join(ROOT, 'sim', 'dataset', 'card', 'python');
 const python = referencePythonAvailability();
 const torch = python.available ? referenceTorchAvailability() : python;
 const work = mkdtempSync(join(tmpdir(), 'pliant-loader-'));

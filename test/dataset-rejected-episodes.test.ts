@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -10,8 +10,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
-import { rejectedRangeLines } from '../sim/dataset/rejection-limit.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
+import { rejectedRangeLines } from '../sim/dataset/write/rejection-limit.ts';
 
 const work = mkdtempSync(join(tmpdir(), 'pliant-rejection-limit-'));
 

@@ -16,7 +16,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const LAUNCHER = join(ROOT, 'sim/cli/pliant-launcher.mjs');

@@ -1,5 +1,5 @@
 // What a resumed run reads back from its work folder is checked for shape before it is trusted
-// (sim/dataset/completion-check.ts): a completion record whose file entry points outside the
+// (sim/dataset/manifest/completion-check.ts): a completion record whose file entry points outside the
 // episode's own names is not trusted (the episode is computed again, and the finished folder
 // equals an uninterrupted run's, compared by SHA-256 against the reference `pliant generate`
 // wrote), and a run plan of the wrong shape stops the resume with a message naming plan.json and
@@ -10,10 +10,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../sim/cli/main.ts';
-import { completionProblem } from '../sim/dataset/completion-check.ts';
-import { runDatasetJob } from '../sim/dataset/dataset-job.ts';
-import type { DatasetJobMessage } from '../sim/dataset/dataset-job.ts';
-import type { DatasetManifest } from '../sim/dataset/dataset-manifest.ts';
+import { completionProblem } from '../sim/dataset/manifest/completion-check.ts';
+import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
+import type { DatasetJobMessage } from '../sim/dataset/jobs/dataset-job.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { cutDownScenario } from './support/app-flow-session.ts';
 
 const work = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-resume-records-')));

@@ -27,7 +27,7 @@ const { dir } = workerData;
 appendFileSync(${JSON.stringify(journal)}, 'start ' + dir + '\\n');
 setTimeout(() => {
   appendFileSync(${JSON.stringify(journal)}, 'end ' + dir + '\\n');
-  if (dir.endsWith('not-a-dataset')) parentPort.postMessage({ type: 'failed', name: 'DatasetRequestError', message: dir + ' is not a readable Pliant dataset: manifest.json is missing' });
+  if (dir.endsWith('not-a-dataset')) parentPort.postMessage({ type: 'failed', error: { kind: 'user', errorCode: 'dataset-request', message: dir + ' is not a readable Pliant dataset: manifest.json is missing' } });
   else parentPort.postMessage({ type: 'report', report: { ok: true, checkedFiles: dir.length, problems: [] } });
 }, 500);
 `,

@@ -26,7 +26,7 @@ import { parameterStream } from '../sim/scenario/parameter-streams.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { scenarioForEpisode } from '../sim/scenario/linked-parameters.ts';
 import { EpisodeDraws } from '../sim/scenario/episode-draws.ts';
-import { makeSeedFile, parseSeedFile, renderSeedFile } from '../sim/dataset/seed-file.ts';
+import { makeSeedFile, parseSeedFile, renderSeedFile } from '../sim/dataset/manifest/seed-file.ts';
 import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { runCli } from '../sim/cli/main.ts';

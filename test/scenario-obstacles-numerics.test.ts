@@ -6,8 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { produceEpisode } from '../sim/dataset/episode-product.ts';
-import { ReplayTable } from '../sim/dataset/replay-inputs.ts';
+import { produceEpisode } from '../sim/dataset/write/episode-product.ts';
+import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
 import { FLOW_COLUMNS } from '../sim/core/energy-flows.ts';
 import { ENERGY_TERMS } from '../sim/core/energy.ts';
 

@@ -12,7 +12,7 @@ import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import type { Model } from '../sim/core/model.ts';
-import { unitOfLabel } from '../sim/dataset/label-units.ts';
+import { unitOfLabel } from '../sim/dataset/manifest/label-units.ts';
 
 type Json = Record<string, unknown>;
 

@@ -1,7 +1,7 @@
 // Turns one exported episode's arrays (dataset.episodeArrays) into what the 3-D view plays: the
 // topology from the graph arrays (edges, rest lengths, node features, cells) and the frames from
 // positions, time, energies and controls. Array names and layouts are those of the dataset's
-// episode catalogue (sim/dataset/episode-array-catalogue.ts).
+// episode catalogue (sim/dataset/manifest/episode-array-catalogue.ts).
 import type { EpisodeArrays } from '../../sim/bridge/bridge-contract.ts';
 import { decodeArray } from '../bridge/decode-array.ts';
 import type { DecodedArray } from '../bridge/decode-array.ts';

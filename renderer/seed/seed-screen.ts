@@ -168,8 +168,11 @@ export class SeedScreen implements Screen {
 const RESULT_WORDS: Record<FileComparisonResult, string> = {
   identical: 'identical, byte for byte',
   different: 'different from the original',
-  missing: 'missing from the regenerated folder',
-  extra: 'only in the regenerated folder',
+  'missing in original': 'missing from the original folder',
+  'missing in regenerated': 'missing from the regenerated folder',
+  'unreadable in original': 'cannot be read in the original folder',
+  'unreadable in regenerated': 'cannot be read in the regenerated folder',
+  'only in regenerated': 'only in the regenerated folder',
 };
 
 /** The folder a file path lies in, with either separator (the renderer has no path module). */

@@ -14,8 +14,8 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { generateDataset } from '../dataset/generate-dataset.ts';
-import { loadHdf5Library } from '../dataset/hdf5-runtime.ts';
+import { generateDataset } from '../dataset/write/generate-dataset.ts';
+import { loadHdf5Library } from '../dataset/formats/hdf5-runtime.ts';
 import { withOverrides } from '../scenario/scenario-overrides.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';

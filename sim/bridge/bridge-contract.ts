@@ -247,12 +247,21 @@ export interface EpisodeArrays {
   controlChannels: ControlChannelDescription[];
 }
 
-export type FileComparisonResult = 'identical' | 'different' | 'missing' | 'extra';
+/** The words of the one folder comparison (sim/dataset/read/dataset-comparison.ts), restated here. */
+export type FileComparisonResult =
+  | 'identical'
+  | 'different'
+  | 'missing in original'
+  | 'missing in regenerated'
+  | 'unreadable in original'
+  | 'unreadable in regenerated'
+  | 'only in regenerated';
 
 export interface DatasetComparison {
   /**
-   * Every file the original's manifest lists, then manifest.json (compared without its `run`
-   * member, which differs between runs), then files only the regenerated folder has ('extra').
+   * Every file the original's manifest lists, then those only the regenerated manifest lists,
+   * then manifest.json (compared without its `run` member, which differs between runs), then
+   * files only the regenerated folder has ('only in regenerated').
    */
   comparisons: { file: string; result: FileComparisonResult }[];
 }

@@ -9,9 +9,7 @@ import { CliUsageError } from './command.ts';
 import { choiceOption, parseArguments, wholeNumberOption, type ParsedArguments } from './command-arguments.ts';
 import { asCliFailure } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
-import { DatasetNotFoundError } from '../dataset/dataset-not-found-error.ts';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
-import { BaselineInputError } from '../identify/baselines/baseline-input-error.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { BASELINE_MODEL_NAMES, type BaselineModel } from '../identify/baselines/baseline-model.ts';
 import { readBaselineModel, writeBaselineModel } from '../identify/baselines/baseline-model-file.ts';
 import { baselineModelHead, fitBaseline } from '../identify/baselines/baseline-fit.ts';
@@ -56,16 +54,11 @@ function splitList(text: string | undefined, fallback: string[]): string[] {
   return [...new Set(splits)];
 }
 
-function failure(error: unknown): unknown {
-  if (error instanceof BaselineInputError || error instanceof DatasetNotFoundError) return new CliUsageError(error.message, 2);
-  return asCliFailure(error);
-}
-
 async function guarded<T>(body: () => Promise<T>): Promise<T> {
   try {
     return await body();
   } catch (error) {
-    throw failure(error);
+    throw asCliFailure(error);
   }
 }
 

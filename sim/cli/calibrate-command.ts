@@ -4,9 +4,8 @@
 import { mkdirSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { calibrate } from '../identify/calibration/calibrate.ts';
-import { CalibrationInputError } from '../identify/calibration/calibration-input-error.ts';
 import { calibrationJson, calibrationMarkdown, RESIDUAL_PLOT_FILE, residualPlot } from '../identify/calibration/calibration-report.ts';
 import { DEFAULT_RANGE_STANDARD_ERRORS, fittedScenario } from '../identify/calibration/fitted-scenario.ts';
 import { readMeasurement } from '../identify/calibration/read-measurement.ts';
@@ -59,15 +58,8 @@ export const calibrateCommand: CliCommand = {
     const loaded = load.loaded;
     const written: unknown = JSON.parse(await readFile(loaded.absolutePath, 'utf8'));
     return reportingScenarioProblems(io, loaded, async () => {
-      let measurement;
-      let result;
-      try {
-        measurement = await readMeasurement(measurementPath, io.cwd);
-        result = calibrate(loaded.scenario, measurement, { fitPointers });
-      } catch (error) {
-        if (error instanceof CalibrationInputError) throw new CliUsageError(error.message);
-        throw error;
-      }
+      const measurement = await readMeasurement(measurementPath, io.cwd);
+      const result = calibrate(loaded.scenario, measurement, { fitPointers });
       const outPath = resolve(io.cwd, out);
       const reportDir = resolve(io.cwd, parsed.values.get('--report') ?? join(dirname(out), `${basename(out, '.json')}-report`));
       const fitted = fittedScenario(written, result, k, measurementPath);

@@ -1,5 +1,7 @@
 // The shape of one `pliant` sub-command: its name, one-line summary, usage text and runner.
-// Runners return the process exit code; user mistakes are reported through CliUsageError.
+// Runners return the process exit code; user mistakes are reported through CliUsageError, other
+// expected failures through their own PliantError, and main.ts turns each kind into an exit code.
+import { PliantError } from '../errors/pliant-error.ts';
 
 export interface CliIo {
   stdout: (text: string) => void;
@@ -17,10 +19,14 @@ export interface CliCommand {
   run(args: string[], io: CliIo): Promise<number>;
 }
 
-/** A mistake by the user (bad flag, bad file): printed as a message, never as a stack trace. */
-export class CliUsageError extends Error {
-  constructor(message: string, readonly exitCode = 2) {
-    super(message);
+/**
+ * A mistake by the user (bad flag, bad file): printed as a message, never as a stack trace, exit
+ * code 2. Only for the person's mistakes: a full disk or a refused permission is the machine's
+ * state and keeps its own environment-kind error (exit code 1).
+ */
+export class CliUsageError extends PliantError {
+  constructor(message: string) {
+    super('user', 'usage', message);
     this.name = 'CliUsageError';
   }
 }

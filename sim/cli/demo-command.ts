@@ -13,7 +13,7 @@ import { ProgressDisplay } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { generateDataset } from '../dataset/generate-dataset.ts';
+import { generateDataset } from '../dataset/write/generate-dataset.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 
 const DEMO_SCENARIOS = fileURLToPath(new URL('../../scenarios/', import.meta.url));

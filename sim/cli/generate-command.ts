@@ -11,12 +11,12 @@ import { ProgressDisplay } from './progress-display.ts';
 import type { ProgressMode } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { generateDataset } from '../dataset/generate-dataset.ts';
-import type { GenerateResult } from '../dataset/generate-dataset.ts';
-import { SHARD_COUNT_VARIABLE } from '../dataset/shard-plan.ts';
-import type { ShardPlan } from '../dataset/shard-plan.ts';
+import { generateDataset } from '../dataset/write/generate-dataset.ts';
+import type { GenerateResult } from '../dataset/write/generate-dataset.ts';
+import { SHARD_COUNT_VARIABLE } from '../dataset/write/shard-plan.ts';
+import type { ShardPlan } from '../dataset/write/shard-plan.ts';
 import { withOverrides } from '../scenario/scenario-overrides.ts';
-import { CARD_FILE } from '../dataset/dataset-files.ts';
+import { CARD_FILE } from '../dataset/manifest/dataset-files.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
 
 export const generateCommand: CliCommand = {

@@ -7,8 +7,8 @@ import { CliUsageError } from './command.ts';
 import { choiceOption, wholeNumberOption } from './command-arguments.ts';
 import type { ParsedArguments } from './command-arguments.ts';
 import type { ProgressMode } from './progress-display.ts';
-import { parseShard, shardFromEnvironment } from '../dataset/shard-plan.ts';
-import type { ShardPlan } from '../dataset/shard-plan.ts';
+import { parseShard, shardFromEnvironment } from '../dataset/write/shard-plan.ts';
+import type { ShardPlan } from '../dataset/write/shard-plan.ts';
 import { MAX_EPISODES } from '../scenario/scenario-limits.ts';
 
 export const PROGRESS_MODES: readonly ProgressMode[] = ['bar', 'json', 'none'];

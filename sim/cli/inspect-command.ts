@@ -5,7 +5,7 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { inspectDataset } from '../dataset/inspect-dataset.ts';
+import { inspectDataset } from '../dataset/read/inspect-dataset.ts';
 
 /** Version of the --json document; raised when a member changes meaning or goes away. */
 export const INSPECT_JSON_FORMAT = 1;

@@ -6,8 +6,8 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
-import { PYTHON_LOADER_FILE_NAME, pythonLoaderSource } from '../dataset/python-loader-source.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
+import { PYTHON_LOADER_FILE_NAME, pythonLoaderSource } from '../dataset/card/python-loader-source.ts';
 
 export const loaderCommand: CliCommand = {
   name: 'loader',

@@ -1,7 +1,8 @@
-// The `pliant` command line: dispatches to sub-commands, prints help, and turns user mistakes
-// into plain messages with exit code 2 (a stack trace only for genuine internal errors).
+// The `pliant` command line: dispatches to sub-commands, prints help, and turns whatever a
+// command throws into a message and exit code by its kind (exit-codes.ts): 2 for user mistakes,
+// 1 for the machine's refusals, 70 and a stack trace only for genuine internal errors.
 import { COMMANDS } from './commands.ts';
-import { CliUsageError } from './command.ts';
+import { cliFailureOf } from './exit-codes.ts';
 import type { CliIo } from './command.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { didYouMean } from './closest-name.ts';
@@ -82,10 +83,8 @@ export async function runCli(argv: string[], io: CliIo = defaultIo()): Promise<n
   try {
     return await command.run(rest, io);
   } catch (error) {
-    if (error instanceof CliUsageError) {
-      io.stderr(`pliant ${command.name}: ${error.message}\n`);
-      return error.exitCode;
-    }
-    throw error;
+    const failure = cliFailureOf(error);
+    io.stderr(`pliant ${command.name}: ${failure.text}`);
+    return failure.exitCode;
   }
 }

@@ -7,7 +7,7 @@ import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { mergeShards } from '../dataset/merge-shards.ts';
+import { mergeShards } from '../dataset/write/merge-shards.ts';
 
 export const mergeCommand: CliCommand = {
   name: 'merge',

@@ -1,6 +1,6 @@
 // Shows a dataset run's progress: a one-line bar with episodes per second and time left on a
 // terminal, one JSON object per line for scripts (`--progress json`), or nothing.
-import type { GenerationEvent } from '../dataset/generation-progress.ts';
+import type { GenerationEvent } from '../dataset/write/generation-progress.ts';
 
 export type ProgressMode = 'bar' | 'json' | 'none';
 

@@ -7,8 +7,7 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments, wholeNumberOption } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
-import { DatasetNotFoundError } from '../dataset/dataset-not-found-error.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { renderEpisode, renderedGif, renderedPngs } from '../render/render-episode.ts';
 import type { PictureView } from '../render/episode-picture.ts';
 
@@ -69,14 +68,7 @@ export const renderCommand: CliCommand = {
     const frameStride = everyText === undefined ? 'auto' as const : wholeNumberOption('--every', everyText, 1, 1_000_000);
 
     const dir = resolve(io.cwd, parsed.positionals[0]);
-    const rendered = await withCliFailures('', async () => {
-      try {
-        return await renderEpisode(dir, episodeId, { view: viewText as PictureView, widthPx, heightPx, speed, frameStride });
-      } catch (error) {
-        if (error instanceof DatasetNotFoundError) throw new CliUsageError(error.message, 2);
-        throw error;
-      }
-    });
+    const rendered = await withCliFailures('', async () => renderEpisode(dir, episodeId, { view: viewText as PictureView, widthPx, heightPx, speed, frameStride }));
     if (out !== undefined) {
       const bytes = renderedGif(rendered, speed);
       await withCliFailures('', async () => writeFileAtomic(resolve(io.cwd, out), bytes));

@@ -9,7 +9,8 @@ import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { reproduceDataset, seedEditedWords } from '../dataset/reproduce-dataset.ts';
+import { reproduceDataset, seedEditedWords } from '../dataset/write/reproduce-dataset.ts';
+import { MANIFEST_FILE } from '../dataset/manifest/dataset-files.ts';
 
 export const reproduceCommand: CliCommand = {
   name: 'reproduce',
@@ -55,8 +56,10 @@ export const reproduceCommand: CliCommand = {
     }
     const seedEdited = report.seedFile.matches === false;
     if (seedEdited) io.stdout(`${seedEditedWords(report.seedFile)}\n`);
-    const width = Math.max(...report.comparisons.map((c) => c.path.length));
-    for (const c of report.comparisons) io.stdout(`${c.path.padEnd(width)}  ${c.result}\n`);
+    // The manifest is compared without its `run` member, which differs between runs by design.
+    const shown = report.comparisons.map((c) => ({ path: c.path === MANIFEST_FILE ? `${MANIFEST_FILE} (all but "run")` : c.path, result: c.result }));
+    const width = Math.max(...shown.map((c) => c.path.length));
+    for (const c of shown) io.stdout(`${c.path.padEnd(width)}  ${c.result}\n`);
     const different = report.comparisons.filter((c) => c.result !== 'identical').length;
     io.stdout(different === 0 ? `all ${report.comparisons.length} files identical\n` : `${different} of ${report.comparisons.length} files differ${seedEdited ? ' (the seed file was edited: see above)' : ''}\n`);
     return different === 0 ? 0 : 1;

@@ -1,6 +1,8 @@
 // Reads and checks a scenario file named on the command line. Problems come back in the one
 // wording the app also shows (file:line:column pointer: message), ready to print; problems found
 // later (a replay file that cannot be read) are placed in the same file the same way.
+import { PliantError } from '../errors/pliant-error.ts';
+import { systemErrorCode, systemErrorKind } from '../errors/system-error-kind.ts';
 import { dirname, resolve } from 'node:path';
 import { checkScenarioText } from '../scenario/check-scenario.ts';
 import { parseJsonText, placeProblems } from '../scenario/json-source-map.ts';
@@ -9,8 +11,8 @@ import { ScenarioProblemError, formatProblems } from '../scenario/scenario-probl
 import type { ScenarioProblem } from '../scenario/scenario-problem.ts';
 import type { CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
-import { MiB, readBoundedText } from '../dataset/bounded-text-file.ts';
-import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
+import { MiB, PATH_IS_FOLDER_CODE, readBoundedText } from '../dataset/formats/bounded-text-file.ts';
+import { DatasetRequestError } from '../dataset/formats/dataset-request-error.ts';
 
 /** Scenario files are short documents; replay arrays live in files of their own. */
 export const MAX_SCENARIO_FILE_BYTES = 16 * MiB;
@@ -33,9 +35,12 @@ export async function loadScenarioFile(path: string, cwd: string): Promise<Scena
   try {
     text = readBoundedText(absolutePath, MAX_SCENARIO_FILE_BYTES, `the scenario file ${path}`);
   } catch (error) {
-    if (error instanceof DatasetRequestError) throw new CliUsageError(`${error.message}${/folder/.test(error.message) ? ' (a scenario .json file)' : ''}`);
-    const code = (error as NodeJS.ErrnoException).code;
-    throw new CliUsageError(`cannot read the scenario file ${path}: ${code === 'ENOENT' ? 'it does not exist' : (error as Error).message}; check the path`);
+    if (error instanceof DatasetRequestError) throw new CliUsageError(`${error.message}${error.errorCode === PATH_IS_FOLDER_CODE ? ' (a scenario .json file)' : ''}`);
+    const code = systemErrorCode(error);
+    const message = `cannot read the scenario file ${path}: ${code === 'ENOENT' ? 'it does not exist' : (error as Error).message}; check the path`;
+    // No permission or a failing disk is the machine's state, not a usage mistake.
+    if (code !== undefined && systemErrorKind(code) === 'environment') throw new PliantError('environment', 'scenario-unreadable', message);
+    throw new CliUsageError(message);
   }
   const checked = checkScenarioText(text, path);
   if (!checked.ok) return { ok: false, report: formatProblems(checked.problems, path) };

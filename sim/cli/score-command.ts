@@ -8,8 +8,6 @@ import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { asCliFailure } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
-import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
-import { PredictionsError } from '../identify/predictions/predictions-error.ts';
 import { DEFAULT_HORIZONS, parseHorizons } from '../identify/score/horizons.ts';
 import { DEFAULT_VPT_THRESHOLD, scorePredictions } from '../identify/score/score-predictions.ts';
 import { REPORT_FILE, SCORE_FILE, writeScore } from '../identify/score/score-outputs.ts';
@@ -72,8 +70,6 @@ export const scoreCommand: CliCommand = {
       if (missing > 0) io.stdout(`${missing} episode${missing === 1 ? '' : 's'} had no prediction file and ${missing === 1 ? 'was' : 'were'} left out; ${REPORT_FILE} lists them\n`);
       return 0;
     } catch (error) {
-      if (error instanceof PredictionsError) throw new CliUsageError(error.message, 2);
-      if (error instanceof DatasetRequestError) throw new CliUsageError(error.message, 2);
       throw asCliFailure(error);
     }
   },

@@ -4,7 +4,7 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
-import { gatherInputs } from '../dataset/dataset-inputs.ts';
+import { gatherInputs } from '../dataset/write/dataset-inputs.ts';
 import { findThinLatticeWarnings } from '../scenario/thin-lattice-warnings.ts';
 
 export const validateCommand: CliCommand = {

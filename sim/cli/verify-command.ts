@@ -5,7 +5,7 @@ import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { verifyDataset } from '../dataset/verify-dataset.ts';
+import { verifyDataset } from '../dataset/read/verify-dataset.ts';
 
 export const verifyCommand: CliCommand = {
   name: 'verify',

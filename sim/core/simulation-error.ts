@@ -1,6 +1,7 @@
 // The typed error a run stops with when the numbers stop meaning anything: it says which
 // episode, step and node, what was seen, and the likely cause, so a sweep can list the episode
 // as rejected instead of writing garbage.
+import { PliantError } from '../errors/pliant-error.ts';
 
 export type BlowUpKind = 'non-finite' | 'over-stretch' | 'over-speed';
 
@@ -18,11 +19,11 @@ export interface BlowUpDetails {
   criticalDtS: number;
 }
 
-export class SimulationBlowUpError extends Error {
+export class SimulationBlowUpError extends PliantError {
   episode: number | undefined;
 
   constructor(readonly details: BlowUpDetails, episode?: number) {
-    super(describeBlowUp(details, episode));
+    super('user', 'simulation-blow-up', describeBlowUp(details, episode));
     this.name = 'SimulationBlowUpError';
     this.episode = episode;
   }

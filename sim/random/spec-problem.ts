@@ -1,5 +1,6 @@
 // One thing wrong with a value or control spec, located by JSON pointer so that the scenario
 // layer can turn it into "file:line:column" for the user; and the error that carries them.
+import { PliantError } from '../errors/pliant-error.ts';
 
 export interface SpecProblem {
   /** JSON pointer (RFC 6901) of the offending member, relative to the document root. */
@@ -11,11 +12,11 @@ export interface SpecProblem {
 }
 
 /** Thrown when a spec cannot be sampled; `problems` lists every reason found, not just the first. */
-export class SpecError extends Error {
+export class SpecError extends PliantError {
   readonly problems: SpecProblem[];
 
   constructor(problems: SpecProblem[]) {
-    super(problems.map((p) => `${p.pointer || '/'}: ${p.message}; ${p.fix}`).join('\n'));
+    super('user', 'spec-invalid', problems.map((p) => `${p.pointer || '/'}: ${p.message}; ${p.fix}`).join('\n'));
     this.name = 'SpecError';
     this.problems = problems;
   }

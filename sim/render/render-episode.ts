@@ -2,9 +2,9 @@
 // a numbered PNG sequence: for papers, reviews and a quick look without the app. The episode is
 // read as the app reads it (NPZ or HDF5 group, checked against the manifest), so a picture is
 // always of the data a model is trained on.
-import { DatasetReader } from '../dataset/dataset-reader.ts';
-import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
-import type { NamedArray } from '../dataset/named-array.ts';
+import { DatasetReader } from '../dataset/read/dataset-reader.ts';
+import { DatasetRequestError } from '../dataset/formats/dataset-request-error.ts';
+import type { NamedArray } from '../dataset/formats/named-array.ts';
 import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
 import { EpisodePicture, PICTURE_PALETTE } from './episode-picture.ts';
 import type { PictureView } from './episode-picture.ts';
@@ -28,7 +28,7 @@ export type FrameDrawnListener = (drawn: number, total: number) => void | Promis
 /** An episode lacks an array a picture needs; each caller words how to check the folder. */
 export class MissingPictureArrayError extends DatasetRequestError {
   constructor(readonly episodeId: string, readonly arrayName: string) {
-    super(`episode ${episodeId} has no "${arrayName}" array, which a picture needs; check the folder with \`pliant verify\``);
+    super(`episode ${episodeId} has no "${arrayName}" array, which a picture needs; check the folder with \`pliant verify\``, 'missing-picture-array');
   }
 }
 

@@ -5,14 +5,12 @@
 // app's words, never a stack trace or a command-line flag.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { writeFileAtomic } from '../dataset/atomic-file.ts';
-import { DatasetNotFoundError } from '../dataset/dataset-not-found-error.ts';
-import { DatasetReadError } from '../dataset/dataset-read-error.ts';
-import { DatasetRequestError } from '../dataset/dataset-request-error.ts';
-import { DatasetWriteError, toDatasetWriteError } from '../dataset/dataset-write-error.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
+import { toDatasetWriteError } from '../dataset/formats/dataset-write-error.ts';
+import { reportOf } from '../errors/error-report.ts';
 import type { PictureView } from './episode-picture.ts';
 import { MissingPictureArrayError, renderEpisode, renderedGif, renderedPngs } from './render-episode.ts';
-import type { JobMessage } from '../dataset/job-message.ts';
+import type { JobMessage } from '../dataset/jobs/job-message.ts';
 
 export interface RenderJob {
   kind: 'render';
@@ -99,8 +97,6 @@ function inAppWords(error: unknown, job: RenderJob): string | null {
   if (error instanceof MissingPictureArrayError) {
     return `Episode ${error.episodeId} has no "${error.arrayName}" array, which a picture needs. Check the dataset with "Verify checksums" on the Datasets screen.`;
   }
-  if (error instanceof DatasetNotFoundError || error instanceof DatasetRequestError || error instanceof DatasetReadError || error instanceof DatasetWriteError) {
-    return `Could not save episode ${job.episodeId}: ${error.message}`;
-  }
-  return null;
+  const report = reportOf(error);
+  return report.kind === 'bug' ? null : `Could not save episode ${job.episodeId}: ${report.message}`;
 }

@@ -1,5 +1,6 @@
 // One thing wrong with a scenario, located by JSON pointer and, when the scenario came from a
 // file, by line and column; and the one wording the command line and the app both show.
+import { PliantError } from '../errors/pliant-error.ts';
 
 export interface ScenarioProblem {
   /** JSON pointer (RFC 6901) of the offending value; "" for the whole document. */
@@ -13,11 +14,11 @@ export interface ScenarioProblem {
 }
 
 /** Thrown where a scenario turns out unusable after checking (overrides, replay files). */
-export class ScenarioProblemError extends Error {
+export class ScenarioProblemError extends PliantError {
   readonly problems: ScenarioProblem[];
 
   constructor(problems: ScenarioProblem[]) {
-    super(problems.map((p) => `${p.pointer || '/'}: ${p.message}`).join('\n'));
+    super('user', 'scenario-invalid', problems.map((p) => `${p.pointer || '/'}: ${p.message}`).join('\n'));
     this.name = 'ScenarioProblemError';
     this.problems = problems;
   }

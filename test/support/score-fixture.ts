@@ -5,9 +5,9 @@
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { runCli } from '../../sim/cli/main.ts';
-import type { DatasetManifest } from '../../sim/dataset/dataset-manifest.ts';
-import { namedArray } from '../../sim/dataset/named-array.ts';
-import { readNpzFile, writeNpzFile } from '../../sim/dataset/npz.ts';
+import type { DatasetManifest } from '../../sim/dataset/manifest/dataset-manifest.ts';
+import { namedArray } from '../../sim/dataset/formats/named-array.ts';
+import { readNpzFile, writeNpzFile } from '../../sim/dataset/formats/npz.ts';
 
 export function scoreScenario(): unknown {
   return {

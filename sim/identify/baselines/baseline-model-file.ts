@@ -3,10 +3,10 @@
 // words each failure with the file and JSON pointer.
 import Ajv2020 from 'ajv/dist/2020.js';
 import type { ValidateFunction } from 'ajv';
-import { writeFileAtomic } from '../../dataset/atomic-file.ts';
+import { writeFileAtomic } from '../../dataset/formats/atomic-file.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
-import { MiB, readBoundedText } from '../../dataset/bounded-text-file.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+import { MiB, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 
 /** Below V8's longest string (about 512 MiB), so an oversized file is refused, not a crash. */
 const MAX_MODEL_FILE_BYTES = 256 * MiB;

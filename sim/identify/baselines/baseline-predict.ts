@@ -2,7 +2,7 @@
 // episode of the chosen splits and writes the predictions folder. Every episode is checked to
 // have a fitted operator before anything is written; a rollout that leaves the finite numbers
 // stops the run naming the episode.
-import type { EpisodeRecord } from '../../dataset/dataset-manifest.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { preparePredictionsFolder, writePredictedEpisode, writePredictionsDescription } from '../predictions/predictions-folder-writer.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
 import type { BaselineModel, LinearGroup } from './baseline-model.ts';

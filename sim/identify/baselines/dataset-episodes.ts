@@ -2,9 +2,9 @@
 // splits asked for, and each episode's arrays as an EpisodeTrajectory. `episodesOfSplits` is
 // the one place that walks the manifest's episode list, so a streaming manifest reader can
 // replace it without touching the fits.
-import { readFolderState } from '../../dataset/dataset-folder-state.ts';
-import type { DatasetManifest, EpisodeRecord } from '../../dataset/dataset-manifest.ts';
-import { readEpisodeArrays } from '../../dataset/episode-array-reader.ts';
+import { readFolderState } from '../../dataset/manifest/dataset-folder-state.ts';
+import type { DatasetManifest, EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
+import { readEpisodeArrays } from '../../dataset/read/episode-array-reader.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
 import { trajectoryFromArrays, type EpisodeTrajectory } from './episode-trajectory.ts';
 

@@ -1,7 +1,7 @@
 // One recorded episode in the form the baselines compute with: every float array widened to
 // float64 and checked against the shapes the dataset layout promises (LAYOUT.md, "Arrays of an
 // episode"), so the fitting code never meets a wrong shape or a NaN half-way through a matrix.
-import type { NamedArray } from '../../dataset/named-array.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
 
 export interface EpisodeTrajectory {

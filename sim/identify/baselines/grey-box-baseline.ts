@@ -1,7 +1,7 @@
 // Grey-box identification over the chosen episodes of a dataset: one identification per
 // episode (every episode has its own sampled parameters), a summary of the relative errors per
 // parameter, and the reasons the estimates may not be trusted.
-import type { EpisodeRecord } from '../../dataset/dataset-manifest.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import type { GreyBoxModelPart, ParameterSummary } from './baseline-model.ts';
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
 import { identifyEpisode, type EpisodeIdentification } from './grey-box-identify.ts';

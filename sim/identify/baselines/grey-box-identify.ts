@@ -1,7 +1,7 @@
 // Grey-box identification of one episode: builds the regression of grey-box-design.ts, solves
 // it and sets each estimate beside the true value the dataset recorded (edge labels, the
 // episode's sampled labels and its scenario), with absolute and relative errors.
-import type { EpisodeRecord } from '../../dataset/dataset-manifest.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { RELATION_NAMES } from '../../core/model.ts';
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
 import { buildGreyBoxDesign, type GreyBoxColumn, type GreyBoxDesign } from './grey-box-design.ts';

@@ -1,6 +1,6 @@
 // The linear baseline over a dataset: episodes grouped by state size (node and channel count,
 // which fix the size of the operator), one operator fitted per group on its fit-split episodes.
-import type { EpisodeRecord } from '../../dataset/dataset-manifest.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import type { LinearGroup, LinearModelPart } from './baseline-model.ts';
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
 import { fitLinearOperator } from './linear-fit.ts';

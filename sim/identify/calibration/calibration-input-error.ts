@@ -2,10 +2,11 @@
 // pointer, a known value that does not fit the scenario): the message says what is wrong, where
 // (file:line, column name or JSON pointer) and how to fix it. The command line prints it
 // without a stack trace and exits with status 2.
+import { PliantError } from '../../errors/pliant-error.ts';
 
-export class CalibrationInputError extends Error {
+export class CalibrationInputError extends PliantError {
   constructor(message: string) {
-    super(message);
+    super('user', 'calibration-input', message);
     this.name = 'CalibrationInputError';
   }
 }

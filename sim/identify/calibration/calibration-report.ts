@@ -2,7 +2,7 @@
 // REPORT.md (the same for people, with the caution that simulated data is no hardware test)
 // and residual-over-time.svg (RMS marker error per frame at the start and at the fit).
 import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
-import { unitOfLabel } from '../../dataset/label-units.ts';
+import { unitOfLabel } from '../../dataset/manifest/label-units.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
 import { renderLineChart } from '../../plots/svg-line-chart.ts';
 import type { CalibrationResult } from './calibrate.ts';

@@ -3,15 +3,15 @@
 // (descriptor line:column and JSON pointer, CSV line and column name, NPZ member) with a fix.
 import { dirname, resolve } from 'node:path';
 import Ajv2020 from 'ajv/dist/2020.js';
-import { decodeNpy } from '../../dataset/npy.ts';
-import { decodeNpz } from '../../dataset/npz.ts';
-import type { NamedArray } from '../../dataset/named-array.ts';
+import { decodeNpy } from '../../dataset/formats/npy.ts';
+import { decodeNpz } from '../../dataset/formats/npz.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import { closestName } from '../../scenario/closest-name.ts';
 import { parseJsonText, placeProblems } from '../../scenario/json-source-map.ts';
 import { formatProblems } from '../../scenario/scenario-problem.ts';
 import { CalibrationInputError } from './calibration-input-error.ts';
-import { MiB, readBoundedBytes, readBoundedText } from '../../dataset/bounded-text-file.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+import { MiB, readBoundedBytes, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 
 /** A bench descriptor or CSV table: far below V8's longest string. */
 const MAX_MEASUREMENT_TEXT_BYTES = 256 * MiB;

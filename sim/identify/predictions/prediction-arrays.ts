@@ -3,9 +3,9 @@
 // float64, every value finite (other arrays in the file are ignored). Anything else is refused with the file, the array and the first
 // offending element named, so a team can find the bug in its own export.
 import { readFileSync } from 'node:fs';
-import { DatasetReadError } from '../../dataset/dataset-read-error.ts';
-import type { NamedArray } from '../../dataset/named-array.ts';
-import { decodeNpz } from '../../dataset/npz.ts';
+import { DatasetReadError } from '../../dataset/formats/dataset-read-error.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
+import { decodeNpz } from '../../dataset/formats/npz.ts';
 import { PredictionsError } from './predictions-error.ts';
 
 export type FloatData = Float32Array | Float64Array;

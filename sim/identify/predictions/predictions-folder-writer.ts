@@ -4,10 +4,10 @@
 // written last, so a folder without it is unfinished. NPZ bytes are deterministic (npz.ts).
 import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { writeFileAtomic } from '../../dataset/atomic-file.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
-import { namedArray } from '../../dataset/named-array.ts';
-import { writeNpzFile } from '../../dataset/npz.ts';
+import { writeFileAtomic } from '../../dataset/formats/atomic-file.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import { namedArray } from '../../dataset/formats/named-array.ts';
+import { writeNpzFile } from '../../dataset/formats/npz.ts';
 
 export const PREDICTIONS_FILE = 'predictions.json';
 export const PREDICTIONS_FORMAT = 1;

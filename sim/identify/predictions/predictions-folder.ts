@@ -4,8 +4,8 @@
 import { readdirSync, statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { PredictionsError } from './predictions-error.ts';
-import { MiB, readBoundedText } from '../../dataset/bounded-text-file.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+import { MiB, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 
 export const PREDICTIONS_FORMAT_VERSION = 1;
 export const PREDICTIONS_DESCRIPTION_FILE = 'predictions.json';

@@ -4,13 +4,13 @@
 // the metrics.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { MANIFEST_FILE } from '../../dataset/dataset-files.ts';
-import { readFolderState } from '../../dataset/dataset-folder-state.ts';
-import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../../dataset/dataset-manifest.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
-import { readEpisodeArrays } from '../../dataset/episode-array-reader.ts';
-import type { NamedArray } from '../../dataset/named-array.ts';
-import { sha256Hex } from '../../dataset/sha256.ts';
+import { MANIFEST_FILE } from '../../dataset/manifest/dataset-files.ts';
+import { readFolderState } from '../../dataset/manifest/dataset-folder-state.ts';
+import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import { readEpisodeArrays } from '../../dataset/read/episode-array-reader.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
+import { sha256Hex } from '../../dataset/formats/file-digest.ts';
 
 export interface ScoredDataset {
   dir: string;

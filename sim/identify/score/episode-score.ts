@@ -1,9 +1,9 @@
 // Scores one episode: its recorded arrays against its prediction. Fills the per-step error
 // curves (reused buffers, so scoring allocates nothing per step) and returns the compact row
 // score.json keeps for the episode. Formulas and sources: SCORING.md.
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
-import type { EpisodeRecord } from '../../dataset/dataset-manifest.ts';
-import type { NamedArray } from '../../dataset/named-array.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import type { FloatData, PredictionArrays } from '../predictions/prediction-arrays.ts';
 import { horizonSteps, type HorizonSpec } from './horizons.ts';
 import { initialRmsRadiusM } from './length-scale.ts';

@@ -1,6 +1,6 @@
 // Horizons at which errors are reported, as the user writes them: whole steps ("10") or seconds
 // ("0.5s"), turned into steps per episode with its record interval (rounded to the nearest step).
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 
 export interface HorizonSpec {
   /** As written, e.g. "10" or "0.5s"; the key in score.json. */

@@ -2,14 +2,10 @@
 // same report files as `pliant score`) and reports progress as the job runner's messages
 // (electron/job-worker-protocol.ts). Expected failures — a predictions folder that does not fit
 // the dataset, a damaged file — end the job with their message, never a stack trace.
-import { DatasetNotFoundError } from '../../dataset/dataset-not-found-error.ts';
-import { DatasetReadError } from '../../dataset/dataset-read-error.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
-import { DatasetWriteError } from '../../dataset/dataset-write-error.ts';
-import { PredictionsError } from '../predictions/predictions-error.ts';
+import { reportOf } from '../../errors/error-report.ts';
 import { writeScore } from './score-outputs.ts';
 import { DEFAULT_VPT_THRESHOLD, scorePredictions } from './score-predictions.ts';
-import type { JobMessage } from '../../dataset/job-message.ts';
+import type { JobMessage } from '../../dataset/jobs/job-message.ts';
 
 export interface ScoreJob {
   kind: 'score';
@@ -57,10 +53,8 @@ export async function runScoreJob(job: ScoreJob, post: (message: ScoreJobMessage
       post({ type: 'cancelled', done, total });
       return;
     }
-    if (error instanceof PredictionsError || error instanceof DatasetRequestError || error instanceof DatasetReadError || error instanceof DatasetWriteError || error instanceof DatasetNotFoundError) {
-      post({ type: 'failed', message: error.message });
-      return;
-    }
-    throw error;
+    const report = reportOf(error);
+    if (report.kind === 'bug') throw error;
+    post({ type: 'failed', message: report.message });
   }
 }

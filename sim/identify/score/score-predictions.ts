@@ -3,8 +3,8 @@
 // and its prediction are dropped after scoring) into per-split running sums, and assembles the
 // score document. Nothing is written here; see score-outputs.ts.
 import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
-import { DatasetRequestError } from '../../dataset/dataset-request-error.ts';
-import { unitOfLabel } from '../../dataset/label-units.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import { unitOfLabel } from '../../dataset/manifest/label-units.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
 import { readPredictionArrays } from '../predictions/prediction-arrays.ts';
 import { PredictionsError } from '../predictions/predictions-error.ts';

@@ -1,8 +1,0 @@
-// The messages between the episode pool and its worker threads.
-import type { EpisodeOutcome } from './episode-outcome.ts';
-
-export type ToEpisodeWorker = { type: 'episode'; index: number } | { type: 'stop' };
-
-export type FromEpisodeWorker =
-  | { type: 'outcome'; index: number; outcome: EpisodeOutcome }
-  | { type: 'failed'; index: number; message: string; buildError: boolean };
