@@ -17,6 +17,9 @@ export const APP_RUN_WORDS: RunWords = {
   'other-out': 'choose another dataset folder name',
   'resume-or-replace': `tick ${RESUME_BOX} to finish the export that started there, or choose another dataset folder name`,
   workers: 'worker threads',
+  'finish-unfinished': `finish it on the Export screen with ${RESUME_BOX} ticked`,
+  'verify-folder': 'press "Verify checksums" on the Datasets screen',
+  'reproduce-seed': 'regenerate the folder from its seed file on the Seed file screen',
   'same-shard': 'finish it with `pliant generate … --resume` and the --shard it was started with, which the app does not split',
 };
 

@@ -1,6 +1,7 @@
 // The DatasetReader seam filled with the dataset pipeline's reader (sim/dataset/read/dataset-reader.ts):
 // summaries and episode pages from the manifest, one episode's arrays from its NPZ file or HDF5
 // group, and verification by the same code as `pliant verify`, run in a worker thread.
+import { inAppWords } from './app-run-words.ts';
 import { stat } from 'node:fs/promises';
 import { compareDatasetFolders } from '../sim/dataset/read/dataset-comparison.ts';
 import { readDatasetOverview } from '../sim/dataset/read/dataset-overview.ts';
@@ -71,7 +72,7 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
         if (!info) throw new RequestError('not-found', `${shown(dir)} does not exist. Open the dataset folder a Pliant export wrote.`);
         if (!info.isDirectory()) throw new RequestError('invalid-dataset', `${shown(dir)} is a file. Open the dataset folder that holds manifest.json.`);
         const report = await verifyFolder(dir);
-        return { ok: report.ok, checkedFiles: report.checkedFiles, problems: report.problems };
+        return { ok: report.ok, checkedFiles: report.checkedFiles, problems: report.problems.map((p) => ({ ...p, message: inAppWords(p.message) })) };
       }),
 
     // Streamed hashing in the main process: each chunk is short work between reads, so requests

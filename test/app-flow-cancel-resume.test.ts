@@ -57,10 +57,13 @@ describe.runIf(python.available)('export.cancel, then pliant generate --resume',
   it('the unfinished folder is not opened as a dataset, and Verify says the run has not finished', async () => {
     const error = await session.refusal('dataset.summary', { path: interrupted() });
     expect(error.code).toBe('invalid-dataset');
-    expect(error.message).toMatch(/has not finished.*--resume/);
+    // In the app's words (issue 10, defect 12): the Export screen's tick box, not a flag the app does not have.
+    expect(error.message).toMatch(/has not finished; finish it on the Export screen with "Resume a cancelled export in this folder" ticked/);
+    expect(error.message).toMatch(/press "Verify checksums" on the Datasets screen for every problem/);
     const report = await session.call('dataset.verify', { path: interrupted() });
     expect(report.ok).toBe(false);
-    expect(report.problems[0]).toMatchObject({ file: 'manifest.json', message: expect.stringMatching(/resume/) });
+    expect(report.problems[0]).toMatchObject({ file: 'manifest.json', message: expect.stringMatching(/finish it on the Export screen with "Resume a cancelled export in this folder" ticked/) });
+    for (const text of [error.message, ...report.problems.map((p) => p.message)]) expect(text).not.toMatch(/--[a-z]|pliant [a-z]|\u27e6/);
   });
 
   it('pliant generate --resume completes it to the bytes of an uninterrupted export', async () => {

@@ -1,5 +1,6 @@
 // `pliant verify DIR`: checks a dataset's manifest against its schema and every file against
 // its SHA-256. Exit 0 when everything matches, 1 on any mismatch or missing file.
+import { COMMAND_LINE_WORDS, wordRun } from '../dataset/formats/run-words.ts';
 import { resolve } from 'node:path';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
@@ -26,7 +27,7 @@ export const verifyCommand: CliCommand = {
       if (!report.episodeRecordsChecked) io.stdout('note: this manifest predates the checksum of its episode records, so labels and splits were not checked; `pliant reproduce` checks them against the seed file\n');
       return 0;
     }
-    io.stderr(`${dir}: ${report.problemCount} problem${report.problemCount === 1 ? '' : 's'}\n${report.problems.map((p) => `  ${p}`).join('\n')}\n`);
+    io.stderr(`${dir}: ${report.problemCount} problem${report.problemCount === 1 ? '' : 's'}\n${report.problems.map((p) => `  ${wordRun(p, COMMAND_LINE_WORDS)}`).join('\n')}\n`);
     return 1;
   },
 };

@@ -26,7 +26,13 @@ export type RunPhrase =
   /** Before a number of worker threads. */
   | 'workers'
   /** Asking for the same shard as the folder holds. */
-  | 'same-shard';
+  | 'same-shard'
+  /** How to finish a folder whose run stopped before it was done. */
+  | 'finish-unfinished'
+  /** Where to see every problem of a dataset folder. */
+  | 'verify-folder'
+  /** How to write a dataset folder again from its seed file. */
+  | 'reproduce-seed';
 
 export type RunWords = Readonly<Record<RunPhrase, string>>;
 
@@ -42,6 +48,9 @@ export const COMMAND_LINE_WORDS: RunWords = {
   'resume-or-replace': 'give --resume to finish the run that started there, --force to replace it, or an empty folder',
   workers: '--workers',
   'same-shard': 'give the same --shard',
+  'finish-unfinished': 'resume it with `pliant generate … --resume`',
+  'verify-folder': 'run `pliant verify` on the folder',
+  'reproduce-seed': 'regenerate the folder with `pliant reproduce seed.json`',
 };
 
 /** The mark for `phrase` inside a message. */

@@ -8,6 +8,7 @@ import type { DatasetManifest } from './dataset-manifest.ts';
 import { manifestProblems } from './manifest-check.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { readTextIfPresent } from '../formats/text-file.ts';
+import { say } from '../formats/run-words.ts';
 
 export interface FolderState {
   dir: string;
@@ -39,7 +40,7 @@ export async function readFolderState(dir: string): Promise<FolderState> {
   let manifest: DatasetManifest | null = null;
   let problems: string[] = [];
   if (manifestText === null) {
-    problems = [`${MANIFEST_FILE} is missing${inProgress ? ': the run that writes this folder has not finished; resume it with `pliant generate … --resume`' : ''}`];
+    problems = [`${MANIFEST_FILE} is missing${inProgress ? `: the run that writes this folder has not finished; ${say('finish-unfinished')}` : ''}`];
   } else {
     let parsed: unknown;
     try {

@@ -15,6 +15,7 @@ import { readEpisodeArrays } from './episode-array-reader.ts';
 import type { EpisodeArraysRead } from './episode-array-reader.ts';
 import { EpisodeListing } from './episode-listing.ts';
 import type { EpisodeListPage, EpisodeListQuery } from './episode-listing.ts';
+import { say } from '../formats/run-words.ts';
 
 export interface ArraySummary {
   name: string;
@@ -96,7 +97,7 @@ export class DatasetReader {
     if (!folder) throw new DatasetNotFoundError(`${dir} does not exist; open the folder a Pliant export wrote`);
     const state = await readFolderState(dir);
     if (!state.manifest) {
-      throw new DatasetRequestError(`${dir} is not a readable Pliant dataset: ${state.manifestProblems[0] ?? `${MANIFEST_FILE} is missing`}; run \`pliant verify ${dir}\` for every problem`);
+      throw new DatasetRequestError(`${dir} is not a readable Pliant dataset: ${state.manifestProblems[0] ?? `${MANIFEST_FILE} is missing`}; ${say('verify-folder')} for every problem`);
     }
     const entry: CachedDataset = { stamp, manifest: state.manifest, listing: new EpisodeListing(state.manifest.episodes), summary: null };
     this.cache.delete(dir);

@@ -17,6 +17,7 @@ import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { DatasetReadError } from '../formats/dataset-read-error.ts';
 import { readManifestStream } from '../manifest/manifest-stream.ts';
 import { containedPathSync } from '../formats/contained-path.ts';
+import { say } from '../formats/run-words.ts';
 
 export interface VerifyFinding {
   /** Path relative to the dataset folder; "" when the problem is about the folder as a whole. */
@@ -105,10 +106,10 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
   let verified = 0;
   let checked = 0;
   if (!(await isThere(manifestPath))) {
-    findings.add(MANIFEST_FILE, `${MANIFEST_FILE} is missing${inProgress ? ': the run that writes this folder has not finished; resume it with `pliant generate … --resume`' : ''}`);
+    findings.add(MANIFEST_FILE, `${MANIFEST_FILE} is missing${inProgress ? `: the run that writes this folder has not finished; ${say('finish-unfinished')}` : ''}`);
     return report(dir, findings, 0, 0);
   }
-  if (inProgress) findings.add(WORK_FOLDER, 'the folder still holds .pliant-work: the run that writes it has not finished; resume it with `pliant generate … --resume`');
+  if (inProgress) findings.add(WORK_FOLDER, `the folder still holds .pliant-work: the run that writes it has not finished; ${say('finish-unfinished')}`);
 
   const check = async (record: FileRecord): Promise<void> => {
     checked++;
@@ -190,7 +191,7 @@ export async function verifyDataset(dir: string): Promise<VerifyReport> {
         case 'episode-digest':
           recordsChecked = true;
           if (!schemaFailed && digest.hex() !== event.sha256) {
-            findings.add(MANIFEST_FILE, `${MANIFEST_FILE} /${EPISODE_RECORDS_DIGEST_MEMBER}: the episode records do not match the SHA-256 written beside them: a label, split, status or other member of an episode record was changed after the run; regenerate the folder with \`pliant reproduce ${SEED_FILE}\``);
+            findings.add(MANIFEST_FILE, `${MANIFEST_FILE} /${EPISODE_RECORDS_DIGEST_MEMBER}: the episode records do not match the SHA-256 written beside them: a label, split, status or other member of an episode record was changed after the run; ${say('reproduce-seed')}`);
           }
           break;
         case 'file':

@@ -2,6 +2,7 @@
 // splits asked for, and each episode's arrays as an EpisodeTrajectory. `episodesOfSplits` is
 // the one place that walks the manifest's episode list, so a streaming manifest reader can
 // replace it without touching the fits.
+import { COMMAND_LINE_WORDS, wordRun } from '../../dataset/formats/run-words.ts';
 import { readFolderState } from '../../dataset/manifest/dataset-folder-state.ts';
 import type { DatasetManifest, EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { readEpisodeArrays } from '../../dataset/read/episode-array-reader.ts';
@@ -16,7 +17,7 @@ export interface OpenDataset {
 export async function openDataset(dir: string): Promise<OpenDataset> {
   const state = await readFolderState(dir);
   if (!state.manifest) {
-    throw new BaselineInputError(`${dir} is not a finished dataset folder: ${state.manifestProblems.join('; ')}`);
+    throw new BaselineInputError(wordRun(`${dir} is not a finished dataset folder: ${state.manifestProblems.join('; ')}`, COMMAND_LINE_WORDS));
   }
   return { dir, manifest: state.manifest };
 }

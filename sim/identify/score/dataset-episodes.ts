@@ -5,6 +5,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { MANIFEST_FILE } from '../../dataset/manifest/dataset-files.ts';
+import { say } from '../../dataset/formats/run-words.ts';
 import { readFolderState } from '../../dataset/manifest/dataset-folder-state.ts';
 import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
@@ -26,7 +27,7 @@ export async function openScoredDataset(dir: string): Promise<ScoredDataset> {
   const state = await readFolderState(dir);
   if (!state.manifest) {
     const why = state.manifestProblems.slice(0, 5).join('; ');
-    throw new DatasetRequestError(`${dir} is not a finished dataset folder: ${why}. Give the folder a finished \`pliant generate\` wrote, and run \`pliant verify\` on it`);
+    throw new DatasetRequestError(`${dir} is not a finished dataset folder: ${why}. Give a dataset folder whose run has finished, and ${say('verify-folder')}`);
   }
   const manifestBytes = readFileSync(join(dir, MANIFEST_FILE));
   return {

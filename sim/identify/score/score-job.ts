@@ -2,6 +2,7 @@
 // same report files as `pliant score`) and reports progress as the job runner's messages
 // (electron/job-worker-protocol.ts). Expected failures — a predictions folder that does not fit
 // the dataset, a damaged file — end the job with their message, never a stack trace.
+import { neutralMessageOf } from '../../dataset/formats/run-words.ts';
 import { reportOf } from '../../errors/error-report.ts';
 import { writeScore } from './score-outputs.ts';
 import { DEFAULT_VPT_THRESHOLD, scorePredictions } from './score-predictions.ts';
@@ -55,6 +56,7 @@ export async function runScoreJob(job: ScoreJob, post: (message: ScoreJobMessage
     }
     const report = reportOf(error);
     if (report.kind === 'bug') throw error;
-    post({ type: 'failed', message: report.message });
+    // Neutral text (run-words.ts) where the error has it: the app words the run's settings itself.
+    post({ type: 'failed', message: neutralMessageOf(error) ?? report.message });
   }
 }
