@@ -91,6 +91,8 @@ export class PlaybackBar {
   private readonly onKey = (event: KeyboardEvent): void => {
     if (!this.clock || !isShowing(this.root) || isTyping(event.target)) return;
     if (event.key === ' ' || event.code === 'Space') {
+      // Space on a focused button or link presses it; playback must not also toggle.
+      if (event.target instanceof HTMLButtonElement || event.target instanceof HTMLAnchorElement || (event.target instanceof HTMLElement && event.target.tagName === 'SUMMARY')) return;
       event.preventDefault();
       this.togglePlay();
     } else if (event.key === 'ArrowRight' || event.key === 'ArrowLeft') {
