@@ -3,7 +3,7 @@
 // summarised by their count and range so the panel stays a screen high.
 import { h } from '../ui/element.ts';
 import type { PreviewEpisodeSummary } from './preview-worker-protocol.ts';
-import { dimensionlessDash, parameterLabel, summariseValue } from '../ui/parameter-label.ts';
+import { dimensionlessDash, groupParameters } from '../ui/parameter-label.ts';
 
 export function renderEpisodeFacts(host: HTMLElement, e: PreviewEpisodeSummary): void {
   const rows: [string, string][] = [
@@ -19,21 +19,25 @@ export function renderEpisodeFacts(host: HTMLElement, e: PreviewEpisodeSummary):
   );
 }
 
-/** Parameter · value · unit, one row per drawn value; `limit` shows the first rows only. */
-export function parameterTable(labels: Record<string, string>, role: string, limit = Infinity): HTMLTableElement {
-  const entries = Object.entries(labels);
-  const shown = entries.slice(0, limit);
-  const rows = shown.map(([pointer, value]) => {
-    const label = parameterLabel(pointer);
-    return h('tr', { attrs: { 'data-pointer': pointer } }, h('th', { attrs: { scope: 'row' }, title: pointer, text: label.name }), h('td', { className: 'num', text: summariseValue(value) }), h('td', { className: 'unit', text: label.unit }));
-  });
+/**
+ * Parameter · value · unit, one row per drawn quantity (indexed ones grouped, see
+ * groupParameters); `varying` pointers come first, and `limit` shows the first rows only.
+ */
+export function parameterTable(labels: Record<string, string>, role: string, limit = Infinity, varying: ReadonlySet<string> = new Set()): HTMLTableElement {
+  const groups = groupParameters(labels);
+  const varies = (g: (typeof groups)[number]): boolean => g.pointers.some((p) => varying.has(p));
+  const ordered = [...groups.filter(varies), ...groups.filter((g) => !varies(g))];
+  const shown = ordered.slice(0, limit);
+  const rows = shown.map((g) =>
+    h('tr', { attrs: { 'data-pointer': g.label.pointer } }, h('th', { attrs: { scope: 'row' }, title: g.label.pointer, text: g.label.name }), h('td', { className: 'num', text: g.value }), h('td', { className: 'unit', text: g.label.unit })),
+  );
   const table = h(
     'table',
     { className: 'parameter-table', attrs: { 'data-role': role } },
     h('thead', {}, h('tr', {}, h('th', { attrs: { scope: 'col' }, text: 'parameter' }), h('th', { attrs: { scope: 'col' }, text: 'value' }), h('th', { attrs: { scope: 'col' }, text: 'unit' }))),
     h('tbody', {}, ...rows),
   );
-  if (entries.length > shown.length) table.append(h('tfoot', {}, h('tr', {}, h('td', { attrs: { colspan: '3' }, text: `and ${entries.length - shown.length} more under This episode` }))));
+  if (ordered.length > shown.length) table.append(h('tfoot', {}, h('tr', {}, h('td', { attrs: { colspan: '3' }, text: `and ${ordered.length - shown.length} more under This episode` }))));
   return table;
 }
 

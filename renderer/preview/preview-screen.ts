@@ -197,6 +197,10 @@ export class PreviewScreen implements Screen {
   }
 
   private renderEpisodeCards(): void {
+    // The values that differ between the drawn episodes are what tells the cards apart.
+    const varying = new Set<string>();
+    const first = this.episodes[0]?.labels ?? {};
+    for (const e of this.episodes) for (const [k, v] of Object.entries(e.labels)) if (first[k] !== v) varying.add(k);
     this.episodeList.replaceChildren(
       ...this.episodes.map((e) => {
         const card = h(
@@ -204,7 +208,7 @@ export class PreviewScreen implements Screen {
           { attrs: { 'data-index': String(e.index) } },
           h('div', { className: 'episode-card-head' }, button(`Episode ${e.index}`, () => this.runEpisode(e.index), { className: 'episode-pick', attrs: { 'data-role': 'pick-episode' } }), h('span', { className: `split-badge split-${e.split}`, text: e.split })),
           h('div', { className: 'episode-card-facts', text: `${e.kind}, ${e.nodeCount} nodes, ${e.springCount} springs${e.cellCount ? `, ${e.cellCount} cells` : ''}` }),
-          Object.keys(e.labels).length > 0 ? parameterTable(e.labels, 'card-parameters', CARD_PARAMETER_ROWS) : null,
+          Object.keys(e.labels).length > 0 ? parameterTable(e.labels, 'card-parameters', CARD_PARAMETER_ROWS, varying) : null,
         );
         return card;
       }),

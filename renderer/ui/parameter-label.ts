@@ -24,14 +24,14 @@ export function parameterLabel(pointer: string): ParameterLabel {
   let unit: string | null = null;
   segments.forEach((segment, i) => {
     if (i === 0 && GROUPS.has(segment) && segments.length > 1) return;
-    if (/^[0-9]+$/.test(segment)) {
+    if (/^[0-9]+(–[0-9]+)?$/.test(segment)) {
       // An index joins the word before it ("materials 0").
       if (words.length > 0) words[words.length - 1] += ` ${segment}`;
       else words.push(segment);
       return;
     }
-    const last = i === segments.length - 1 || segments.slice(i + 1).every((s) => /^[0-9]+$/.test(s));
-    const keyUnit = last ? unitFromKey(segment) : null;
+    const last = i === segments.length - 1 || segments.slice(i + 1).every((s) => /^[0-9]+(–[0-9]+)?$/.test(s));
+    const keyUnit = last ? unitFromKey(segment) ?? compoundUnit(segment) : null;
     if (last) unit = keyUnit;
     words.push(spacedWords(keyUnit ? stripUnit(segment) : segment));
   });
@@ -43,6 +43,14 @@ export function dimensionlessDash(unit: string | null | undefined): string {
   return !unit || unit === '1' ? DIMENSIONLESS : unit;
 }
 
+/** Units written as one word in keys ("bendingStiffnessNm2" → N·m²), which unitFromKey reads word by word. */
+const COMPOUND_UNITS: Readonly<Record<string, string>> = { Nm2: 'N·m²', Nm: 'N·m' };
+
+function compoundUnit(key: string): string | null {
+  const match = /[a-z0-9]([A-Z][a-z]*[0-9]*)$/.exec(key);
+  return match ? COMPOUND_UNITS[match[1]] ?? null : null;
+}
+
 /** Removes the trailing unit words (M, Pa, KgPerM3, …) the key ends in. */
 function stripUnit(key: string): string {
   const words = key.match(/[A-Z][a-z]*[0-9]*|^[a-z]+[0-9]*/g) ?? [key];
@@ -51,7 +59,7 @@ function stripUnit(key: string): string {
   return words.slice(0, end).join('');
 }
 
-const UNIT_WORDS = new Set(['M', 'M2', 'M3', 'Kg', 'S', 'S2', 'N', 'Ns', 'Pa', 'Hz', 'J', 'W', 'Rad']);
+const UNIT_WORDS = new Set(['M', 'M2', 'M3', 'Kg', 'S', 'S2', 'N', 'Ns', 'Pa', 'Hz', 'J', 'W', 'Rad', 'Nm', 'Nm2']);
 
 function spacedWords(key: string): string {
   return key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
@@ -86,4 +94,49 @@ export function summariseValue(text: string): string {
 
 function short(v: number): string {
   return Number.isInteger(v) ? String(v) : String(Number(v.toPrecision(4)));
+}
+
+export interface ParameterGroup {
+  /** Pointers of the group's members, in the order given. */
+  pointers: string[];
+  label: ParameterLabel;
+  /** The members' values as a table shows them: one value as it is, several summarised. */
+  value: string;
+}
+
+/**
+ * Groups parameters that differ only in an index ("/system/materials/0/densityKgPerM3" …
+ * "/system/materials/15/densityKgPerM3", or "actuator-0" … "actuator-15"), so sixteen materials
+ * take one row each quantity rather than sixteen: "materials 0–15 · density", "16 values, all 1000".
+ */
+export function groupParameters(labels: Record<string, string>): ParameterGroup[] {
+  const groups = new Map<string, { pointers: string[]; values: string[]; indices: number[][] }>();
+  for (const [pointer, value] of Object.entries(labels)) {
+    const indices: number[] = [];
+    const pattern = pointer.replace(/(^|\/|-)([0-9]+)(?=\/|$)/g, (_, lead: string, digits: string) => {
+      indices.push(Number(digits));
+      return `${lead}#`;
+    });
+    let group = groups.get(pattern);
+    if (!group) groups.set(pattern, (group = { pointers: [], values: [], indices: [] }));
+    group.pointers.push(pointer);
+    group.values.push(value);
+    group.indices.push(indices);
+  }
+  return [...groups.entries()].map(([pattern, g]) => {
+    if (g.pointers.length === 1) return { pointers: g.pointers, label: parameterLabel(g.pointers[0]), value: summariseValue(g.values[0]) };
+    let slot = 0;
+    const ranged = pattern.replace(/#/g, () => {
+      const column = g.indices.map((list) => list[slot]);
+      slot++;
+      const lo = Math.min(...column);
+      const hi = Math.max(...column);
+      return lo === hi ? String(lo) : `${lo}–${hi}`;
+    });
+    return { pointers: g.pointers, label: { ...parameterLabel(ranged), pointer: ranged }, value: summariseValue(`[${g.values.map((v) => (isJsonNumber(v) ? v : JSON.stringify(v))).join(',')}]`) };
+  });
+}
+
+function isJsonNumber(text: string): boolean {
+  return /^-?[0-9]+(\.[0-9]+)?([eE][+-]?[0-9]+)?$/.test(text.trim());
 }
