@@ -8,7 +8,8 @@ const SHORTCUTS: readonly (readonly [string, string])[] = [
   ['Space', 'play or pause the 3-D view of the screen on show (when no button or text field has focus)'],
   ['← / →', 'step one frame back / on'],
   ['Shift+← / Shift+→', 'step ten frames'],
-  ['Drag / arrow keys on the 3-D view', 'orbit the camera; the wheel zooms'],
+  ['A / D, W / S on the 3-D view', 'turn the camera round the body / tilt it (or drag with the mouse)'],
+  ['+ / − on the 3-D view', 'zoom in / out (or the mouse wheel)'],
   ['?', 'show this list'],
   ['Escape', 'close this list or a folder chooser'],
 ];

@@ -22,8 +22,9 @@ export class DatasetsScreen implements Screen {
   readonly title = 'Datasets';
   readonly root: HTMLElement;
   readonly player = new TrajectoryPlayer();
-  /** The second episode of a comparison, played beside the first. */
-  readonly comparePlayer = new TrajectoryPlayer();
+  /** The second episode of a comparison, played beside the first; made (with its WebGL context) on first use. */
+  private comparePlayer: TrajectoryPlayer | null = null;
+  private readonly compareHost: HTMLElement;
   private readonly plots = new TrajectoryPlots();
   private readonly emptyState: HTMLElement;
   private readonly openedParts: HTMLElement;
@@ -76,7 +77,8 @@ export class DatasetsScreen implements Screen {
       ),
     );
     this.compareLine = h('p', { className: 'playing-line', attrs: { 'data-role': 'compare-episode-line' } });
-    this.comparePane = h('div', { className: 'compare-pane', attrs: { 'data-role': 'compare-pane' } }, h('div', { className: 'compare-head' }, this.compareLine, button('Close comparison', () => this.closeComparison(), { attrs: { 'data-role': 'compare-close' } })), this.comparePlayer.root);
+    this.compareHost = h('div', { className: 'compare-player' });
+    this.comparePane = h('div', { className: 'compare-pane', attrs: { 'data-role': 'compare-pane' } }, h('div', { className: 'compare-head' }, this.compareLine, button('Close comparison', () => this.closeComparison(), { attrs: { 'data-role': 'compare-close' } })), this.compareHost);
     this.comparePane.hidden = true;
     this.playbackBody = h('div', { className: 'playback-body' }, h('div', { className: 'compare-grid' }, h('div', { className: 'compare-main' }, this.playing, this.player.root), this.comparePane), this.plots.root);
     this.playbackBody.hidden = true;
@@ -95,7 +97,7 @@ export class DatasetsScreen implements Screen {
 
   hidden(): void {
     this.player.pause();
-    this.comparePlayer.pause();
+    this.comparePlayer?.pause();
   }
 
   async open(path: string): Promise<void> {
@@ -183,6 +185,10 @@ export class DatasetsScreen implements Screen {
       const arrays = await this.bridge.invoke('dataset.episodeArrays', { path: this.summary.path, episodeId: row.episodeId });
       const episode = playableEpisode(arrays);
       if (this.scene && this.scene.materialNames.length >= episode.topology.materialNames.length) episode.topology.materialNames = this.scene.materialNames;
+      if (!this.comparePlayer) {
+        this.comparePlayer = new TrajectoryPlayer();
+        this.compareHost.append(this.comparePlayer.root);
+      }
       this.comparePane.hidden = false;
       this.playbackBody.classList.add('is-comparing');
       this.comparePlayer.load(episode.topology, episode.frames, episode.frameIntervalS, episodeWorld(this.scene, row.labels));
@@ -198,7 +204,7 @@ export class DatasetsScreen implements Screen {
   }
 
   private closeComparison(): void {
-    this.comparePlayer.clear();
+    this.comparePlayer?.clear();
     this.comparePane.hidden = true;
     this.playbackBody.classList.remove('is-comparing');
     this.compareLine.textContent = '';

@@ -91,8 +91,11 @@ export class PlaybackBar {
   private readonly onKey = (event: KeyboardEvent): void => {
     if (!this.clock || !isShowing(this.root) || isTyping(event.target)) return;
     if (event.key === ' ' || event.code === 'Space') {
-      // Space on a focused button or link presses it; playback must not also toggle.
-      if (event.target instanceof HTMLButtonElement || event.target instanceof HTMLAnchorElement || (event.target instanceof HTMLElement && event.target.tagName === 'SUMMARY')) return;
+      // Space on a button reached from the keyboard presses it; playback must not also toggle.
+      // A button last clicked with the mouse keeps focus without a ring (:focus-visible), and
+      // there Space plays and pauses as everywhere else.
+      const target = event.target;
+      if (target instanceof HTMLElement && target.matches('button, a[href], summary') && target.matches(':focus-visible')) return;
       event.preventDefault();
       this.togglePlay();
     } else if (event.key === 'ArrowRight' || event.key === 'ArrowLeft') {

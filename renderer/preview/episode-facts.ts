@@ -7,7 +7,8 @@ import { dimensionlessDash, groupParameters } from '../ui/parameter-label.ts';
 
 export function renderEpisodeFacts(host: HTMLElement, e: PreviewEpisodeSummary): void {
   const rows: [string, string][] = [
-    ['episode', `${e.index} (${e.split})`],
+    ['episode', String(e.index)],
+    ['split', e.split],
     ['system', `${e.kind}: ${e.nodeCount} nodes, ${e.springCount} springs${e.cellCount ? `, ${e.cellCount} cells` : ''}`],
     ['recorded', `${e.recordedSteps} steps every ${e.recordIntervalS} s (${(e.recordedSteps * e.recordIntervalS).toFixed(3)} s)`],
     ['integration', `${e.substeps} sub-steps of ${e.dtS.toExponential(3)} s; stability limit ${e.criticalDtS.toExponential(3)} s (${((100 * e.dtS) / e.criticalDtS).toFixed(0)} % of it)`],

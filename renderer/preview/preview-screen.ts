@@ -62,7 +62,7 @@ export class PreviewScreen implements Screen {
         button('Simulate', () => this.runEpisode(Number(this.indexInput.value)), { attrs: { 'data-role': 'preview-run' } }),
       ),
       this.status.root,
-      h('div', { className: 'preview-body' }, h('div', { className: 'preview-main' }, this.player.root, this.progress, this.plots.root), h('aside', { className: 'preview-side' }, h('h3', { text: 'Drawn episodes' }), this.episodeList, h('h3', { text: 'This episode' }), this.facts)),
+      h('div', { className: 'preview-body' }, h('div', { className: 'preview-main' }, this.player.root, this.progress, this.plots.root), h('aside', { className: 'preview-side', attrs: { tabindex: '0', 'aria-label': 'Drawn episodes and this episode\'s parameters (scrolls with the arrow keys when focused)' } }, h('h3', { text: 'Drawn episodes' }), this.episodeList, h('h3', { text: 'This episode' }), this.facts)),
     );
   }
 
