@@ -157,7 +157,7 @@ export class ExportScreen implements Screen {
       ['episodes', e.episodes.toLocaleString('en'), { 'data-episodes': String(e.episodes) }],
       ['splits', `${about}${splits.map(([split, n]) => `${split} ${n.toLocaleString('en')}`).join(', ')}${e.exact ? '' : ` (scaled from the first ${ESTIMATE_SAMPLE} episodes)`}`, Object.fromEntries(splits.map(([split, n]) => [`data-split-${split}`, String(n)]))],
       ['size', `about ${byteSize(e.arrayBytes)} of arrays before compression (the files come out smaller)`, { 'data-bytes': String(e.arrayBytes) }],
-      ['time', `about ${durationWords(e.timeS)} with ${workers} worker${workers === 1 ? '' : 's'} (one episode took ${e.episodeWallS.toFixed(2)} s here)`, { 'data-seconds': e.timeS.toFixed(3) }],
+      ['time', `${e.timeS < 1 ? '' : 'about '}${durationWords(e.timeS)} with ${workers} worker${workers === 1 ? '' : 's'} (one episode took ${e.episodeWallS.toFixed(2)} s here)`, { 'data-seconds': e.timeS.toFixed(3) }],
     ];
     this.estimateHost.setAttribute('data-state', 'ready');
     this.estimateHost.replaceChildren(
