@@ -422,7 +422,16 @@ describe.runIf(chromium.available)('axe-core on every screen (WCAG 2 AA contrast
         .then((r) => r.violations.map((v) => v.id + ': ' + v.nodes.slice(0, 4).map((n) => n.target.join(' ') + ' (' + (n.failureSummary || '').split('\\n').slice(1, 2).join('') + ')').join('; ')))`)) as string[];
       violations.push(...result.map((v) => `${screen}: ${v}`));
     }
+    // The harness can fail: an unlabelled field and pale text added for the purpose are found.
+    const planted = (await page.evaluate(`(() => {
+      const probe = document.createElement('div');
+      probe.id = 'axe-probe';
+      probe.innerHTML = '<input type="text"><p style="color:#ddd;background:#fff">faint words</p>';
+      document.body.append(probe);
+      return axe.run('#axe-probe', { runOnly: { type: 'rule', values: ['label', 'color-contrast'] } }).then((r) => { probe.remove(); return r.violations.map((v) => v.id).sort(); });
+    })()`)) as string[];
     await context.close();
+    expect(planted).toEqual(['color-contrast', 'label']);
     expect(violations).toEqual([]);
   }, 240_000);
 });
