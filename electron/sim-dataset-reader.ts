@@ -45,7 +45,7 @@ export function createSimDatasetReader(options: SimDatasetReaderOptions): Datase
           createdAtIso: s.createdAtIso,
           toolVersion: s.pliantVersion,
           cardMarkdown: s.cardMarkdown,
-          arrays: s.arrays.map((a) => ({ name: a.name, dtype: a.dtype, shape: a.shape, unit: a.unit })),
+          arrays: s.arrays.map((a) => ({ name: a.name, dtype: a.dtype, shape: a.shape, extentRanges: a.shape.map((_, axis) => [a.minShape[axis], a.maxShape[axis]] as [number, number]), unit: a.unit })),
           labelKeys: s.labelKeys,
           controlChannels: overview.controlChannels,
           controlChannelsVary: overview.controlChannelsVary,

@@ -122,13 +122,27 @@ async function main(): Promise<number> {
 
   const running = server;
   await new Promise<void>((resolveStop) => {
+    let stopping = false;
     const stop = (): void => {
-      void running.close().then(resolveStop);
+      // A second Ctrl+C while closing stops at once.
+      if (stopping) process.exit(130);
+      stopping = true;
+      // Connections close with the server; a job's worker threads would keep this process alive,
+      // so they end with it (a cancelled export resumes from its folder).
+      const deadline = setTimeout(resolveStop, STOP_GRACE_MS);
+      deadline.unref();
+      void running.close().then(resolveStop, resolveStop);
     };
-    process.once('SIGINT', stop);
-    process.once('SIGTERM', stop);
+    process.on('SIGINT', stop);
+    process.on('SIGTERM', stop);
+    process.on('SIGHUP', stop);
   });
   return 0;
 }
 
-process.exitCode = await main();
+/** How long closing the server may take before the process ends anyway, ms. */
+const STOP_GRACE_MS = 3000;
+
+// Exit explicitly: whatever still runs (job workers, the tsx loader's esbuild service) stops
+// with this process rather than keeping it alive after the server has closed.
+process.exit(await main());

@@ -52,6 +52,9 @@ for q in d["queries"]:
     if "split" in f: rows = [e for e in rows if e["split"] == f["split"]]
     t = f.get("text", "").strip().lower()
     if t: rows = [e for e in rows if t in e["id"].lower() or t in e["status"] or any(isinstance(v, str) and t in v.lower() for v in e["labels"].values())]
+    for r in f.get("ranges", []):
+        num = lambda v: isinstance(v, (int, float)) and not isinstance(v, bool)
+        rows = [e for e in rows if num(e["labels"].get(r["key"])) and ("min" not in r or e["labels"][r["key"]] >= r["min"]) and ("max" not in r or e["labels"][r["key"]] <= r["max"])]
     rows = sorted(rows, key=lambda e: sort_key(e, q.get("sortKey", "episodeId")))
     if q.get("descending"): rows = rows[::-1]
     out.append({"total": len(rows), "ids": [e["id"] for e in rows[q["offset"]:q["offset"] + q["limit"]]]})
@@ -77,7 +80,7 @@ describe.runIf(python.available)('episode table: sort, filter and page like Pyth
     });
   });
 
-  it('filters by any split name and by text, case-insensitively, before paging', () => {
+  it('filters by any split name, by text (case-insensitively) and by numeric ranges, before paging', () => {
     const queries: EpisodeListQuery[] = [
       { offset: 0, limit: 50, filter: { split: 'held-out' } },
       { offset: 37, limit: 20, sortKey: '/system/segmentCount', filter: { split: 'validation' } },
@@ -86,6 +89,11 @@ describe.runIf(python.available)('episode table: sort, filter and page like Pyth
       { offset: 0, limit: 100, filter: { text: 'EP-0012' } },
       { offset: 0, limit: 100, filter: { text: 'rejected', split: 'train' } },
       { offset: 0, limit: 10, filter: { split: 'no-such-split' } },
+      // Numeric ranges: closed, open at either end, two at once, on a column of numbers and text (text values never match).
+      { offset: 0, limit: 1000, filter: { ranges: [{ key: '/system/segmentCount', min: 5, max: 7 }] } },
+      { offset: 10, limit: 40, sortKey: '/controls/tail/amplitudeM', filter: { ranges: [{ key: '/controls/tail/amplitudeM', min: 0.01 }] } },
+      { offset: 0, limit: 1000, filter: { split: 'train', ranges: [{ key: '/world/fluid/normalDragNsPerM3', max: 900 }, { key: '/system/segmentCount', min: 6 }] } },
+      { offset: 0, limit: 10, filter: { ranges: [{ key: '/system/finTag', min: 0 }] } },
     ];
     const want = runReferencePython<{ total: number; ids: string[] }[]>(PYTHON_PAGE, { episodes, queries });
     queries.forEach((query, q) => {
@@ -95,6 +103,10 @@ describe.runIf(python.available)('episode table: sort, filter and page like Pyth
     });
     expect(want[0].total).toBeGreaterThan(0);
     expect(want[5].total).toBeGreaterThan(0);
+    // The ranges keep some episodes and leave some out, or they would check nothing.
+    for (const q of [7, 8, 9]) expect(want[q].total, JSON.stringify(queries[q])).toBeGreaterThan(0);
+    expect(want[7].total).toBeLessThan(episodes.length);
+    expect(want[10].total).toBeLessThan(episodes.length);
   });
 
   it('shows the labels that vary as columns; constants and list-valued labels stay out of rows and columns', () => {

@@ -83,6 +83,12 @@ describe.runIf(chromium.available)('Pliant screens in headless Chromium through 
     const box = await page.locator(caution).boundingBox();
     const start = await page.locator('[data-role="export-start"]').boundingBox();
     expect(box && start && box.y < start.y).toBe(true);
+    // The folder is named for the scenario on show (not one opened earlier), and the estimate of
+    // what it will write is there before the picture is taken.
+    const scenario = JSON.parse(readFileSync(join(SCENARIOS_DIR, 'korrin-tether.json'), 'utf8'));
+    expect(await page.inputValue('[data-role="export-name"]')).toBe(scenario.name);
+    await page.waitForSelector('[data-role="export-estimate"][data-state="ready"]', { timeout: 60_000 });
+    expect(await page.getAttribute('[data-role="estimate-episodes"]', 'data-episodes')).toBe(String(scenario.episodes));
     await saveScreenshot(page, 'export-ready');
   });
 

@@ -138,7 +138,7 @@ describe('argument validation against the contract schemas (JSON Schema 2020-12)
 
   it('refuses extra keys in nested objects and folder names in a bare file name', async () => {
     const nested = refusal(await handlers.handle('dataset.episodes', { path: picked, offset: 0, limit: 10, filter: { split: 'train', $where: '1' } }));
-    expect(nested.message).toBe('Unexpected key "$where" in argument /filter of dataset.episodes. It accepts only: split, text.');
+    expect(nested.message).toBe('Unexpected key "$where" in argument /filter of dataset.episodes. It accepts only: split, text, ranges.');
     const fileName = refusal(await handlers.handle('scenario.check', { text: '{}', fileName: '../../etc/passwd' }));
     expect(fileName.message).toMatch(/\/fileName of scenario\.check has characters that are not allowed/);
   });

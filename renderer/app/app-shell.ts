@@ -2,6 +2,7 @@
 // show. Switching screens tells the old one it is hidden (it pauses) and the new one it is shown.
 import { button, h } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
+import { ShortcutList } from './shortcut-list.ts';
 
 export class AppShell {
   readonly root: HTMLElement;
@@ -13,7 +14,8 @@ export class AppShell {
   constructor(modeNote: string) {
     this.nav = h('nav', { className: 'screen-nav', attrs: { 'aria-label': 'Screens' } });
     this.main = h('main', { className: 'screen-host' });
-    this.root = h('div', { className: 'app' }, h('header', { className: 'app-bar' }, h('h1', { className: 'app-name', text: 'Pliant' }), this.nav, h('span', { className: 'app-mode', text: modeNote })), this.main);
+    const shortcuts = new ShortcutList();
+    this.root = h('div', { className: 'app' }, h('header', { className: 'app-bar' }, h('h1', { className: 'app-name', text: 'Pliant' }), this.nav, h('span', { className: 'app-mode', text: modeNote }), shortcuts.opener), this.main, shortcuts.dialog);
   }
 
   add(screen: Screen): void {
@@ -32,7 +34,11 @@ export class AppShell {
     }
     this.current = next;
     next.root.hidden = false;
-    for (const b of this.nav.querySelectorAll('button')) b.classList.toggle('is-active', b.getAttribute('data-nav') === id);
+    for (const b of this.nav.querySelectorAll('button')) {
+      b.classList.toggle('is-active', b.getAttribute('data-nav') === id);
+      if (b.getAttribute('data-nav') === id) b.setAttribute('aria-current', 'page');
+      else b.removeAttribute('aria-current');
+    }
     next.shown?.();
   }
 }

@@ -1,7 +1,8 @@
 // The Datasets screen: open an exported dataset folder, read its card and summary, page through
 // its episodes, play any episode back in the 3-D view from its own files, verify its checksums,
-// open its seed file to preview or regenerate episodes, and save the episode playing as a GIF or
-// PNG frames.
+// open its seed file to preview or regenerate episodes, save the episode playing as a GIF or PNG
+// frames, and play a second episode beside it to compare the two. Before a folder is open the
+// screen says how to get one instead of showing an empty view.
 import type { ControlChannelDescription, DatasetSummary, EpisodeRow } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { TrajectoryPlots } from '../plots/trajectory-plots.ts';
@@ -21,7 +22,15 @@ export class DatasetsScreen implements Screen {
   readonly title = 'Datasets';
   readonly root: HTMLElement;
   readonly player = new TrajectoryPlayer();
+  /** The second episode of a comparison, played beside the first; made (with its WebGL context) on first use. */
+  private comparePlayer: TrajectoryPlayer | null = null;
+  private readonly compareHost: HTMLElement;
   private readonly plots = new TrajectoryPlots();
+  private readonly emptyState: HTMLElement;
+  private readonly openedParts: HTMLElement;
+  private readonly playbackBody: HTMLElement;
+  private readonly compareLine: HTMLElement;
+  private readonly comparePane: HTMLElement;
   private readonly status = new StatusLine('datasets-status');
   private readonly summaryHost: HTMLElement;
   private readonly table: EpisodeTable;
@@ -42,6 +51,7 @@ export class DatasetsScreen implements Screen {
         return this.bridge.invoke('dataset.episodes', { path: this.summary.path, ...query });
       },
       play: (row) => void this.play(row),
+      compare: (row) => void this.compare(row),
       failed: (error) => this.status.error('Could not list the episodes', error),
     });
     this.playing = h('p', { className: 'playing-line', attrs: { 'data-role': 'playing-episode' } });
@@ -54,22 +64,40 @@ export class DatasetsScreen implements Screen {
     this.player.onFrame((frame) => {
       if (this.frameTimes) this.plots.mark(this.frameTimes[frame]);
     });
+    this.emptyState = h(
+      'div',
+      { className: 'empty-state', attrs: { 'data-role': 'datasets-empty' } },
+      h('h3', { text: 'No dataset open yet' }),
+      h(
+        'ol',
+        {},
+        h('li', { text: 'Open a folder written by Export or by "pliant generate" with Open dataset folder… above.' }),
+        h('li', { text: 'No dataset yet? Write one on the Export screen from the scenario on the Sweep screen.' }),
+        h('li', { text: 'Once open, its episodes are listed here; Play shows one in 3-D with its charts, Compare plays a second beside it.' }),
+      ),
+    );
+    this.compareLine = h('p', { className: 'playing-line', attrs: { 'data-role': 'compare-episode-line' } });
+    this.compareHost = h('div', { className: 'compare-player' });
+    this.comparePane = h('div', { className: 'compare-pane', attrs: { 'data-role': 'compare-pane' } }, h('div', { className: 'compare-head' }, this.compareLine, button('Close comparison', () => this.closeComparison(), { attrs: { 'data-role': 'compare-close' } })), this.compareHost);
+    this.comparePane.hidden = true;
+    this.playbackBody = h('div', { className: 'playback-body' }, h('div', { className: 'compare-grid' }, h('div', { className: 'compare-main' }, this.playing, this.player.root), this.comparePane), this.plots.root);
+    this.playbackBody.hidden = true;
+    this.openedParts = h('div', { className: 'dataset-opened' }, this.summaryHost, this.table.root, this.pictures.root, this.playbackBody);
+    this.openedParts.hidden = true;
     this.root = h(
       'section',
       { className: 'screen datasets-screen', attrs: { 'data-screen': 'datasets' } },
       h('header', { className: 'screen-head' }, h('h2', { text: 'Datasets' })),
       h('div', { className: 'toolbar' }, button('Open dataset folder…', () => void this.choose(), { attrs: { 'data-role': 'open-dataset' } }), this.verifyButton, this.verifyResult, this.seedButton),
       this.status.root,
-      this.summaryHost,
-      this.table.root,
-      this.playing,
-      this.pictures.root,
-      h('div', { className: 'playback-body' }, this.player.root, this.plots.root),
+      this.emptyState,
+      this.openedParts,
     );
   }
 
   hidden(): void {
     this.player.pause();
+    this.comparePlayer?.pause();
   }
 
   async open(path: string): Promise<void> {
@@ -81,6 +109,11 @@ export class DatasetsScreen implements Screen {
       return;
     }
     this.renderSummary(this.summary);
+    this.emptyState.hidden = true;
+    this.openedParts.hidden = false;
+    this.playbackBody.hidden = true;
+    this.closeComparison();
+    this.player.clear();
     this.pictures.forget();
     this.scene = null;
     if (this.summary.seedFilePath) {
@@ -132,11 +165,50 @@ export class DatasetsScreen implements Screen {
       this.playing.textContent = `Playing episode ${row.episodeId} (${row.split}) from its files: ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames every ${Number(episode.frameIntervalS.toPrecision(6))} s.`;
       this.playing.setAttribute('data-episode', row.episodeId);
       this.pictures.episodeLoaded(this.summary.path, row.episodeId);
+      this.playbackBody.hidden = false;
       this.status.show('ok', 'Space plays and pauses, ← → step.');
       this.player.play();
     } catch (error) {
       this.status.error(`Could not play episode ${row.episodeId}`, error);
     }
+  }
+
+  /** Plays `row` beside the episode playing (or as the first, when none is). */
+  private async compare(row: EpisodeRow): Promise<void> {
+    if (!this.summary) return;
+    if (!this.playing.hasAttribute('data-episode')) {
+      await this.play(row);
+      return;
+    }
+    this.status.show('busy', `Loading episode ${row.episodeId} to compare…`);
+    try {
+      const arrays = await this.bridge.invoke('dataset.episodeArrays', { path: this.summary.path, episodeId: row.episodeId });
+      const episode = playableEpisode(arrays);
+      if (this.scene && this.scene.materialNames.length >= episode.topology.materialNames.length) episode.topology.materialNames = this.scene.materialNames;
+      if (!this.comparePlayer) {
+        this.comparePlayer = new TrajectoryPlayer();
+        this.compareHost.append(this.comparePlayer.root);
+      }
+      this.comparePane.hidden = false;
+      this.playbackBody.classList.add('is-comparing');
+      this.comparePlayer.load(episode.topology, episode.frames, episode.frameIntervalS, episodeWorld(this.scene, row.labels));
+      this.compareLine.textContent = `Beside it: episode ${row.episodeId} (${row.split}), ${episode.topology.nodeCount} nodes, ${episode.frames.frameCount} frames.`;
+      this.compareLine.setAttribute('data-episode', row.episodeId);
+      this.status.show('ok', `Comparing episode ${this.playing.getAttribute('data-episode')} (left) with ${row.episodeId} (right); both play from the start.`);
+      // Both from the first frame, so the two motions line up in time.
+      this.player.restart();
+      this.comparePlayer.restart();
+    } catch (error) {
+      this.status.error(`Could not play episode ${row.episodeId}`, error);
+    }
+  }
+
+  private closeComparison(): void {
+    this.comparePlayer?.clear();
+    this.comparePane.hidden = true;
+    this.playbackBody.classList.remove('is-comparing');
+    this.compareLine.textContent = '';
+    this.compareLine.removeAttribute('data-episode');
   }
 
   private renderSummary(s: DatasetSummary): void {
@@ -148,13 +220,22 @@ export class DatasetsScreen implements Screen {
       ['files', s.formats.join(' and ').toUpperCase()],
       ['written', `${s.createdAtIso} by Pliant ${s.toolVersion}`],
       ['seed file', s.seedFilePath ?? 'missing: this dataset cannot be regenerated'],
-      ['arrays', s.arrays.map((a) => `${a.name} [${a.shape.join('×')}] ${a.unit}`).join('; ')],
+      ['arrays', s.arrays.map((a) => `${a.name} [${shapeText(a.shape, a.extentRanges)}] ${a.unit}`).join('; ')],
       ['controls', s.controlChannels.length === 0 ? 'none: nothing drives this system' : `${s.controlChannels.map((c) => `${c.name}, ${c.unit}`).join('; ')}${s.controlChannelsVary ? ' (in the first episode; others differ)' : ''}`],
       ['size', byteSize(s.sizeBytes)],
     ];
     const card = h('details', { className: 'dataset-card' }, h('summary', { text: 'Dataset card' }), h('pre', { className: 'card-text', text: s.cardMarkdown }));
     this.summaryHost.replaceChildren(h('dl', { className: 'facts' }, ...facts.flatMap(([k, v]) => [h('dt', { text: k }), h('dd', { text: v })])), card);
   }
+}
+
+/** "201×9–25×3": each axis's extent, or its range over the episodes where it varies. */
+export function shapeText(shape: readonly number[], ranges: readonly (readonly [number, number])[] | undefined): string {
+  return shape.map((extent, axis) => {
+    const range = ranges?.[axis];
+    if (range && range[0] !== range[1]) return `${range[0]}–${range[1]}`;
+    return extent < 0 ? 'varies' : String(extent);
+  }).join('×');
 }
 
 /**

@@ -1,16 +1,19 @@
 // The episode list of a dataset: one page of rows at a time from dataset.episodes, sortable by
-// any column, filterable by split and by text, so a dataset of a million episodes lists as fast
-// as one of ten. Rows show the split, the status (written, or rejected as unstable) and the
-// sampled parameters.
+// any column, filterable by split, by text and by numeric ranges of any parameter, so a dataset of
+// a million episodes lists as fast as one of ten. Rows show the split, the status (written, or
+// rejected as unstable) and the sampled parameters; the id column and the actions (Play, Compare)
+// stay in view however far the parameters scroll sideways.
 import type { DatasetSplit, EpisodePage, EpisodeQuery, EpisodeRow } from '../../sim/bridge/bridge-contract.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
-import { unitFromKey } from '../sweep/unit-from-key.ts';
+import { parameterLabel } from '../ui/parameter-label.ts';
 
 export const EPISODE_PAGE_SIZE = 50;
 
 export interface EpisodeTableEvents {
   fetch(query: EpisodeQuery): Promise<EpisodePage>;
   play(row: EpisodeRow): void;
+  /** Plays the row beside the episode already playing. */
+  compare(row: EpisodeRow): void;
   failed(error: unknown): void;
 }
 
@@ -22,6 +25,12 @@ export class EpisodeTable {
   private readonly next: HTMLButtonElement;
   private readonly split: HTMLSelectElement;
   private readonly filterText: HTMLInputElement;
+  private readonly rangeKey: HTMLSelectElement;
+  private readonly rangeMin: HTMLInputElement;
+  private readonly rangeMax: HTMLInputElement;
+  private readonly rangeList: HTMLElement;
+  private readonly rangeProblem: HTMLElement;
+  private ranges: { key: string; min?: number; max?: number }[] = [];
   private columns: string[] = [];
   private offset = 0;
   private total = 0;
@@ -42,12 +51,75 @@ export class EpisodeTable {
       if (this.filterTimer !== null) clearTimeout(this.filterTimer);
       this.filterTimer = setTimeout(() => this.reload(), 300);
     });
-    this.root = h('div', { className: 'episode-list' }, h('div', { className: 'toolbar' }, labelled('Split', this.split), labelled('Filter', this.filterText), this.prev, this.pageLabel, this.next), h('div', { className: 'table-scroll' }, this.table));
+    this.rangeKey = select([], '', { 'data-role': 'range-key' });
+    this.rangeMin = h('input', { attrs: { type: 'number', step: 'any', 'data-role': 'range-min', class: 'number-input' } });
+    this.rangeMax = h('input', { attrs: { type: 'number', step: 'any', 'data-role': 'range-max', class: 'number-input' } });
+    this.rangeList = h('ul', { className: 'range-list', attrs: { 'data-role': 'range-list', 'aria-label': 'Ranges in force' } });
+    this.rangeProblem = h('span', { className: 'field-problem', attrs: { 'data-role': 'range-problem', role: 'alert' } });
+    const rangeRow = h(
+      'div',
+      { className: 'toolbar range-row' },
+      labelled('Keep episodes whose', this.rangeKey),
+      labelled('is from', this.rangeMin),
+      labelled('to', this.rangeMax),
+      button('Add range', () => this.addRange(), { attrs: { 'data-role': 'range-add' } }),
+      this.rangeProblem,
+      this.rangeList,
+    );
+    this.root = h('div', { className: 'episode-list' }, h('div', { className: 'toolbar' }, labelled('Split', this.split), labelled('Filter', this.filterText), this.prev, this.pageLabel, this.next), rangeRow, h('div', { className: 'table-scroll', attrs: { 'data-role': 'episode-scroll' } }, this.table));
+  }
+
+  /** Adds the range typed in the range row (an empty end is open) and lists the matching episodes. */
+  private addRange(): void {
+    const key = this.rangeKey.value;
+    const min = this.rangeMin.value.trim() === '' ? undefined : Number(this.rangeMin.value);
+    const max = this.rangeMax.value.trim() === '' ? undefined : Number(this.rangeMax.value);
+    const label = parameterLabel(key);
+    if (!key) return;
+    if ((min !== undefined && !Number.isFinite(min)) || (max !== undefined && !Number.isFinite(max))) {
+      this.rangeProblem.textContent = `Type numbers for the range of ${label.name}, or leave an end empty.`;
+      return;
+    }
+    if (min === undefined && max === undefined) {
+      this.rangeProblem.textContent = `Type a lowest or a highest ${label.name} (or both).`;
+      return;
+    }
+    if (min !== undefined && max !== undefined && min > max) {
+      this.rangeProblem.textContent = `The range of ${label.name} runs from ${min} to ${max}: the first must not be larger. Swap them.`;
+      return;
+    }
+    this.rangeProblem.textContent = '';
+    this.ranges = [...this.ranges.filter((r) => r.key !== key), { key, ...(min !== undefined ? { min } : {}), ...(max !== undefined ? { max } : {}) }];
+    this.rangeMin.value = '';
+    this.rangeMax.value = '';
+    this.renderRanges();
+    this.reload();
+  }
+
+  private renderRanges(): void {
+    this.rangeList.replaceChildren(
+      ...this.ranges.map((r) => {
+        const label = parameterLabel(r.key);
+        const unit = label.unit === '–' ? '' : ` ${label.unit}`;
+        const text = `${label.name} ${r.min !== undefined ? `≥ ${r.min}${unit}` : ''}${r.min !== undefined && r.max !== undefined ? ' and ' : ''}${r.max !== undefined ? `≤ ${r.max}${unit}` : ''}`;
+        return h('li', { attrs: { 'data-key': r.key } }, h('span', { text }), button('✕', () => this.removeRange(r.key), { className: 'range-remove', attrs: { 'aria-label': `Remove the range of ${label.name}`, 'data-role': 'range-remove' } }));
+      }),
+    );
+  }
+
+  private removeRange(key: string): void {
+    this.ranges = this.ranges.filter((r) => r.key !== key);
+    this.renderRanges();
+    this.reload();
   }
 
   /** Shows a new dataset's episodes with these label columns; `splits` fill the split filter. */
   open(labelKeys: string[], splits: string[]): void {
     this.columns = labelKeys.filter((k) => k !== 'status');
+    this.rangeKey.replaceChildren(...this.columns.map((key) => h('option', { text: columnCaption(key), attrs: { value: key } })));
+    this.ranges = [];
+    this.renderRanges();
+    this.rangeProblem.textContent = '';
     this.split.replaceChildren(...[['', 'every split'], ...splits.map((s) => [s, s])].map(([value, label]) => h('option', { text: label, attrs: { value } })));
     this.sortKey = undefined;
     this.descending = false;
@@ -78,7 +150,8 @@ export class EpisodeTable {
     const filter: EpisodeQuery['filter'] = {};
     if (this.split.value) filter.split = this.split.value as DatasetSplit;
     if (this.filterText.value.trim()) filter.text = this.filterText.value.trim();
-    if (filter.split || filter.text) query.filter = filter;
+    if (this.ranges.length > 0) filter.ranges = this.ranges.map((r) => ({ ...r }));
+    if (filter.split || filter.text || filter.ranges) query.filter = filter;
     let page: EpisodePage;
     try {
       page = await this.events.fetch(query);
@@ -96,19 +169,21 @@ export class EpisodeTable {
     for (const column of ['episode', 'split', 'status', ...this.columns]) {
       const key = column === 'episode' ? 'episodeId' : column;
       const arrow = this.sortKey === key ? (this.descending ? ' ▼' : ' ▲') : '';
-      const unit = unitOfColumn(column);
-      const caption = `${column}${unit ? `, ${unit}` : ''}${arrow}`;
-      head.append(h('th', { attrs: { scope: 'col' } }, button(caption, () => this.sortBy(key), { className: 'sort-button', attrs: { 'data-sort': key } })));
+      const caption = `${column === 'episode' || column === 'split' || column === 'status' ? column : columnCaption(column)}${arrow}`;
+      const sortState = this.sortKey === key ? (this.descending ? 'descending' : 'ascending') : 'none';
+      head.append(h('th', { className: column === 'episode' ? 'sticky-start' : '', attrs: { scope: 'col', 'aria-sort': sortState, ...(column.startsWith('/') ? { title: column } : {}) } }, button(caption, () => this.sortBy(key), { className: 'sort-button', attrs: { 'data-sort': key } })));
     }
-    head.append(h('th', { attrs: { scope: 'col' }, text: '' }));
+    head.append(h('th', { className: 'sticky-end', attrs: { scope: 'col' }, text: 'actions' }));
     const rows = page.rows.map((row) => {
       const status = row.labels.status;
-      const tr = h('tr', { attrs: { 'data-episode': row.episodeId } }, h('td', { text: row.episodeId }), h('td', {}, h('span', { className: `split-badge split-${row.split}`, text: row.split })), h('td', { className: `status-${String(status ?? 'unknown')}`, text: status === undefined ? '—' : String(status) }));
+      const tr = h('tr', { attrs: { 'data-episode': row.episodeId } }, h('th', { className: 'sticky-start', attrs: { scope: 'row' }, text: row.episodeId }), h('td', {}, h('span', { className: `split-badge split-${row.split}`, text: row.split })), h('td', { className: `status-${String(status ?? 'unknown')}`, text: status === undefined ? '—' : String(status) }));
       for (const column of this.columns) tr.append(h('td', { className: 'num', text: formatCell(row.labels[column]) }));
       // A rejected episode (it became unstable) has no arrays to play.
-      const play = button('Play', () => this.events.play(row), { className: 'play-row', attrs: { 'data-role': 'play-episode' } });
+      const play = button('Play', () => this.events.play(row), { className: 'play-row', attrs: { 'data-role': 'play-episode', 'aria-label': `Play episode ${row.episodeId}` } });
+      const compare = button('Compare', () => this.events.compare(row), { className: 'compare-row', attrs: { 'data-role': 'compare-episode', 'aria-label': `Play episode ${row.episodeId} beside the one playing` } });
       play.disabled = status === 'rejected';
-      tr.append(h('td', {}, play));
+      compare.disabled = status === 'rejected';
+      tr.append(h('td', { className: 'sticky-end actions' }, play, compare));
       return tr;
     });
     this.table.replaceChildren(h('thead', {}, head), h('tbody', {}, ...rows));
@@ -129,10 +204,10 @@ export class EpisodeTable {
   }
 }
 
-/** The unit a label column's key names ("/system/lengthM" or "system.lengthM" → "m"). */
-function unitOfColumn(column: string): string | null {
-  const words = column.split(/[/.:]/).filter((w) => w !== '' && !/^[0-9]+$/.test(w));
-  return words.length > 0 ? unitFromKey(words[words.length - 1]) : null;
+/** A label column's heading: the parameter in words with its unit ("length, m"; "damping ratio, –"). */
+function columnCaption(column: string): string {
+  const label = parameterLabel(column);
+  return `${label.name}, ${label.unit}`;
 }
 
 function formatCell(value: number | string | boolean | undefined): string {

@@ -1,7 +1,8 @@
 // The Export screen: write the sweep on the Sweep screen as a dataset. Choose where, which file
 // format and how many worker threads; follow the progress with the rate and the time left;
 // cancel at an episode boundary so a later run with "resume" finishes the same folder; and at the
-// end see the folder and the result of verifying every checksum.
+// end see the folder and the result of verifying every checksum. Before it starts, the screen
+// shows the episodes per split and an estimate of the folder's size and the time it takes.
 import type { AppInfo, ExportFormat, JobProgress } from '../../sim/bridge/bridge-contract.ts';
 import { BRIDGE_LIMITS } from '../../sim/bridge/bridge-contract.ts';
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
@@ -13,6 +14,11 @@ import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { JobProgressView } from './job-progress-view.ts';
+import { ESTIMATE_SAMPLE, ExportEstimator } from './export-estimate.ts';
+import type { ExportEstimate } from './export-estimate.ts';
+
+/** Wait this long after the last change before estimating again, ms. */
+const ESTIMATE_SETTLE_MS = 400;
 
 export class ExportScreen implements Screen {
   readonly id = 'export';
@@ -32,8 +38,14 @@ export class ExportScreen implements Screen {
   private parentFolder: string | null = null;
   private jobId: string | null = null;
   private outDir: string | null = null;
-  /** Most worker threads an export gets here: the shell caps them at the core count. */
+  /** Largest worker count: the shell caps a job's threads at the core count (as the command line's default), within the bridge's limit. */
   private readonly maxWorkers: number;
+  /** The scenario name the folder name was last filled from; a name the user typed is left alone. */
+  private filledName: string | null = null;
+  private readonly estimator = new ExportEstimator();
+  private readonly estimateHost: HTMLElement;
+  private estimateTimer: ReturnType<typeof setTimeout> | null = null;
+  private estimatedFor = '';
 
   constructor(private readonly bridge: PliantBridge, private readonly sweep: SweepDocument, info: AppInfo, private readonly openDataset: (path: string) => void) {
     this.scenarioLine = h('p', { className: 'export-scenario', attrs: { 'data-role': 'export-scenario' } });
@@ -42,7 +54,9 @@ export class ExportScreen implements Screen {
     this.format = select([['npz', 'NPZ (zipped NPY arrays)'], ['hdf5', 'HDF5'], ['both', 'NPZ and HDF5']], 'npz', { 'data-role': 'export-format' });
     const limits = info.jobLimits;
     this.maxWorkers = Math.max(1, Math.min(BRIDGE_LIMITS.maxWorkers, limits.workerThreadsPerJob));
-    this.workers = h('input', { attrs: { type: 'number', min: '1', max: String(this.maxWorkers), step: '1', value: String(Math.max(1, this.maxWorkers - 1)), 'data-role': 'export-workers' } });
+    this.workers = h('input', { attrs: { type: 'number', min: '1', max: String(this.maxWorkers), step: '1', value: String(this.maxWorkers), 'data-role': 'export-workers' } });
+    this.workers.addEventListener('change', () => this.scheduleEstimate());
+    this.estimateHost = h('div', { className: 'export-estimate', attrs: { 'data-role': 'export-estimate', 'aria-live': 'polite' } });
     this.resume = h('input', { attrs: { type: 'checkbox', 'data-role': 'export-resume' } });
     this.startButton = button('Start export', () => void this.start(), { className: 'primary', attrs: { 'data-role': 'export-start' } });
     this.cancelButton = button('Cancel', () => void this.cancel(), { attrs: { 'data-role': 'export-cancel' } });
@@ -61,7 +75,7 @@ export class ExportScreen implements Screen {
         h('div', { className: 'field-inline' }, h('span', { className: 'field-caption', text: 'Into folder' }), this.folderLine, button('Choose…', () => void this.chooseFolder(), { attrs: { 'data-role': 'export-choose' } })),
         labelled('Dataset folder name', this.nameInput),
         labelled('Format', this.format),
-        labelled('Worker threads', this.workers, `1 to ${this.maxWorkers}, the number of cores Pliant counts on this computer`),
+        labelled('Worker threads', this.workers, `1 to ${this.maxWorkers}, the cores of the computer it runs on (as pliant generate's default)`),
         labelled('Resume a cancelled export in this folder', this.resume),
       ),
       h('p', {
@@ -69,6 +83,7 @@ export class ExportScreen implements Screen {
         attrs: { 'data-role': 'export-job-limits' },
         text: `At most ${limits.runningJobs} jobs (exports, regenerations, scores, pictures) run at once; later ones wait in a queue of up to ${limits.queuedJobs}, in the order they were started, and the progress line shows their place.`,
       }),
+      this.estimateHost,
       h('div', { className: 'toolbar' }, this.startButton, this.cancelButton),
       this.status.root,
       this.job.bar,
@@ -94,10 +109,67 @@ export class ExportScreen implements Screen {
     const episodes = typeof doc.episodes === 'number' ? doc.episodes : '?';
     const problems = state.problems.length;
     this.scenarioLine.textContent = `Scenario ${state.fileName}: ${episodes} episodes${problems > 0 ? ` — ${problems} problem${problems === 1 ? '' : 's'} to fix on the Sweep screen first` : ''}.`;
-    if (this.nameInput.value === '') this.nameInput.value = name;
+    // The folder is named for the scenario on show, unless the user typed a name of their own.
+    if (this.nameInput.value === '' || this.nameInput.value === this.filledName) {
+      this.nameInput.value = name;
+      this.filledName = name;
+    }
     const format = (doc.export as { format?: unknown } | undefined)?.format;
     if (format === 'npz' || format === 'hdf5' || format === 'both') this.format.value = format;
     this.startButton.disabled = this.jobId !== null || !this.sweep.usable;
+    this.scheduleEstimate();
+  }
+
+  private scheduleEstimate(): void {
+    if (this.estimateTimer !== null) clearTimeout(this.estimateTimer);
+    this.estimateTimer = setTimeout(() => {
+      this.estimateTimer = null;
+      void this.refreshEstimate();
+    }, ESTIMATE_SETTLE_MS);
+  }
+
+  private async refreshEstimate(): Promise<void> {
+    const state = this.sweep.current;
+    const doc = state.document;
+    if (!doc || !this.sweep.usable || typeof doc.episodes !== 'number' || this.root.hidden) {
+      if (!doc || !this.sweep.usable) {
+        this.estimateHost.replaceChildren();
+        this.estimateHost.removeAttribute('data-state');
+        this.estimatedFor = '';
+      }
+      return;
+    }
+    const workers = Math.min(this.maxWorkers, Math.max(1, Math.round(Number(this.workers.value)) || 1));
+    const floatBytes = (doc.export as { dtype?: unknown } | undefined)?.dtype === 'float64' ? 8 : 4;
+    const key = `${workers}\u0000${state.text}`;
+    if (key === this.estimatedFor) return;
+    this.estimatedFor = key;
+    this.estimateHost.setAttribute('data-state', 'busy');
+    this.estimateHost.replaceChildren(h('p', { className: 'screen-note', text: 'Estimating the splits, the size and the time…' }));
+    const estimate = await this.estimator.estimate({ text: state.text, fileName: state.fileName, episodes: doc.episodes, workers, floatBytes });
+    if (estimate === null) return;
+    if (typeof estimate === 'string') {
+      this.estimateHost.setAttribute('data-state', 'failed');
+      this.estimateHost.replaceChildren(h('p', { className: 'screen-note', text: `No estimate: ${estimate}` }));
+      return;
+    }
+    this.renderEstimate(estimate, workers);
+  }
+
+  private renderEstimate(e: ExportEstimate, workers: number): void {
+    const about = e.exact ? '' : 'about ';
+    const splits = Object.entries(e.splitCounts).filter(([split, n]) => n > 0 || ['train', 'validation', 'test'].includes(split));
+    const rows: [string, string, Record<string, string>][] = [
+      ['episodes', e.episodes.toLocaleString('en'), { 'data-episodes': String(e.episodes) }],
+      ['splits', `${about}${splits.map(([split, n]) => `${split} ${n.toLocaleString('en')}`).join(', ')}${e.exact ? '' : ` (scaled from the first ${ESTIMATE_SAMPLE} episodes)`}`, Object.fromEntries(splits.map(([split, n]) => [`data-split-${split}`, String(n)]))],
+      ['size', `about ${byteSize(e.arrayBytes)} of arrays before compression (the files come out smaller)`, { 'data-bytes': String(e.arrayBytes) }],
+      ['time', `${e.timeS < 1 ? '' : 'about '}${durationWords(e.timeS)} with ${workers} worker${workers === 1 ? '' : 's'} (one episode took ${e.episodeWallS.toFixed(2)} s here)`, { 'data-seconds': e.timeS.toFixed(3) }],
+    ];
+    this.estimateHost.setAttribute('data-state', 'ready');
+    this.estimateHost.replaceChildren(
+      h('h3', { text: 'This export will write' }),
+      h('dl', { className: 'facts' }, ...rows.flatMap(([k, v, attrs]) => [h('dt', { text: k }), h('dd', { text: v, attrs: { 'data-role': `estimate-${k}`, ...attrs } })])),
+    );
   }
 
   private async chooseFolder(): Promise<void> {
@@ -124,7 +196,7 @@ export class ExportScreen implements Screen {
     }
     const workers = Math.round(Number(this.workers.value));
     if (!(workers >= 1 && workers <= this.maxWorkers)) {
-      this.status.show('error', `Worker threads must be a whole number from 1 to ${this.maxWorkers}, got ${this.workers.value}.`);
+      this.status.show('error', `Worker threads must be a whole number from 1 to ${this.maxWorkers} (the cores of this computer), got ${this.workers.value}.`);
       return;
     }
     this.outDir = insideFolder(this.parentFolder, name);
@@ -201,4 +273,12 @@ export class ExportScreen implements Screen {
       this.status.error('Export finished, but it could not be verified', error);
     }
   }
+}
+
+/** "40 s", "3.5 min", "2.1 h". */
+function durationWords(s: number): string {
+  if (s < 1) return 'under a second';
+  if (s < 90) return `${Math.round(s)} s`;
+  if (s < 5400) return `${Number((s / 60).toPrecision(2))} min`;
+  return `${Number((s / 3600).toPrecision(2))} h`;
 }

@@ -91,6 +91,11 @@ export class PlaybackBar {
   private readonly onKey = (event: KeyboardEvent): void => {
     if (!this.clock || !isShowing(this.root) || isTyping(event.target)) return;
     if (event.key === ' ' || event.code === 'Space') {
+      // Space on a button reached from the keyboard presses it; playback must not also toggle.
+      // A button last clicked with the mouse merely kept the focus: there Space plays and
+      // pauses as everywhere else (and the click is not repeated).
+      const target = event.target;
+      if (target instanceof HTMLElement && target.matches('button, a[href], summary') && target !== lastPointerPressed) return;
       event.preventDefault();
       this.togglePlay();
     } else if (event.key === 'ArrowRight' || event.key === 'ArrowLeft') {
@@ -100,6 +105,12 @@ export class PlaybackBar {
     }
   };
 }
+
+/** The control the pointer last went down on, to tell focus by click from focus by Tab. */
+let lastPointerPressed: Element | null = null;
+document.addEventListener('pointerdown', (event) => {
+  lastPointerPressed = event.target instanceof Element ? event.target.closest('button, a[href], summary') : null;
+}, true);
 
 function isShowing(element: HTMLElement): boolean {
   return element.isConnected && element.closest('[hidden]') === null;

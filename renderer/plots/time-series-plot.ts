@@ -10,8 +10,23 @@ export interface PlotSeries {
   colour: string;
 }
 
+export interface PlotLayout {
+  /** Chart height, px (150 by default; small multiples use less). */
+  heightPx?: number;
+  /** Narrowest the chart is drawn, px, however little room its box has. */
+  minWidthPx?: number;
+}
+
+/** How a unit reads on a chart: the SI "1" of a dimensionless quantity reads "–". */
+export function shownUnit(unit: string): string {
+  return unit === '1' || unit === '' ? '–' : unit;
+}
+
 export class TimeSeriesPlot {
   readonly root: HTMLElement;
+  private readonly resizeObserver: ResizeObserver;
+  private readonly heightPx: number;
+  private readonly minWidthPx: number;
   private plot: uPlot | null = null;
   private markerTimeS = Number.NaN;
   private readonly chartHost: HTMLElement;
@@ -26,10 +41,24 @@ export class TimeSeriesPlot {
     private readonly xLabel = 't, s',
     /** Draw each value as a point too (binned values, where a line alone would hide lone bins). */
     private readonly showPoints = false,
+    layout: PlotLayout = {},
   ) {
+    this.heightPx = layout.heightPx ?? 150;
+    this.minWidthPx = layout.minWidthPx ?? 240;
     this.chartHost = h('div', { className: 'plot-chart' });
     this.marker = h('div', { className: 'plot-marker', attrs: { 'aria-hidden': 'true' } });
-    this.root = h('figure', { className: 'plot', attrs: { 'data-plot': title } }, h('figcaption', { text: `${title}, ${unit}` }), this.chartHost);
+    const caption = shownUnit(unit) === '–' ? `${title} (dimensionless)` : `${title}, ${unit}`;
+    this.root = h('figure', { className: 'plot', attrs: { 'data-plot': title } }, h('figcaption', { text: caption }), this.chartHost);
+    // The chart follows its box, so a narrower window never pushes it past the page's edge.
+    let lastWidth = 0;
+    this.resizeObserver = new ResizeObserver(() => {
+      const width = this.width();
+      if (this.plot && width !== lastWidth) {
+        lastWidth = width;
+        this.resize();
+      }
+    });
+    this.resizeObserver.observe(this.chartHost);
   }
 
   /** Replaces the data: x in s, one array per series; all of equal length. */
@@ -67,10 +96,11 @@ export class TimeSeriesPlot {
 
   resize(): void {
     if (!this.plot) return;
-    this.plot.setSize({ width: this.width(), height: 150 });
+    this.plot.setSize({ width: this.width(), height: this.heightPx });
   }
 
   dispose(): void {
+    this.resizeObserver.disconnect();
     this.destroyChart();
   }
 
@@ -81,14 +111,14 @@ export class TimeSeriesPlot {
   }
 
   private width(): number {
-    return Math.max(240, this.chartHost.clientWidth || 320);
+    return Math.max(this.minWidthPx, this.chartHost.clientWidth || 320);
   }
 
   private options(): uPlot.Options {
-    const unit = this.unit;
+    const unit = shownUnit(this.unit);
     return {
       width: this.width(),
-      height: 150,
+      height: this.heightPx,
       legend: { show: true, live: false },
       cursor: { drag: { x: false, y: false } },
       scales: { x: { time: false } },
@@ -96,7 +126,7 @@ export class TimeSeriesPlot {
         { label: this.xLabel, size: 36, labelSize: 14 },
         { label: unit, size: 56, labelSize: 14 },
       ],
-      series: [{ label: this.xLabel }, ...this.series.map((s) => ({ label: `${s.label}, ${unit}`, stroke: s.colour, width: 1.5, spanGaps: this.showPoints, points: { show: this.showPoints, size: 6 } }))],
+      series: [{ label: this.xLabel }, ...this.series.map((s) => ({ label: unit === '–' ? s.label : `${s.label}, ${unit}`, stroke: s.colour, width: 1.5, spanGaps: this.showPoints, points: { show: this.showPoints, size: 6 } }))],
     };
   }
 }

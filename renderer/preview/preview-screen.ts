@@ -9,10 +9,12 @@ import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { TrajectoryPlayer } from '../view/trajectory-player.ts';
 import type { FromPreviewWorker, PreviewEpisodeSummary, ToPreviewWorker } from './preview-worker-protocol.ts';
-import { renderEpisodeFacts } from './episode-facts.ts';
+import { parameterTable, renderEpisodeFacts } from './episode-facts.ts';
 
 const DEFAULT_PREVIEW_COUNT = 4;
 const MAX_PREVIEW_COUNT = 12;
+/** Parameters a card lists; the rest are under This episode. */
+const CARD_PARAMETER_ROWS = 4;
 
 export class PreviewScreen implements Screen {
   readonly id = 'preview';
@@ -38,7 +40,7 @@ export class PreviewScreen implements Screen {
     this.countInput = h('input', { attrs: { type: 'number', min: '1', max: String(MAX_PREVIEW_COUNT), step: '1', value: String(DEFAULT_PREVIEW_COUNT), 'data-role': 'preview-count', 'aria-label': 'Episodes to draw' } });
     this.indexInput = h('input', { attrs: { type: 'number', min: '0', step: '1', value: '0', 'data-role': 'preview-index', 'aria-label': 'Episode index' } });
     this.episodeList = h('ol', { className: 'episode-cards', attrs: { 'data-role': 'preview-episodes' } });
-    this.facts = h('dl', { className: 'episode-facts', attrs: { 'data-role': 'episode-facts' } });
+    this.facts = h('div', { className: 'episode-facts', attrs: { 'data-role': 'episode-facts' } });
     this.progress = h('div', { className: 'sim-progress', attrs: { 'data-role': 'sim-progress' } });
     // A check that finishes while this screen shows brings the preview up to date.
     sweep.subscribe((change) => {
@@ -60,7 +62,7 @@ export class PreviewScreen implements Screen {
         button('Simulate', () => this.runEpisode(Number(this.indexInput.value)), { attrs: { 'data-role': 'preview-run' } }),
       ),
       this.status.root,
-      h('div', { className: 'preview-body' }, h('div', { className: 'preview-main' }, this.player.root, this.progress, this.plots.root), h('aside', { className: 'preview-side' }, h('h3', { text: 'Drawn episodes' }), this.episodeList, h('h3', { text: 'This episode' }), this.facts)),
+      h('div', { className: 'preview-body' }, h('div', { className: 'preview-main' }, this.player.root, this.progress, this.plots.root), h('aside', { className: 'preview-side', attrs: { tabindex: '0', 'aria-label': 'Drawn episodes and this episode\'s parameters (scrolls with the arrow keys when focused)' } }, h('h3', { text: 'Drawn episodes' }), this.episodeList, h('h3', { text: 'This episode' }), this.facts)),
     );
   }
 
@@ -195,16 +197,18 @@ export class PreviewScreen implements Screen {
   }
 
   private renderEpisodeCards(): void {
+    // The values that differ between the drawn episodes are what tells the cards apart.
+    const varying = new Set<string>();
+    const first = this.episodes[0]?.labels ?? {};
+    for (const e of this.episodes) for (const [k, v] of Object.entries(e.labels)) if (first[k] !== v) varying.add(k);
     this.episodeList.replaceChildren(
       ...this.episodes.map((e) => {
-        const drawn = Object.entries(e.labels).slice(0, 4).map(([k, v]) => `${k} = ${v}`).join(' · ');
         const card = h(
           'li',
           { attrs: { 'data-index': String(e.index) } },
-          button(`Episode ${e.index}`, () => this.runEpisode(e.index), { className: 'episode-pick', attrs: { 'data-role': 'pick-episode' } }),
-          h('span', { className: `split-badge split-${e.split}`, text: e.split }),
+          h('div', { className: 'episode-card-head' }, button(`Episode ${e.index}`, () => this.runEpisode(e.index), { className: 'episode-pick', attrs: { 'data-role': 'pick-episode' } }), h('span', { className: `split-badge split-${e.split}`, text: e.split })),
           h('div', { className: 'episode-card-facts', text: `${e.kind}, ${e.nodeCount} nodes, ${e.springCount} springs${e.cellCount ? `, ${e.cellCount} cells` : ''}` }),
-          drawn ? h('div', { className: 'episode-card-labels', text: drawn }) : null,
+          Object.keys(e.labels).length > 0 ? parameterTable(e.labels, 'card-parameters', CARD_PARAMETER_ROWS, varying) : null,
         );
         return card;
       }),

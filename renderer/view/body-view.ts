@@ -5,7 +5,7 @@
 import * as THREE from 'three';
 import type { BodyTopology, NodeSpringIncidence, SurfaceQuads } from './body-topology.ts';
 import { nodeSpringIncidence, surfaceQuads } from './body-topology.ts';
-import { writeDivergingColour, writeMaterialColour, writeSequentialColour } from './colour-scale.ts';
+import { materialPalette, writeDivergingColour, writeMaterialColour, writeSequentialColour } from './colour-scale.ts';
 
 /** 'error' colours a predicted body by each node's distance from the recorded one. */
 export type ColourMode = 'material' | 'actuator' | 'strain' | 'error';
@@ -42,6 +42,19 @@ export class BodyView {
    * A ghost body is drawn as a thin, see-through grey outline under another body (the recorded
    * motion under a model's prediction), so both can be told apart while they overlap.
    */
+  /** Materials the palette tells apart: every named one and every index a node or cell uses. */
+  get materialCount(): number {
+    if (this.materialCountCache < 0) {
+      let count = this.topology.materialNames.length;
+      for (const m of this.topology.nodeMaterial) if (m + 1 > count) count = m + 1;
+      for (const m of this.topology.cellMaterial) if (m + 1 > count) count = m + 1;
+      this.materialCountCache = count;
+    }
+    return this.materialCountCache;
+  }
+
+  private materialCountCache = -1;
+
   constructor(topology: BodyTopology, options: { ghost?: boolean } = {}) {
     this.topology = topology;
     this.quads = surfaceQuads(topology);
@@ -214,12 +227,13 @@ export class BodyView {
     if (mode === 'error') return; // coloured by showNodeMagnitudes, which has the error
     if (mode === 'strain') this.measureStrain(positionsM, offset);
     const nc = this.nodeColour;
+    const palette = materialPalette(this.materialCount);
     for (let i = 0; i < t.nodeCount; i++) {
       if (t.nodeFixed[i]) {
         nc[3 * i] = SUPPORT_COLOUR[0];
         nc[3 * i + 1] = SUPPORT_COLOUR[1];
         nc[3 * i + 2] = SUPPORT_COLOUR[2];
-      } else if (mode === 'material') writeMaterialColour(t.nodeMaterial[i], nc, 3 * i);
+      } else if (mode === 'material') writeMaterialColour(t.nodeMaterial[i], palette, nc, 3 * i);
       else if (mode === 'strain') writeDivergingColour(this.nodeStrain[i], strainLimit, nc, 3 * i);
       else writeDivergingColour(channelValue(t.nodeChannel[i], controls, controlOffset), 1, nc, 3 * i);
     }
@@ -234,7 +248,7 @@ export class BodyView {
       if (mode === 'strain') writeDivergingColour(this.springStrain[s], strainLimit, c, 0);
       else if (mode === 'material') {
         // A spring takes its material only when both ends agree; mixed springs stay plain.
-        writeMaterialColour(t.nodeMaterial[a] === t.nodeMaterial[b] ? t.nodeMaterial[a] : -1, c, 0);
+        writeMaterialColour(t.nodeMaterial[a] === t.nodeMaterial[b] ? t.nodeMaterial[a] : -1, palette, c, 0);
         c[0] *= 0.7;
         c[1] *= 0.7;
         c[2] *= 0.7;
@@ -272,7 +286,7 @@ export class BodyView {
         continue;
       }
       const cell = quadCell[f];
-      if (mode === 'material') writeMaterialColour(t.cellMaterial[cell], fc, o);
+      if (mode === 'material') writeMaterialColour(t.cellMaterial[cell], palette, fc, o);
       else writeDivergingColour(channelValue(t.cellChannel[cell], controls, controlOffset), 1, fc, o);
       for (let v = 1; v < 6; v++) {
         fc[o + 3 * v] = fc[o];

@@ -6,7 +6,7 @@ import { divergingGradientCss, materialCss, sequentialGradientCss } from './colo
 import { h } from '../ui/element.ts';
 
 /** `errorLimitM`: the error at the dark end of the scale in 'error' mode, m. */
-export function renderColourLegend(host: HTMLElement, mode: ColourMode, materialNames: string[], strainLimit: number, errorLimitM = 0): void {
+export function renderColourLegend(host: HTMLElement, mode: ColourMode, materialNames: string[], strainLimit: number, errorLimitM = 0, materialCount = materialNames.length): void {
   host.replaceChildren();
   host.setAttribute('data-mode', mode);
   if (mode === 'error') {
@@ -24,8 +24,8 @@ export function renderColourLegend(host: HTMLElement, mode: ColourMode, material
     host.append(h('div', { className: 'legend-title', text: 'Material' }));
     const names = materialNames.length > 0 ? materialNames : [];
     const list = h('ul', { className: 'legend-swatches' });
-    names.forEach((name, index) => list.append(swatchItem(materialCss(index), name)));
-    if (names.length === 0) list.append(swatchItem(materialCss(-1), 'one material (chain)'));
+    names.forEach((name, index) => list.append(swatchItem(materialCss(index, Math.max(materialCount, names.length)), name)));
+    if (names.length === 0) list.append(swatchItem(materialCss(-1, 1), 'one material (chain)'));
     list.append(swatchItem('rgb(38, 38, 46)', 'pinned or driven node'));
     host.append(list);
     return;

@@ -26,16 +26,47 @@ const SEQUENTIAL_STOPS = new Float32Array([
   0.33, 0.06, 0.30, // plum: at the limit or beyond
 ]);
 
-/** Categorical colours for materials, in order of material index. */
-const MATERIAL_PALETTE = new Float32Array([
-  0.20, 0.52, 0.60, // teal
-  0.85, 0.55, 0.20, // amber
-  0.45, 0.35, 0.65, // violet
-  0.55, 0.65, 0.25, // moss
-  0.75, 0.30, 0.40, // rose
-  0.35, 0.40, 0.45, // slate
-]);
-export const MATERIAL_PALETTE_SIZE = MATERIAL_PALETTE.length / 3;
+/**
+ * Categorical colours for `count` materials, in order of material index, display (sRGB) values.
+ * Hues are spread evenly round the CIELAB hue circle and the lightness steps through three
+ * levels, so neighbours in hue differ in lightness too and no two colours coincide however many
+ * materials a body has (a fixed list of six repeated from the seventh). Our own construction;
+ * the CIELAB → sRGB formulas are CIE 15:2004 and IEC 61966-2-1 (from memory).
+ */
+export function materialPalette(count: number): Float32Array {
+  const n = Math.max(1, Math.floor(count));
+  const cached = paletteCache.get(n);
+  if (cached) return cached;
+  const palette = new Float32Array(3 * n);
+  for (let i = 0; i < n; i++) {
+    const hueRad = ((PALETTE_START_HUE_DEG + (360 * i) / n) * Math.PI) / 180;
+    const lightness = n <= 2 ? PALETTE_LIGHTNESS[0] : PALETTE_LIGHTNESS[i % PALETTE_LIGHTNESS.length];
+    labToSrgb(lightness, PALETTE_CHROMA * Math.cos(hueRad), PALETTE_CHROMA * Math.sin(hueRad), palette, 3 * i);
+  }
+  paletteCache.set(n, palette);
+  return palette;
+}
+
+const PALETTE_START_HUE_DEG = 200; // the first material is the app's teal family
+const PALETTE_CHROMA = 42;
+const PALETTE_LIGHTNESS = [56, 74, 40] as const;
+const paletteCache = new Map<number, Float32Array>();
+
+/** CIELAB (D65 white) to display sRGB in 0…1, clipped to the gamut, into out[offset..offset+2]. */
+function labToSrgb(l: number, a: number, b: number, out: Float32Array, offset: number): void {
+  const fy = (l + 16) / 116;
+  const fx = fy + a / 500;
+  const fz = fy - b / 200;
+  const inverse = (f: number): number => (f > 6 / 29 ? f * f * f : 3 * (6 / 29) * (6 / 29) * (f - 4 / 29));
+  const x = 0.95047 * inverse(fx);
+  const y = inverse(fy);
+  const z = 1.08883 * inverse(fz);
+  const linear = [3.2406 * x - 1.5372 * y - 0.4986 * z, -0.9689 * x + 1.8758 * y + 0.0415 * z, 0.0557 * x - 0.204 * y + 1.057 * z];
+  for (let k = 0; k < 3; k++) {
+    const c = Math.min(1, Math.max(0, linear[k]));
+    out[offset + k] = c <= 0.0031308 ? 12.92 * c : 1.055 * Math.pow(c, 1 / 2.4) - 0.055;
+  }
+}
 
 /** Colour of nodes and springs that belong to no material (chains, unowned nodes). */
 const PLAIN = [0.78, 0.80, 0.76] as const;
@@ -72,24 +103,24 @@ export function writeSequentialColour(value: number, limit: number, out: Float32
   writeBetweenStops(SEQUENTIAL_STOPS, t, out, offset);
 }
 
-/** Writes the colour of material index m (−1: none) into out[offset..offset+2]. */
-export function writeMaterialColour(material: number, out: Float32Array, offset: number): void {
+/** Writes the colour of material index m (−1: none) from a materialPalette into out[offset..offset+2]. */
+export function writeMaterialColour(material: number, palette: Float32Array, out: Float32Array, offset: number): void {
   if (material < 0) {
     out[offset] = PLAIN[0];
     out[offset + 1] = PLAIN[1];
     out[offset + 2] = PLAIN[2];
     return;
   }
-  const a = 3 * (material % MATERIAL_PALETTE_SIZE);
-  out[offset] = MATERIAL_PALETTE[a];
-  out[offset + 1] = MATERIAL_PALETTE[a + 1];
-  out[offset + 2] = MATERIAL_PALETTE[a + 2];
+  const a = 3 * (material % (palette.length / 3));
+  out[offset] = palette[a];
+  out[offset + 1] = palette[a + 1];
+  out[offset + 2] = palette[a + 2];
 }
 
-/** CSS colour for a legend swatch of material m. */
-export function materialCss(material: number): string {
+/** CSS colour for a legend swatch of material m of `count`. */
+export function materialCss(material: number, count: number): string {
   const rgb = new Float32Array(3);
-  writeMaterialColour(material, rgb, 0);
+  writeMaterialColour(material, materialPalette(count), rgb, 0);
   return rgbCss(rgb);
 }
 

@@ -12,6 +12,10 @@ import type { StageWorld } from './stage-world.ts';
 export type { StageWorld } from './stage-world.ts';
 
 export const STAGE_BACKGROUND = 0xf4f1ea;
+/** One key press turns or tilts the camera this much, rad (10°). */
+const KEY_ORBIT_STEP_RAD = Math.PI / 18;
+/** One key press moves the camera this factor closer or further. */
+const KEY_ZOOM_FACTOR = 1.15;
 
 export class SceneView {
   readonly canvas: HTMLCanvasElement;
@@ -35,7 +39,9 @@ export class SceneView {
     this.canvas = document.createElement('canvas');
     this.canvas.className = 'stage-canvas';
     this.canvas.tabIndex = 0;
-    this.canvas.setAttribute('aria-label', '3-D view: drag to orbit, scroll to zoom');
+    this.canvas.setAttribute('aria-label', '3-D view: drag or A, D, W, S to orbit; scroll or + and − to zoom');
+    this.canvas.setAttribute('aria-keyshortcuts', 'A D W S + -');
+    this.canvas.addEventListener('keydown', (event) => this.onKey(event));
     host.append(this.canvas);
     // preserveDrawingBuffer keeps the last frame readable for snapshots and pixel checks.
     this.renderer = new THREE.WebGLRenderer({ canvas: this.canvas, antialias: !isSoftwareRendering(), preserveDrawingBuffer: true });
@@ -131,6 +137,28 @@ export class SceneView {
     this.camera.near = distance / 1000;
     this.camera.far = distance * 100;
     this.camera.updateProjectionMatrix();
+    this.controls.update();
+    this.requestRender();
+  }
+
+  /** Keyboard orbit and zoom on the focused view: A/D turn it, W/S tilt it, + and − zoom. */
+  private onKey(event: KeyboardEvent): void {
+    if (event.ctrlKey || event.metaKey || event.altKey) return;
+    const step = KEY_ORBIT_STEP_RAD;
+    const moves: Record<string, [number, number, number]> = {
+      a: [-step, 0, 1], d: [step, 0, 1], w: [0, -step, 1], s: [0, step, 1],
+      '+': [0, 0, 1 / KEY_ZOOM_FACTOR], '=': [0, 0, 1 / KEY_ZOOM_FACTOR], '-': [0, 0, KEY_ZOOM_FACTOR],
+    };
+    const move = moves[event.key.toLowerCase()];
+    if (!move) return;
+    event.preventDefault();
+    const offset = this.camera.position.clone().sub(this.controls.target);
+    const spherical = new THREE.Spherical().setFromVector3(offset);
+    spherical.theta += move[0];
+    spherical.phi = Math.min(Math.PI - 0.05, Math.max(0.05, spherical.phi + move[1]));
+    spherical.radius *= move[2];
+    this.camera.position.copy(this.controls.target).add(new THREE.Vector3().setFromSpherical(spherical));
+    this.camera.lookAt(this.controls.target);
     this.controls.update();
     this.requestRender();
   }

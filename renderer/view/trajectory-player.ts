@@ -27,6 +27,7 @@ export class TrajectoryPlayer {
   private readonly showNodes: HTMLInputElement;
   private readonly showSprings: HTMLInputElement;
   private readonly showFaces: HTMLInputElement;
+  private readonly showTiming: HTMLInputElement;
   private readonly rateReadout: HTMLElement;
   private body: BodyView | null = null;
   private frames: TrajectoryFrames | null = null;
@@ -54,6 +55,8 @@ export class TrajectoryPlayer {
     const stageHost = h('div', { className: 'stage', attrs: { 'data-role': 'stage' } });
     this.scene = new SceneView(stageHost);
     this.rateReadout = h('div', { className: 'draw-rate', attrs: { 'data-role': 'draw-rate' }, text: 'paused' });
+    // The timing readout is for whoever measures the drawing; off, it covers none of the view.
+    this.rateReadout.hidden = true;
     stageHost.append(this.rateReadout);
     this.legend = h('div', { className: 'legend', attrs: { 'data-role': 'legend' } });
     this.colourMode = select([['material', 'Material'], ['actuator', 'Actuator level'], ['strain', 'Strain'], ['error', 'Prediction error']], 'material', { 'data-role': 'colour-mode' });
@@ -63,6 +66,10 @@ export class TrajectoryPlayer {
     this.showNodes = checkbox(true, 'show-nodes');
     this.showSprings = checkbox(true, 'show-springs');
     this.showFaces = checkbox(true, 'show-faces');
+    this.showTiming = checkbox(false, 'show-timing');
+    this.showTiming.addEventListener('change', () => {
+      this.rateReadout.hidden = !this.showTiming.checked;
+    });
     for (const control of [this.colourMode, this.strainLimit]) control.addEventListener('change', () => this.recolour());
     for (const box of [this.showNodes, this.showSprings, this.showFaces]) box.addEventListener('change', () => this.applyVisibility());
     const options = h(
@@ -73,6 +80,7 @@ export class TrajectoryPlayer {
       labelled('Nodes', this.showNodes),
       labelled('Springs', this.showSprings),
       labelled('Cell skin', this.showFaces),
+      labelled('Frame timing', this.showTiming),
     );
     this.bar = new PlaybackBar({ changed: () => this.afterClockChange() });
     this.root = h('div', { className: 'player' }, h('div', { className: 'stage-row' }, stageHost, h('aside', { className: 'stage-side' }, options, this.legend)), this.bar.root);
@@ -170,6 +178,14 @@ export class TrajectoryPlayer {
   play(): void {
     if (!this.clock || this.clock.playing) return;
     this.clock.toggle();
+    this.afterClockChange();
+  }
+
+  /** Plays from the first frame. */
+  restart(): void {
+    if (!this.clock || !this.frames) return;
+    this.clock.seek(0, this.frames.filled);
+    if (!this.clock.playing) this.clock.toggle();
     this.afterClockChange();
   }
 
@@ -293,7 +309,7 @@ export class TrajectoryPlayer {
   private recolour(): void {
     const mode = this.colourMode.value as ColourMode;
     this.strainLimit.disabled = mode !== 'strain';
-    renderColourLegend(this.legend, mode, this.body?.topology.materialNames ?? [], Number(this.strainLimit.value), this.comparison?.limitM ?? 0);
+    renderColourLegend(this.legend, mode, this.body?.topology.materialNames ?? [], Number(this.strainLimit.value), this.comparison?.limitM ?? 0, this.body?.materialCount ?? 0);
     if (this.body && this.frames && this.shownFrame >= 0) {
       const offset = this.frames.positionOffset(this.shownFrame);
       const comparison = this.comparison;

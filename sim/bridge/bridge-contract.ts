@@ -81,6 +81,8 @@ export interface AppInfo {
   /** 'native': `folder.choose` opens the system dialog. 'in-page': the UI browses with `folder.browse` and confirms with `folder.allow`. */
   folderChoice: 'native' | 'in-page';
   platform: string;
+  /** Cores the jobs run on (os.availableParallelism()): the export's default and largest worker count, as on the command line. */
+  cpuCount: number;
   /** Shown on the export screen and in every dataset card. */
   safetyNotice: string;
   jobLimits: JobLimits;
@@ -186,8 +188,11 @@ export interface DatasetSummary {
   toolVersion: string;
   /** The dataset card (Markdown), including its safety caution. */
   cardMarkdown: string;
-  /** Arrays every episode carries, with one episode's shape; an extent that differs between episodes (nodes, springs) is -1. */
-  arrays: ArrayDescription[];
+  /**
+   * Arrays every episode carries, with one episode's shape; an extent that differs between
+   * episodes (nodes, springs) is -1, and `extentRanges` gives each axis's smallest and largest extent.
+   */
+  arrays: (ArrayDescription & { extentRanges: [number, number][] })[];
   /**
    * Label columns worth showing: the scalar labels (JSON pointers such as "/system/lengthM") whose
    * value differs between episodes. `dataset.episodes` also sorts by "episodeId", "split",
@@ -216,6 +221,8 @@ export interface EpisodeFilter {
   split?: DatasetSplit;
   /** Case-insensitive substring matched against the episode id and string labels. */
   text?: string;
+  /** Every range must hold: the numeric label `key` lies in [min, max] (an end left out is open); rows without a number there are left out. */
+  ranges?: { key: string; min?: number; max?: number }[];
 }
 
 export interface EpisodeQuery {
@@ -580,6 +587,8 @@ export interface JsonSchema {
   enum?: readonly (string | number | boolean)[];
   minimum?: number;
   maximum?: number;
+  items?: JsonSchema;
+  maxItems?: number;
 }
 
 const SCHEMA_DIALECT = 'https://json-schema.org/draft/2020-12/schema';
@@ -680,6 +689,20 @@ export const REQUEST_ARGUMENT_SCHEMAS: { readonly [K in RequestName]: JsonSchema
         properties: {
           split: splitSchema(),
           text: { type: 'string', maxLength: 200 },
+          ranges: {
+            type: 'array',
+            maxItems: 64,
+            items: {
+              type: 'object',
+              properties: {
+                key: { type: 'string', minLength: 1, maxLength: 512, pattern: '^[A-Za-z0-9_.:/~-]+$' },
+                min: { type: 'number' },
+                max: { type: 'number' },
+              },
+              required: ['key'],
+              additionalProperties: false,
+            },
+          },
         },
         additionalProperties: false,
       },

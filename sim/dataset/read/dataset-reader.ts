@@ -22,6 +22,9 @@ export interface ArraySummary {
   dtype: StoredDtype;
   /** One episode's shape; an extent that differs between episodes (nodes, springs, cells) is -1. */
   shape: number[];
+  /** Smallest and largest extent of each axis over the episodes (equal where the shape has no -1). */
+  minShape: number[];
+  maxShape: number[];
   unit: string;
 }
 
@@ -172,6 +175,8 @@ function commonArrays(manifest: DatasetManifest): ArraySummary[] {
   const result: ArraySummary[] = [];
   for (const first of episodes[0].values()) {
     const shape = [...first.shape];
+    const minShape = [...first.shape];
+    const maxShape = [...first.shape];
     let everywhere = true;
     for (const arrays of episodes) {
       const other = arrays.get(first.name);
@@ -179,9 +184,14 @@ function commonArrays(manifest: DatasetManifest): ArraySummary[] {
         everywhere = false;
         break;
       }
-      for (let axis = 0; axis < shape.length; axis += 1) if (other.shape[axis] !== shape[axis]) shape[axis] = -1;
+      for (let axis = 0; axis < shape.length; axis += 1) {
+        const extent = other.shape[axis];
+        if (extent !== shape[axis]) shape[axis] = -1;
+        if (extent < minShape[axis]) minShape[axis] = extent;
+        if (extent > maxShape[axis]) maxShape[axis] = extent;
+      }
     }
-    if (everywhere) result.push({ name: first.name, dtype: first.dtype, shape, unit: first.unit });
+    if (everywhere) result.push({ name: first.name, dtype: first.dtype, shape, minShape, maxShape, unit: first.unit });
   }
   return result;
 }

@@ -1,5 +1,5 @@
 // The episode table of a dataset as the app pages through it: one row per manifest record (id,
-// split, status and its scalar labels), sorted by any column, filtered by split and text, and cut
+// split, status and its scalar labels), sorted by any column, filtered by split, text and numeric ranges, and cut
 // into pages. Built once per manifest from the records alone, so listing never opens a data file;
 // each column's sort order is computed the first time it is asked for and kept, so turning pages
 // of a large dataset costs a filter pass, not a sort.
@@ -22,7 +22,14 @@ export interface EpisodeListQuery {
   limit: number;
   sortKey?: string;
   descending?: boolean;
-  filter?: { split?: string; text?: string };
+  filter?: { split?: string; text?: string; ranges?: readonly LabelRange[] };
+}
+
+/** Keeps rows whose numeric label `key` lies in [min, max] (either end may be left open); a row without a number there is left out. */
+export interface LabelRange {
+  key: string;
+  min?: number;
+  max?: number;
 }
 
 export interface EpisodeListPage {
@@ -87,7 +94,8 @@ export class EpisodeListing {
     const order = this.orderBy(query.sortKey ?? 'episodeId');
     const split = query.filter?.split;
     const text = query.filter?.text?.trim().toLowerCase() ?? '';
-    const matches = (row: ListedEpisode): boolean => (split === undefined || row.split === split) && (text === '' || rowHasText(row, text));
+    const ranges = query.filter?.ranges ?? [];
+    const matches = (row: ListedEpisode): boolean => (split === undefined || row.split === split) && (text === '' || rowHasText(row, text)) && ranges.every((r) => inRange(row.labels[r.key], r));
     const picked: ListedEpisode[] = [];
     let total = 0;
     const count = order.length;
@@ -113,6 +121,11 @@ export class EpisodeListing {
     this.orders.set(key, order);
     return order;
   }
+}
+
+function inRange(value: ScalarLabel | undefined, range: LabelRange): boolean {
+  if (typeof value !== 'number') return false;
+  return (range.min === undefined || value >= range.min) && (range.max === undefined || value <= range.max);
 }
 
 function rowHasText(row: ListedEpisode, lowerText: string): boolean {
