@@ -8,7 +8,6 @@ import type { StepKernel } from '../core/step-kernel-choice.ts';
 
 export const benchCommand: CliCommand = {
   name: 'bench',
-  summary: 'measure simulation and export throughput (one JSON line per case)',
   usage: [
     'Usage: pliant bench [--case NAME]... [--kernel js|wasm]',
     '',

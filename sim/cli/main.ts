@@ -70,11 +70,12 @@ export async function runCli(argv: string[], io: CliIo = defaultIo()): Promise<n
     io.stdout(`${PLIANT_VERSION}\n`);
     return 0;
   }
-  const command = COMMANDS.find((c) => c.name === name);
-  if (!command) {
+  const entry = COMMANDS.find((c) => c.name === name);
+  if (!entry) {
     io.stderr(`pliant: unknown command "${name}"${didYouMean(name, COMMANDS.map((c) => c.name))}. Commands: ${COMMANDS.map((c) => c.name).join(', ')}. Run \`pliant --help\`.\n`);
     return 2;
   }
+  const command = await entry.load();
   if (rest.includes('--help') || rest.includes('-h')) {
     io.stdout(`${command.usage.trimEnd()}\n`);
     return 0;

@@ -9,7 +9,6 @@ import { verifyDataset } from '../dataset/verify-dataset.ts';
 
 export const verifyCommand: CliCommand = {
   name: 'verify',
-  summary: 'check a dataset folder: manifest schema and every SHA-256',
   usage: [
     'Usage: pliant verify DIR',
     '',
