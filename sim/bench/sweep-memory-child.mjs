@@ -1,17 +1,27 @@
 // Child process of the sweep-memory measurement: runs one `pliant generate` in this fresh
 // process and prints, as one JSON line, the process's peak resident memory (main thread and
 // worker threads share one address space, so this is all of it). Plain JavaScript because it
-// must register the TypeScript loader before it can load the command line.
+// starts the command line as the `pliant` launcher does: from its prebuilt bundle
+// (sim/cli/cli-bundle.mjs), or through the TypeScript loader where that cannot be built.
 //
 // Arguments: SCENARIO, then the generate flags (--out DIR --episodes N …). The scenario is
 // first checked on its own (`pliant validate`), which compiles the scenario schema, the largest
 // start-up cost; on Linux the high-water mark is then reset (/proc/self/clear_refs, "5"), so
 // the second figure covers the sweep alone and is not hidden under that start-up peak.
 import { readFileSync, writeFileSync } from 'node:fs';
-import { register } from 'tsx/esm/api';
+import { pathToFileURL } from 'node:url';
+import { bundledCliEntry } from '../cli/cli-bundle.mjs';
 
-register();
-const { runCli, defaultIo } = await import('../cli/main.ts');
+const bundled = await bundledCliEntry();
+let cli;
+if (bundled !== undefined) {
+  cli = await import(pathToFileURL(bundled).href);
+} else {
+  const { register } = await import('tsx/esm/api');
+  register();
+  cli = await import('../cli/main.ts');
+}
+const { runCli, defaultIo } = cli;
 
 function highWaterKib() {
   try {
