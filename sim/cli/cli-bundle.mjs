@@ -28,6 +28,9 @@ export const CHECKOUT_ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const RECIPE = 'pliant-cli-bundle 1; esm, node20, splitting, packages external, import.meta.url → source URL';
 
 const ENTRY = 'sim/cli/main.ts';
+/** Writes the scenario checker's code at build time (sim/scenario/prebuilt-scenario-checker.ts). */
+const CHECKER_CODE_ENTRY = 'sim/cli/scenario-checker-code.ts';
+export const CHECKER_FILE = 'scenario-checker.cjs';
 const POINTER_FILE = 'current.json';
 /** Bundles other than the current one are removed once this old (a running process may still load chunks from one). */
 const STALE_BUNDLE_AGE_MS = 24 * 3600 * 1000;
@@ -111,7 +114,7 @@ export async function buildBundle(root, cacheDir) {
   };
   const result = await esbuild.build({
     absWorkingDir: root,
-    entryPoints: [ENTRY],
+    entryPoints: [ENTRY, CHECKER_CODE_ENTRY],
     bundle: true,
     splitting: true,
     platform: 'node',
@@ -141,6 +144,7 @@ export async function buildBundle(root, cacheDir) {
     mkdirSync(dirname(target), { recursive: true });
     writeFileSync(target, file.contents);
   }
+  await writeScenarioChecker(privateDir);
   try {
     renameSync(privateDir, finalDir);
   } catch {
@@ -152,6 +156,25 @@ export async function buildBundle(root, cacheDir) {
   renameSync(pointerTemp, join(cacheDir, POINTER_FILE));
   removeStaleBundles(cacheDir, key);
   return join(finalDir, entry);
+}
+
+/**
+ * Runs the freshly built checker-code entry once and writes the checker it returns beside the
+ * bundle. Without it (an error here) the bundle still works: ajv then compiles at run time.
+ */
+async function writeScenarioChecker(bundleDir) {
+  try {
+    const { scenarioCheckerModuleCode } = await import(pathToFileURL(join(bundleDir, 'scenario-checker-code.mjs')).href);
+    writeFileSync(join(bundleDir, CHECKER_FILE), scenarioCheckerModuleCode());
+  } catch (error) {
+    if (process.env.PLIANT_CLI_BUNDLE_DEBUG) process.stderr.write(`pliant: no prebuilt scenario checker, ajv compiles at run time: ${error?.message ?? error}\n`);
+  }
+}
+
+/** Hands the bundle's prebuilt scenario checker, where there is one, to the bundled CLI (loaded on first use). */
+export function usePrebuiltChecker(bundle, entryPath) {
+  const checker = join(dirname(entryPath), CHECKER_FILE);
+  bundle.usePrebuiltScenarioChecker(() => createRequire(import.meta.url)(checker));
 }
 
 function removeStaleBundles(cacheDir, keep) {

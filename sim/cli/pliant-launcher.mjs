@@ -4,12 +4,14 @@
 // PLIANT_CLI_TSX=1 asks for it, the TypeScript sources through the tsx loader.
 // Kept as plain JavaScript so `npx pliant` works straight after `npm install`, with no build step.
 import { pathToFileURL } from 'node:url';
-import { bundledCliEntry } from './cli-bundle.mjs';
+import { bundledCliEntry, usePrebuiltChecker } from './cli-bundle.mjs';
 
 const bundled = process.env.PLIANT_CLI_TSX === '1' ? undefined : await bundledCliEntry();
 let runCli;
 if (bundled !== undefined) {
-  ({ runCli } = await import(pathToFileURL(bundled).href));
+  const bundle = await import(pathToFileURL(bundled).href);
+  usePrebuiltChecker(bundle, bundled);
+  ({ runCli } = bundle);
 } else {
   const { register } = await import('tsx/esm/api');
   register();
