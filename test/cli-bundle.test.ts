@@ -4,9 +4,10 @@
 // messages depend on ajv's schema nodes) — and files found beside the sources (the Python
 // loader) must still be found. Its cache must follow the sources' contents, not their times:
 // an edited source builds a new bundle, a touched one does not, and two builds at once leave
-// one working bundle. Everything is compared with the tsx path or with files on disk; no timing.
+// one working bundle. Datasets written through the bundle (its own episode worker) are byte for
+// byte those of the tsx path. Everything is compared with the tsx path or files on disk; no timing.
 import { spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readFileSync, readdirSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -70,6 +71,41 @@ describe('the bundled CLI answers as the tsx path does', () => {
     const run = pliant(['loader'], false);
     expect(run.status).toBe(0);
     expect(run.stdout).toBe(readFileSync(join(ROOT, 'sim/dataset/python/pliant_data.py'), 'utf8'));
+  });
+});
+
+/** Every file under `dir`, by relative path. */
+function filesUnder(dir: string, prefix = ''): string[] {
+  return readdirSync(join(dir, prefix), { withFileTypes: true }).flatMap((entry) =>
+    entry.isDirectory() ? filesUnder(dir, join(prefix, entry.name)) : [join(prefix, entry.name)]).sort();
+}
+
+describe('datasets from the bundled CLI and its bundled episode worker', () => {
+  it('are byte for byte those of the tsx path (two workers; the manifest but for its run record)', () => {
+    const out = (name: string) => join(work, name);
+    const args = (dir: string) => ['generate', 'scenarios/korrin-tether.json', '--out', dir, '--episodes', '3', '--workers', '2', '--format', 'npz', '--progress', 'none'];
+    const bundled = pliant(args(out('dataset-bundled')), false);
+    const tsx = pliant(args(out('dataset-tsx')), true);
+    expect(bundled.stderr).toBe('');
+    expect(bundled.status).toBe(0);
+    expect(tsx.status).toBe(0);
+    const files = filesUnder(out('dataset-bundled'));
+    expect(filesUnder(out('dataset-tsx'))).toEqual(files);
+    expect(files.filter((f) => f.endsWith('.npz')).length).toBe(3);
+    for (const file of files) {
+      const a = readFileSync(join(out('dataset-bundled'), file));
+      const b = readFileSync(join(out('dataset-tsx'), file));
+      if (file !== 'manifest.json') {
+        expect(a.equals(b), file).toBe(true);
+        continue;
+      }
+      const withoutRun = (bytes: Buffer) => {
+        const manifest = JSON.parse(bytes.toString('utf8'));
+        delete manifest.run;
+        return manifest;
+      };
+      expect(withoutRun(a)).toEqual(withoutRun(b));
+    }
   });
 });
 
@@ -137,6 +173,6 @@ describe('`npx pliant` from a checkout with no bundle yet', () => {
     expect(existsSync(join(cache, 'current.json'))).toBe(true);
     const pointer = JSON.parse(readFileSync(join(cache, 'current.json'), 'utf8')) as { key: string; inputs: string[] };
     expect(pointer.inputs).toContain('sim/cli/main.ts');
-    expect(existsSync(join(cache, pointer.key, 'main.mjs'))).toBe(true);
+    for (const part of ['main.mjs', 'episode-worker.mjs', 'scenario-checker.cjs']) expect(existsSync(join(cache, pointer.key, part)), part).toBe(true);
   });
 });

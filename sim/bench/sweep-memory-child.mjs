@@ -10,13 +10,13 @@
 // the second figure covers the sweep alone and is not hidden under that start-up peak.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
-import { bundledCliEntry, usePrebuiltChecker } from '../cli/cli-bundle.mjs';
+import { bundledCliEntry, connectPrebuiltParts } from '../cli/cli-bundle.mjs';
 
 const bundled = await bundledCliEntry();
 let cli;
 if (bundled !== undefined) {
   cli = await import(pathToFileURL(bundled).href);
-  usePrebuiltChecker(cli, bundled);
+  connectPrebuiltParts(cli, bundled);
 } else {
   const { register } = await import('tsx/esm/api');
   register();

@@ -12,3 +12,5 @@ export function currentBundle(root: string, cacheDir: string): string | undefine
 export function buildBundle(root: string, cacheDir: string): Promise<string>;
 /** The current bundle, built first if needed; undefined where it cannot be built. */
 export function bundledCliEntry(root?: string, cacheDir?: string): Promise<string | undefined>;
+/** Hands the prebuilt scenario checker and episode worker of the bundle at `entryPath` to the imported bundle. */
+export function connectPrebuiltParts(bundle: { usePrebuiltScenarioChecker(load: () => unknown): void; usePrebuiltEpisodeWorker(url: URL): void }, entryPath: string): void;

@@ -25,12 +25,15 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 export const CHECKOUT_ROOT = fileURLToPath(new URL('../../', import.meta.url));
 
 /** Raise when the build recipe below changes, so bundles built by an older recipe are not reused. */
-const RECIPE = 'pliant-cli-bundle 1; esm, node20, splitting, packages external, import.meta.url → source URL';
+const RECIPE = 'pliant-cli-bundle 2; esm, node20, splitting, packages external, import.meta.url → source URL';
 
 const ENTRY = 'sim/cli/main.ts';
 /** Writes the scenario checker's code at build time (sim/scenario/prebuilt-scenario-checker.ts). */
 const CHECKER_CODE_ENTRY = 'sim/cli/scenario-checker-code.ts';
 export const CHECKER_FILE = 'scenario-checker.cjs';
+/** The episode pool's worker thread, compiled with the rest (sim/dataset/episode-worker-source.ts). */
+const EPISODE_WORKER_ENTRY = 'sim/dataset/episode-worker.ts';
+const EPISODE_WORKER_FILE = 'episode-worker.mjs';
 const POINTER_FILE = 'current.json';
 /** Bundles other than the current one are removed once this old (a running process may still load chunks from one). */
 const STALE_BUNDLE_AGE_MS = 24 * 3600 * 1000;
@@ -114,7 +117,7 @@ export async function buildBundle(root, cacheDir) {
   };
   const result = await esbuild.build({
     absWorkingDir: root,
-    entryPoints: [ENTRY, CHECKER_CODE_ENTRY],
+    entryPoints: [ENTRY, CHECKER_CODE_ENTRY, EPISODE_WORKER_ENTRY],
     bundle: true,
     splitting: true,
     platform: 'node',
@@ -171,10 +174,14 @@ async function writeScenarioChecker(bundleDir) {
   }
 }
 
-/** Hands the bundle's prebuilt scenario checker, where there is one, to the bundled CLI (loaded on first use). */
-export function usePrebuiltChecker(bundle, entryPath) {
+/**
+ * Hands the bundle's prebuilt parts to the bundled CLI just imported from `entryPath`: the
+ * scenario checker, where there is one (loaded on first use), and the episode worker.
+ */
+export function connectPrebuiltParts(bundle, entryPath) {
   const checker = join(dirname(entryPath), CHECKER_FILE);
   bundle.usePrebuiltScenarioChecker(() => createRequire(import.meta.url)(checker));
+  bundle.usePrebuiltEpisodeWorker(pathToFileURL(join(dirname(entryPath), EPISODE_WORKER_FILE)));
 }
 
 function removeStaleBundles(cacheDir, keep) {

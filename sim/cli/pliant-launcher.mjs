@@ -4,13 +4,13 @@
 // PLIANT_CLI_TSX=1 asks for it, the TypeScript sources through the tsx loader.
 // Kept as plain JavaScript so `npx pliant` works straight after `npm install`, with no build step.
 import { pathToFileURL } from 'node:url';
-import { bundledCliEntry, usePrebuiltChecker } from './cli-bundle.mjs';
+import { bundledCliEntry, connectPrebuiltParts } from './cli-bundle.mjs';
 
 const bundled = process.env.PLIANT_CLI_TSX === '1' ? undefined : await bundledCliEntry();
 let runCli;
 if (bundled !== undefined) {
   const bundle = await import(pathToFileURL(bundled).href);
-  usePrebuiltChecker(bundle, bundled);
+  connectPrebuiltParts(bundle, bundled);
   ({ runCli } = bundle);
 } else {
   const { register } = await import('tsx/esm/api');
