@@ -58,10 +58,10 @@ export const latticeScalingCase: MultiLineBenchmarkCase = {
       fileName: 'lattice-scaling.svg',
       title: 'Reference block: spring updates per CPU second against size',
       sizeLabel: 'lattice cells',
-      valueLabel: 'spring updates per CPU second',
+      valueLabel: 'million spring updates per CPU second',
       series: STEP_KERNELS.map((kernel) => {
         const mine = points.filter((p) => p.kernel === kernel);
-        return { name: kernel === 'js' ? 'JavaScript kernel' : 'WebAssembly kernel', sizes: mine.map((p) => p.size), values: mine.map((p) => p.springUpdatesPerCpuS) };
+        return { name: kernel === 'js' ? 'JavaScript kernel' : 'WebAssembly kernel', sizes: mine.map((p) => p.size), values: mine.map((p) => p.springUpdatesPerCpuS / 1e6) };
       }),
     }, options);
     const lines = scalingLines(points, 'cells');
