@@ -140,7 +140,7 @@ describe('the bundle cache follows the sources', () => {
     expect(currentBundle(copy, cache)).toBe(second);
   });
 
-  it('keys by path and content only', () => {
+  it('keys by paths and contents (and the checkout), in any order', () => {
     const dir = join(work, 'keys');
     mkdirSync(dir, { recursive: true });
     writeFileSync(join(dir, 'a.ts'), 'export const a = 1;\n');

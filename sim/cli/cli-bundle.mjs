@@ -35,6 +35,8 @@ export const CHECKER_FILE = 'scenario-checker.cjs';
 const EPISODE_WORKER_ENTRY = 'sim/dataset/episode-worker.ts';
 const EPISODE_WORKER_FILE = 'episode-worker.mjs';
 const POINTER_FILE = 'current.json';
+/** TypeScript settings esbuild applies while compiling (class fields, import elision). */
+const TS_SETTINGS = ['tsconfig.json', 'tsconfig.base.json'];
 /** Bundles other than the current one are removed once this old (a running process may still load chunks from one). */
 const STALE_BUNDLE_AGE_MS = 24 * 3600 * 1000;
 
@@ -46,9 +48,12 @@ export function cliCacheDir(env = process.env) {
   return env.PLIANT_CLI_CACHE || join(CHECKOUT_ROOT, 'node_modules', '.cache', 'pliant-cli');
 }
 
-function keyOf(pairs) {
+function keyOf(root, pairs) {
   const hash = createHash('sha256');
   hash.update(RECIPE);
+  // The checkout's own path too: the bundle names its sources' URLs, so it is only this checkout's.
+  hash.update('\0');
+  hash.update(root);
   for (const [path, bytes] of [...pairs].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0))) {
     hash.update('\0');
     hash.update(path);
@@ -59,11 +64,11 @@ function keyOf(pairs) {
 }
 
 /**
- * The key of a bundle: SHA-256 over the recipe and each input's path (relative to `root`, sorted)
- * and bytes. Throws when an input cannot be read (a file deleted since the bundle was built).
+ * The key of a bundle: SHA-256 over the recipe, the checkout's path `root` and each input's path
+ * (relative to `root`, sorted) and bytes. Throws when an input cannot be read (a file deleted since the bundle was built).
  */
 export function bundleKey(root, inputs) {
-  return keyOf(inputs.map((path) => [path, readFileSync(join(root, path))]));
+  return keyOf(root, inputs.map((path) => [path, readFileSync(join(root, path))]));
 }
 
 /** The entry module of the current bundle if its sources are unchanged, else undefined. */
@@ -134,9 +139,17 @@ export async function buildBundle(root, cacheDir) {
     logLevel: 'silent',
     plugins: [sourceUrls],
   });
+  // esbuild also reads the TypeScript settings, which no onLoad sees.
+  for (const settings of TS_SETTINGS) {
+    try {
+      inputs.set(settings, readFileSync(join(root, settings)));
+    } catch {
+      // Not in this checkout (a copy of sim/ alone).
+    }
+  }
   const inputPaths = [...inputs.keys()].sort();
   // The key is of the bytes esbuild compiled, so an edit made during the build is not hidden.
-  const key = keyOf(inputs.entries());
+  const key = keyOf(root, inputs.entries());
   const outRoot = join(root, 'bundle');
   const entry = 'main.mjs';
   mkdirSync(cacheDir, { recursive: true });
