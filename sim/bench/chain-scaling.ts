@@ -2,7 +2,7 @@
 // definition with 64 to 65,536 nodes): spring updates per second should stay flat while the
 // model's arrays fit in the caches and drop once they do not. Each size runs about the same
 // number of spring updates (CHAIN_SCALING_UPDATES), JavaScript and WebAssembly kernels, the
-// median of three runs each. One line per size and kernel:
+// median of three runs each, after a few untimed steps. One line per size and kernel:
 //   {"case":"chain-scaling","kernel":…,"nodes":…,"springs":…,"model_kib":…,"steps":…,"spring_updates_per_s":…,"spring_updates_per_cpu_s":…,"relative_to_best":…}
 // model_kib is the bytes of the model's typed arrays (positions, velocities, masses, springs…);
 // relative_to_best compares the per-CPU-second rate with the best size of the same kernel. The
@@ -22,6 +22,7 @@ export const CHAIN_SCALING_NODES = [64, 256, 1024, 4096, 16_384, 65_536] as cons
 /** Spring updates per run: some 0.3 to 1 s of JavaScript stepping on the development machine. */
 export const CHAIN_SCALING_UPDATES = 20_000_000;
 const REPEATS = 3;
+const WARM_UP_STEPS = 4;
 
 export interface ScalingPoint {
   kernel: StepKernel;
@@ -46,6 +47,8 @@ function measureChain(nodes: number, kernel: StepKernel): ScalingPoint {
     modelBytes = typedArrayBytes(model);
     steps = Math.max(1, Math.round(CHAIN_SCALING_UPDATES / springs));
     const simulator = new Simulator(model, defaultWorld(), { kernel });
+    // Untimed: the first steps fault in fresh memory (the WebAssembly copy of a large model).
+    simulator.advanceSteps(CHAIN_1024_DT_S, WARM_UP_STEPS);
     const cpuStart = process.cpuUsage();
     const start = performance.now();
     simulator.advanceSteps(CHAIN_1024_DT_S, steps);
