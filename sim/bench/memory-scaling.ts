@@ -4,7 +4,9 @@
 // state, so the peak should not grow with the count. PLIANT_BENCH_MEMORY_SCALING_EPISODES
 // gives other counts, e.g. 100,1000,10000,100000 (10,000 takes minutes, 100,000 about an hour
 // on the development machine). One line per count:
-//   {"case":"memory-scaling","episodes":…,"peak_rss_mb":…,"sweep_peak_rss_mb":…,"seconds":…,"episodes_per_s":…}
+// The child starts the CLI through tsx unless PLIANT_CLI_TSX=0 asks for the bundle the launcher
+// runs (sweep-memory-child.mjs says why); "start" names which.
+//   {"case":"memory-scaling","start":"tsx"|"bundle","episodes":…,"peak_rss_mb":…,"sweep_peak_rss_mb":…,"seconds":…,"episodes_per_s":…}
 // The chart is memory-scaling.svg in the bench output folder (the last line's "chart").
 import { MAX_EPISODES } from '../scenario/scenario-limits.ts';
 import type { MultiLineBenchmarkCase } from './benchmark-case.ts';
@@ -29,6 +31,7 @@ export const memoryScalingCase: MultiLineBenchmarkCase = {
       peaks.push(megabytes(measured.peakBytes));
       sweepPeaks.push(measured.sweepPeakBytes === null ? NaN : megabytes(measured.sweepPeakBytes));
       lines.push({
+        start: process.env.PLIANT_CLI_TSX === '0' ? 'bundle' : 'tsx',
         episodes,
         workers: WORKERS,
         peak_rss_mb: megabytes(measured.peakBytes),

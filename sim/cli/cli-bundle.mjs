@@ -1,7 +1,9 @@
-// The prebuilt `pliant` command line: sim/cli/main.ts and everything it imports from the checkout,
-// compiled by esbuild into a few ES modules in a cache folder, so a start runs JavaScript instead
-// of compiling TypeScript file by file (tsx) as before. Plain JavaScript, because it runs before
-// any TypeScript can be loaded.
+// The prebuilt `pliant` command line: sim/cli/main.ts, the episode worker and everything they
+// import from the checkout, compiled by esbuild into ES modules in a cache folder (split into
+// chunks, so each command loads only its own code), plus the scenario checker written ahead of
+// time by ajv. A start then runs JavaScript instead of compiling TypeScript file by file (tsx)
+// and the whole schema (ajv) as before. Plain JavaScript, because it runs before any TypeScript
+// can be loaded.
 //
 // The cache is keyed by the contents of the bundle's own source files (the ones esbuild read), not
 // their modification times, which a checkout or a copy does not keep. A start reads those files
