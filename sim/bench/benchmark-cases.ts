@@ -1,5 +1,5 @@
 // Every case `pliant bench` runs, in order.
-import type { BenchmarkCase } from './benchmark-case.ts';
+import type { BenchmarkCase, MultiLineBenchmarkCase } from './benchmark-case.ts';
 import { chain1024Case } from './chain-1024.ts';
 import { chain1024NativeCase } from './chain-1024-native.ts';
 import { chain1024JsVsNativeCase } from './chain-1024-js-vs-native.ts';
@@ -14,8 +14,12 @@ import { exportHdf5Cases, exportNpzCases } from './pipeline-export.ts';
 import { sweepMemoryCase } from './sweep-memory.ts';
 import { scoreThroughputCase } from './score-throughput.ts';
 import { calibrateTetherCase } from './calibrate-tether.ts';
+import { cliStartCase } from './cli-start.ts';
+import { chainScalingCase } from './chain-scaling.ts';
+import { latticeScalingCase } from './lattice-scaling.ts';
+import { memoryScalingCase } from './memory-scaling.ts';
 
-export const BENCHMARK_CASES: BenchmarkCase[] = [
+export const BENCHMARK_CASES: Array<BenchmarkCase | MultiLineBenchmarkCase> = [
   chain1024Case,
   chain1024NativeCase,
   chain1024JsVsNativeCase,
@@ -31,4 +35,8 @@ export const BENCHMARK_CASES: BenchmarkCase[] = [
   sweepMemoryCase,
   scoreThroughputCase,
   calibrateTetherCase,
+  cliStartCase,
+  chainScalingCase,
+  latticeScalingCase,
+  memoryScalingCase,
 ];

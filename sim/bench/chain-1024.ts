@@ -25,12 +25,17 @@ export function buildChain1024(): Model {
 
 /** The builder of buildChain1024 before build(), for cases that add to the chain. */
 export function buildChain1024Builder(): ModelBuilder {
+  return buildReferenceChainBuilder(CHAIN_1024_NODES);
+}
+
+/** The reference chain's definition with `nodes` nodes instead of 1,024 (the scaling case). */
+export function buildReferenceChainBuilder(nodes: number): ModelBuilder {
   const builder = new ModelBuilder(8, 2, 0);
-  for (let i = 0; i < CHAIN_1024_NODES; i++) {
+  for (let i = 0; i < nodes; i++) {
     builder.addNode({ positionM: [0.01 * i, 0, 0], massKg: 0.01, flags: i === 0 ? NODE_PINNED : 0 });
   }
-  for (let i = 0; i + 1 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 1, 200, 0.05, RELATION_STRUCTURAL, 0.01);
-  for (let i = 0; i + 2 < CHAIN_1024_NODES; i++) builder.addSpring(i, i + 2, 20, 0.005, RELATION_SECOND_NEIGHBOUR, 0.02);
+  for (let i = 0; i + 1 < nodes; i++) builder.addSpring(i, i + 1, 200, 0.05, RELATION_STRUCTURAL, 0.01);
+  for (let i = 0; i + 2 < nodes; i++) builder.addSpring(i, i + 2, 20, 0.005, RELATION_SECOND_NEIGHBOUR, 0.02);
   return builder;
 }
 

@@ -28,7 +28,11 @@ const LATTICE_MATERIALS: LatticeMaterial[] = [
 ];
 
 export function buildLattice8x8x8(): Model {
-  const n = LATTICE_CELLS_PER_SIDE;
+  return buildReferenceLattice(LATTICE_CELLS_PER_SIDE);
+}
+
+/** The reference block's definition with `n` cells per side instead of 8 (the scaling case). */
+export function buildReferenceLattice(n: number): Model {
   // Layers [y][z][x], bottom first: material 1 below half height, material 2 above.
   const map: MaterialMap3D = Array.from({ length: n }, (_, y) =>
     Array.from({ length: n }, () => Array.from({ length: n }, () => (y < n / 2 ? 1 : 2))));

@@ -154,7 +154,6 @@ async function runPredict(parsed: ParsedArguments, io: CliIo): Promise<number> {
 
 export const baselineCommand: CliCommand = {
   name: 'baseline',
-  summary: 'fit reference models (persistence, linear DMDc, grey-box) and write their predictions',
   usage: USAGE,
   async run(args, io) {
     const [action, ...rest] = args;

@@ -19,7 +19,6 @@ import { shownPath } from './shown-path.ts';
 
 export const calibrateCommand: CliCommand = {
   name: 'calibrate',
-  summary: 'fit a scenario\'s free parameters to a bench measurement and write a scenario around the fit',
   usage: [
     'Usage: pliant calibrate SCENARIO MEASUREMENT --out FITTED.json [options]',
     '',

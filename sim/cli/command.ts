@@ -1,4 +1,5 @@
-// The shape of one `pliant` sub-command: its name, one-line summary, usage text and runner.
+// The shape of one `pliant` sub-command: its name, usage text and runner (its one-line summary
+// is in the command table, sim/cli/commands.ts, so the help needs no command module).
 // Runners return the process exit code; user mistakes are reported through CliUsageError, other
 // expected failures through their own PliantError, and main.ts turns each kind into an exit code.
 import { PliantError } from '../errors/pliant-error.ts';
@@ -14,7 +15,6 @@ export interface CliIo {
 
 export interface CliCommand {
   name: string;
-  summary: string;
   usage: string;
   run(args: string[], io: CliIo): Promise<number>;
 }

@@ -20,7 +20,6 @@ const DEMO_SCENARIOS = fileURLToPath(new URL('../../scenarios/', import.meta.url
 
 export const demoCommand: CliCommand = {
   name: 'demo',
-  summary: 'generate the Korrin Bay demo datasets (tether, fin, eel) and show how to load them',
   usage: [
     'Usage: pliant demo [--out DIR] [--workers W] [--progress bar|json|none]',
     '',

@@ -21,7 +21,6 @@ import { stopOnInterrupt } from './interrupt-stop.ts';
 
 export const generateCommand: CliCommand = {
   name: 'generate',
-  summary: 'write a labelled, split, checksummed dataset (or one shard) from a scenario',
   usage: [
     'Usage: pliant generate SCENARIO --out DIR [--episodes N] [--seed S] [--workers W]',
     '                       [--shard I/N | --shard auto [--shard-count N]] [--format npz|hdf5|both]',

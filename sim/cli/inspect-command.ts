@@ -24,7 +24,6 @@ function table(rows: string[][]): string[] {
 
 export const inspectCommand: CliCommand = {
   name: 'inspect',
-  summary: 'summarise a dataset folder: splits, parameter ranges, sizes, rejected episodes',
   usage: [
     'Usage: pliant inspect DIR [--json]',
     '',

@@ -11,7 +11,6 @@ import { PYTHON_LOADER_FILE_NAME, pythonLoaderSource } from '../dataset/card/pyt
 
 export const loaderCommand: CliCommand = {
   name: 'loader',
-  summary: `print or write the Python loader for datasets (${PYTHON_LOADER_FILE_NAME}: NumPy, optional h5py and PyTorch)`,
   usage: [
     'Usage: pliant loader [--out PATH]',
     '',

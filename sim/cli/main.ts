@@ -8,6 +8,11 @@ import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import { didYouMean } from './closest-name.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 
+// The prebuilt command line hands its ahead-of-time scenario checker and its bundled episode
+// worker in through these (sim/cli/cli-bundle.mjs).
+export { usePrebuiltScenarioChecker } from '../scenario/prebuilt-scenario-checker.ts';
+export { usePrebuiltEpisodeWorker } from '../dataset/episode-worker-source.ts';
+
 export function defaultIo(): CliIo {
   return {
     stdout: (text) => process.stdout.write(text),
@@ -71,11 +76,12 @@ export async function runCli(argv: string[], io: CliIo = defaultIo()): Promise<n
     io.stdout(`${PLIANT_VERSION}\n`);
     return 0;
   }
-  const command = COMMANDS.find((c) => c.name === name);
-  if (!command) {
+  const entry = COMMANDS.find((c) => c.name === name);
+  if (!entry) {
     io.stderr(`pliant: unknown command "${name}"${didYouMean(name, COMMANDS.map((c) => c.name))}. Commands: ${COMMANDS.map((c) => c.name).join(', ')}. Run \`pliant --help\`.\n`);
     return 2;
   }
+  const command = await entry.load();
   if (rest.includes('--help') || rest.includes('-h')) {
     io.stdout(`${command.usage.trimEnd()}\n`);
     return 0;

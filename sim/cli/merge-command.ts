@@ -11,7 +11,6 @@ import { mergeShards } from '../dataset/write/merge-shards.ts';
 
 export const mergeCommand: CliCommand = {
   name: 'merge',
-  summary: 'join the shard folders of an array job into one dataset',
   usage: [
     'Usage: pliant merge SHARD_DIR... --out DIR [--force]',
     '',

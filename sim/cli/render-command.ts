@@ -35,7 +35,6 @@ function speedOption(text: string): number {
 
 export const renderCommand: CliCommand = {
   name: 'render',
-  summary: 'draw one episode of a dataset as an animated GIF or a PNG sequence',
   usage: [
     'Usage: pliant render DATASET --episode ID (--out FILE.gif | --frames DIR)',
     '                     [--view side|above|both] [--size WxH] [--speed S] [--every K]',

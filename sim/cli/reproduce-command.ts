@@ -14,7 +14,6 @@ import { MANIFEST_FILE } from '../dataset/manifest/dataset-files.ts';
 
 export const reproduceCommand: CliCommand = {
   name: 'reproduce',
-  summary: 'regenerate a dataset from its seed.json and compare it file by file',
   usage: [
     'Usage: pliant reproduce DIR/seed.json --out DIR2 [--workers W] [--force] [--progress bar|json|none]',
     '',

@@ -22,7 +22,6 @@ function threshold(text: string): number {
 
 export const scoreCommand: CliCommand = {
   name: 'score',
-  summary: 'score a model\'s predicted trajectories against a dataset: score.json, REPORT.md, charts',
   usage: [
     'Usage: pliant score DATASET PREDICTIONS --out REPORT_DIR [options]',
     '',

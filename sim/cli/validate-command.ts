@@ -9,7 +9,6 @@ import { findThinLatticeWarnings } from '../scenario/thin-lattice-warnings.ts';
 
 export const validateCommand: CliCommand = {
   name: 'validate',
-  summary: 'check a scenario file and list every problem with line:column and JSON pointer',
   usage: [
     'Usage: pliant validate SCENARIO',
     '',

@@ -10,7 +10,6 @@ import { verifyDataset } from '../dataset/read/verify-dataset.ts';
 
 export const verifyCommand: CliCommand = {
   name: 'verify',
-  summary: 'check a dataset folder: manifest schema and every SHA-256',
   usage: [
     'Usage: pliant verify DIR',
     '',

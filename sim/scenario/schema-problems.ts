@@ -11,19 +11,25 @@ import { closestName } from './closest-name.ts';
 import { pointerSegments } from './json-source-map.ts';
 import { SCENARIO_SCHEMA } from './scenario-schema.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
+import { prebuiltScenarioChecker } from './prebuilt-scenario-checker.ts';
+
+/**
+ * allowUnionTypes: some values are "a whole number or a string"; strictTypes would refuse
+ * them. optimize: false halves the cold compile of this large schema (1.1 s instead of
+ * 2.1 s on the 2-core reference machine) for a validation that runs once per file.
+ * inlineRefs: false keeps each shared $defs entry one function instead of a copy per use
+ * (the point of sharing them); verbose gives each error its schema node, which is how
+ * absoluteSchemaPath tells which definition an error's relative path lies in. The prebuilt
+ * checker (prebuilt-scenario-checker.ts) is compiled with these same options.
+ */
+export const SCENARIO_AJV_OPTIONS = { allErrors: true, useDefaults: true, strict: true, allowUnionTypes: true, inlineRefs: false, verbose: true, code: { optimize: false } } as const;
 
 let compiled: ValidateFunction | undefined;
 
 function validator(): ValidateFunction {
   if (compiled === undefined) {
-    // allowUnionTypes: some values are "a whole number or a string"; strictTypes would refuse
-    // them. optimize: false halves the cold compile of this large schema (1.1 s instead of
-    // 2.1 s on the 2-core reference machine) for a validation that runs once per file.
-    // inlineRefs: false keeps each shared $defs entry one function instead of a copy per use
-    // (the point of sharing them); verbose gives each error its schema node, which is how
-    // absoluteSchemaPath tells which definition an error's relative path lies in.
-    const ajv = new Ajv2020({ allErrors: true, useDefaults: true, strict: true, allowUnionTypes: true, inlineRefs: false, verbose: true, code: { optimize: false } });
-    compiled = ajv.compile(SCENARIO_SCHEMA);
+    const prebuilt = prebuiltScenarioChecker();
+    compiled = prebuilt !== undefined ? prebuilt((path) => nodeAt(SCENARIO_SCHEMA, path)) : new Ajv2020(SCENARIO_AJV_OPTIONS).compile(SCENARIO_SCHEMA);
   }
   return compiled;
 }

@@ -6,7 +6,7 @@
 // worker's code is bundled once per process with esbuild (the compiler tsx itself runs on every
 // file) into one ES module, started from a data: URL, as the packaged app runs it. Where esbuild
 // cannot be loaded or the bundle fails, workers start through the loader as before, which costs
-// only the memory and time above.
+// only the memory and time above. The prebuilt command line brings its own bundle of the worker.
 import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
 
@@ -18,10 +18,20 @@ interface Bundler {
 }
 
 let chosen: URL | undefined;
+let prebuilt: URL | undefined;
+
+/**
+ * The prebuilt command line (sim/cli/cli-bundle.mjs) compiles the worker with the rest of the CLI
+ * into its cache and hands its module in here, so no start bundles the worker again.
+ */
+export function usePrebuiltEpisodeWorker(url: URL): void {
+  prebuilt = url;
+  chosen = undefined;
+}
 
 /** The URL to start an episode worker from; the bundle is made on the first call only. */
 export function episodeWorkerUrl(): URL {
-  chosen ??= import.meta.url.endsWith('.ts') ? bundledWorker() ?? ENTRY_URL : ENTRY_URL;
+  chosen ??= prebuilt ?? (import.meta.url.endsWith('.ts') ? bundledWorker() ?? ENTRY_URL : ENTRY_URL);
   return chosen;
 }
 
