@@ -33,8 +33,8 @@ const ENTRY = 'sim/cli/main.ts';
 /** Writes the scenario checker's code at build time (sim/scenario/prebuilt-scenario-checker.ts). */
 const CHECKER_CODE_ENTRY = 'sim/cli/scenario-checker-code.ts';
 export const CHECKER_FILE = 'scenario-checker.cjs';
-/** The episode pool's worker thread, compiled with the rest (sim/dataset/episode-worker-source.ts). */
-const EPISODE_WORKER_ENTRY = 'sim/dataset/episode-worker.ts';
+/** The episode pool's worker thread, compiled with the rest (sim/dataset/write/episode-worker-source.ts). */
+const EPISODE_WORKER_ENTRY = 'sim/dataset/write/episode-worker.ts';
 const EPISODE_WORKER_FILE = 'episode-worker.mjs';
 const POINTER_FILE = 'current.json';
 /** TypeScript settings esbuild applies while compiling (class fields, import elision). */

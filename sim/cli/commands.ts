@@ -3,7 +3,7 @@
 // table, and a command does not pay for the libraries of the others (ajv, h5wasm, three).
 // Add new commands here.
 import type { CliCommand } from './command.ts';
-import { PYTHON_LOADER_FILE_NAME } from '../dataset/python-loader-source.ts';
+import { PYTHON_LOADER_FILE_NAME } from '../dataset/card/python-loader-source.ts';
 
 export interface CommandEntry {
   name: string;

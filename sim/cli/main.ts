@@ -11,7 +11,7 @@ import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 // The prebuilt command line hands its ahead-of-time scenario checker and its bundled episode
 // worker in through these (sim/cli/cli-bundle.mjs).
 export { usePrebuiltScenarioChecker } from '../scenario/prebuilt-scenario-checker.ts';
-export { usePrebuiltEpisodeWorker } from '../dataset/episode-worker-source.ts';
+export { usePrebuiltEpisodeWorker } from '../dataset/write/episode-worker-source.ts';
 
 export function defaultIo(): CliIo {
   return {
