@@ -5,6 +5,7 @@
 // follows the schema beside the value and checks each place that is a value spec (a $ref to a
 // shared valueSpec-* definition) whose value no schema problem lies at or under.
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
+import { isLinkedValue } from './linked-parameters.ts';
 import { SCENARIO_SCHEMA } from './scenario-schema.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 
@@ -27,8 +28,9 @@ export function findRangeProblemsBesideSchema(value: unknown, schemaProblems: re
     const pointer = pointerOfSegments(segments);
     const ref = typeof schema.$ref === 'string' ? schema.$ref : '';
     if (VALUE_SPEC_REF.test(ref)) {
-      // Only distributions: a plain number is fully judged by the schema.
-      if (!isNode(instance) || found.has(pointer) || touchesProblem(pointer)) return;
+      // Only distributions: a plain number is fully judged by the schema, and a {"ref"} or
+      // {"expr"} of the named parameters by linked-parameters.ts.
+      if (!isNode(instance) || isLinkedValue(instance) || found.has(pointer) || touchesProblem(pointer)) return;
       found.set(pointer, findValueSpecProblems(instance, pointer).map((p) => ({ pointer: p.pointer, message: `${p.message}; ${p.fix}` })));
       return;
     }
