@@ -48,7 +48,9 @@ export class AllowedFolders {
 
   /** Throws 'path-refused' when `real` (a real path) lies outside the web-mode root folder. */
   refuseOutsideConfinement(requested: string, real: string): void {
-    if (this.confinedTo === null || isInside(this.confinedTo, real)) return;
+    // Pliant's own bundled examples may be browsed and opened wherever the root is: they are
+    // read-only (resolve() refuses every write inside them), so they widen nothing a page could harm.
+    if (this.confinedTo === null || isInside(this.confinedTo, real) || this.readOnlyRoots.some((root) => isInside(root, real))) return;
     throw new RequestError(
       'path-refused',
       `${shown(requested)} is outside ${shown(this.confinedTo)}, the root folder this web-mode server was started with. Pick a folder inside it, or stop the server and start it again with --root naming a folder that holds yours.`,

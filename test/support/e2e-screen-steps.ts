@@ -38,8 +38,13 @@ export async function scenarioText(page: Page): Promise<string> {
 export async function replaceScenarioText(page: Page, text: string): Promise<void> {
   await page.click('[data-nav="sweep"]');
   await page.click('[data-role="tab-text"]');
-  // The JSON view is a CodeMirror editor: its editable element takes the text as typed input.
-  await page.fill('[data-role="json-text"] .cm-content', text);
+  // The JSON view is a CodeMirror editor: select everything with the editor's own Ctrl+A (so the
+  // editor knows the selection before the text arrives), then type the text over it, as a person
+  // would. (A fill selects through the DOM, which the editor learns of only on the next
+  // selectionchange; text arriving before that is edited by the browser itself.)
+  await page.click('[data-role="json-text"] .cm-content');
+  await page.keyboard.press('Control+A');
+  await page.keyboard.insertText(text);
   await waitInPage(page, `['ok', 'problems'].includes(document.querySelector('[data-role="problem-summary"]')?.getAttribute('data-state'))`, 30_000);
   // The settle delay passes before the check starts; wait for the check of this text.
   await page.waitForTimeout(500);
