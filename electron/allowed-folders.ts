@@ -8,6 +8,7 @@
 // remembered between starts.
 import { realpath, stat } from 'node:fs/promises';
 import { basename, dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
+
 import type { FolderPurpose } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 

@@ -2,9 +2,10 @@
 // pliant://app/..., read-only, with our CSP on every response. It takes a fetch Request and
 // returns a fetch Response, so it runs (and is tested) without Electron.
 import { readFile } from 'node:fs/promises';
+
 import { APP_HOST } from './app-scheme.ts';
-import { contentTypeFor } from './content-types.ts';
 import { CONTENT_SECURITY_POLICY } from './content-security-policy.ts';
+import { contentTypeFor } from './content-types.ts';
 import { resolveStaticFile } from './static-file-resolver.ts';
 
 /** Reads only the method and the URL, so it also takes raw URLs no fetch Request would carry unnormalised. */

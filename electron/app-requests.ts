@@ -1,5 +1,6 @@
 // Handler for app.info: what the renderer needs to know about the shell it runs in.
 import { availableParallelism } from 'node:os';
+
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import type { HandlerTable } from './handler-table.ts';
 import type { RequestServices } from './request-services.ts';

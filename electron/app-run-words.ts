@@ -1,8 +1,8 @@
 // How the app words the dataset run's settings in messages (sim/dataset/formats/run-words.ts): the app has
 // no command-line flags, so a message names what the person sees on the Export screen instead
 // — the "Resume a cancelled export in this folder" tick box and the dataset folder name.
-import { neutralMessageOf, wordRun } from '../sim/dataset/formats/run-words.ts';
 import type { RunWords } from '../sim/dataset/formats/run-words.ts';
+import { neutralMessageOf, wordRun } from '../sim/dataset/formats/run-words.ts';
 
 /** The Export screen's tick box (renderer/export/export-screen.ts), quoted as it reads there. */
 const RESUME_BOX = '"Resume a cancelled export in this folder"';

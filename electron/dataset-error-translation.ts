@@ -5,10 +5,10 @@
 // a user's mistake is invalid-arguments, the environment's is io-error, a bug is internal. The
 // pipeline's messages already say what, where and how to fix it; only their first letter and
 // final full stop are adjusted to read as sentences.
-import { PliantError } from '../sim/errors/pliant-error.ts';
-import type { ErrorKind } from '../sim/errors/pliant-error.ts';
-import type { ErrorReport } from '../sim/errors/error-report.ts';
 import type { RequestErrorCode } from '../sim/bridge/bridge-contract.ts';
+import type { ErrorReport } from '../sim/errors/error-report.ts';
+import type { ErrorKind } from '../sim/errors/pliant-error.ts';
+import { PliantError } from '../sim/errors/pliant-error.ts';
 import { appMessageOf } from './app-run-words.ts';
 import { RequestError } from './request-error.ts';
 

@@ -4,10 +4,11 @@
 // below; `pipeline` lets tests replace single parts.
 import { realpath } from 'node:fs/promises';
 import { resolve } from 'node:path';
+
 import { AllowedFolders } from './allowed-folders.ts';
 import { createNodeFileAccess } from './node-file-access.ts';
-import { simPipelineServices } from './pipeline-seams.ts';
 import type { PipelineServices } from './pipeline-seams.ts';
+import { simPipelineServices } from './pipeline-seams.ts';
 import type { FolderChooser, RequestServices } from './request-services.ts';
 import { createWorkerJobRunner } from './worker-job-runner.ts';
 

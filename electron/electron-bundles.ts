@@ -5,10 +5,11 @@
 // checkout (sim/dataset/jobs/app-worker-urls.ts, episode-pool.ts, sim/identify/score/score-worker-url.ts,
 // sim/render/render-worker-url.ts): the same `new URL('./…',
 // import.meta.url)` then finds the bundled worker in dist/electron.
-import { build } from 'esbuild';
-import type { BuildOptions } from 'esbuild';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+
+import type { BuildOptions } from 'esbuild';
+import { build } from 'esbuild';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 

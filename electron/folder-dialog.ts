@@ -1,8 +1,10 @@
 // The desktop app's folder chooser: the system's folder dialog, worded for what the folder is
 // for. Whatever the person picks here is what the allowed-folder list then lets requests touch;
 // the dialog function is injected so this runs without Electron.
-import type { OpenDialogOptions, OpenDialogReturnValue } from 'electron';
 import { dirname } from 'node:path';
+
+import type { OpenDialogOptions, OpenDialogReturnValue } from 'electron';
+
 import type { FolderPurpose } from '../sim/bridge/bridge-contract.ts';
 import type { FolderChooser } from './request-services.ts';
 

@@ -4,11 +4,12 @@
 // with folder.browse and confirms one with folder.allow; the session token already proves the
 // caller is the person who started the server, and both stay inside the root folder the server
 // was started with (allowed-folders.ts), so a compromised page cannot allow `/` for itself.
-import { basename, dirname, join } from 'node:path';
 import { realpath } from 'node:fs/promises';
+import { basename, dirname, join } from 'node:path';
+
+import type { FolderListing } from '../sim/bridge/bridge-contract.ts';
 import { refuseUnsafeSpelling, shown } from './allowed-folders.ts';
 import type { HandlerTable } from './handler-table.ts';
-import type { FolderListing } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 import type { RequestServices } from './request-services.ts';
 

@@ -3,8 +3,8 @@
 // registry sees the message, and one forwarder that sends registry events to the window.
 import type { BridgeEvent, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
 import type { RequestHandlers } from './request-handlers.ts';
-import { isTrustedSenderFrame } from './sender-frame-check.ts';
 import type { SenderFrame } from './sender-frame-check.ts';
+import { isTrustedSenderFrame } from './sender-frame-check.ts';
 
 /** The part of Electron's IpcMainInvokeEvent the shell reads. */
 export interface InvokeEventLike {

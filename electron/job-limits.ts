@@ -3,6 +3,7 @@
 // memory. Jobs beyond `runningJobs` wait in a queue; an export's worker threads are capped at
 // the core count, since threads beyond the cores only add memory and switching, not speed.
 import { availableParallelism } from 'node:os';
+
 import type { JobLimits } from '../sim/bridge/bridge-contract.ts';
 
 /**

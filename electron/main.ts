@@ -4,16 +4,18 @@
 import { realpath } from 'node:fs/promises';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+
 import { app, BrowserWindow, dialog, ipcMain, Menu, protocol, session } from 'electron';
+
+import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL } from '../sim/bridge/bridge-contract.ts';
 import { appMenuTemplate } from './app-menu.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
 import { APP_ENTRY_URL, APP_SCHEME, APP_SCHEME_REGISTRATION, isAppUrl } from './app-scheme.ts';
-import { IPC_EVENT_CHANNEL, IPC_REQUEST_CHANNEL } from '../sim/bridge/bridge-contract.ts';
-import { SAFETY_NOTICE } from './safety-notice.ts';
 import { createDefaultServices } from './default-services.ts';
 import { createNativeFolderChooser } from './folder-dialog.ts';
 import { createIpcRequestListener, forwardEvents } from './ipc-shell.ts';
 import { createRequestHandlers } from './request-handlers.ts';
+import { SAFETY_NOTICE } from './safety-notice.ts';
 import { guardSession } from './session-guard.ts';
 import { guardWebContents } from './web-contents-guard.ts';
 import { mainWindowOptions } from './window-options.ts';

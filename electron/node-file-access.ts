@@ -4,6 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { readdir, readFile, rename, stat, unlink, writeFile } from 'node:fs/promises';
 import { homedir } from 'node:os';
 import { basename, dirname, join } from 'node:path';
+
 import { shown } from './allowed-folders.ts';
 import { RequestError } from './request-error.ts';
 import type { FileAccess } from './request-services.ts';

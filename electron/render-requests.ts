@@ -5,6 +5,7 @@
 // to the job runner.
 import { lstat } from 'node:fs/promises';
 import { dirname } from 'node:path';
+
 import { shown } from './allowed-folders.ts';
 import type { HandlerTable } from './handler-table.ts';
 import { RequestError } from './request-error.ts';

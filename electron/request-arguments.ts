@@ -1,10 +1,11 @@
 // Checks a request's argument object against its JSON Schema (draft 2020-12, ajv) before any
 // handler sees it, and words each refusal so the caller learns which key is wrong and how to fix
 // it. Schemas live in the bridge contract so the renderer can read the same rules.
-import Ajv2020 from 'ajv/dist/2020.js';
 import type { ErrorObject, ValidateFunction } from 'ajv';
-import { REQUEST_ARGUMENT_SCHEMAS, REQUEST_NAMES } from '../sim/bridge/bridge-contract.ts';
+import Ajv2020 from 'ajv/dist/2020.js';
+
 import type { JsonSchema, RequestArgs, RequestName } from '../sim/bridge/bridge-contract.ts';
+import { REQUEST_ARGUMENT_SCHEMAS, REQUEST_NAMES } from '../sim/bridge/bridge-contract.ts';
 import { RequestError } from './request-error.ts';
 
 /** Keys that would reach an object's prototype machinery if a handler ever spread or merged args. */

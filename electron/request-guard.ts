@@ -10,6 +10,7 @@
 //   cross-site is refused as well, for browsers that send it.
 // - API requests must carry the per-start session token, compared in constant time.
 import { timingSafeEqual } from 'node:crypto';
+
 import type { RequestErrorCode } from '../sim/bridge/bridge-contract.ts';
 
 export type GuardVerdict = { ok: true } | { ok: false; status: 401 | 403; code: RequestErrorCode; message: string };

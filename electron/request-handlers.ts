@@ -2,8 +2,8 @@
 // (name, args) exactly as they arrived from the renderer; it checks the name, validates the
 // arguments against the contract schema, runs the handler and always answers with a reply
 // object. It never throws and never lets a stack trace out.
-import { isRequestName, REQUEST_NAMES } from '../sim/bridge/bridge-contract.ts';
 import type { BridgeEvent, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
+import { isRequestName, REQUEST_NAMES } from '../sim/bridge/bridge-contract.ts';
 import { appRequests } from './app-requests.ts';
 import { datasetRequests } from './dataset-requests.ts';
 import { folderRequests } from './folder-requests.ts';

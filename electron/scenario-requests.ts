@@ -1,6 +1,7 @@
 // Handlers for the scenario requests: list the bundled examples, read and write scenario files
 // in allowed folders, and check scenario text with the pipeline's checker.
 import { join } from 'node:path';
+
 import { BRIDGE_LIMITS } from '../sim/bridge/bridge-contract.ts';
 import { shown } from './allowed-folders.ts';
 import type { HandlerTable } from './handler-table.ts';

@@ -1,12 +1,13 @@
 // The DatasetReader seam filled with the dataset pipeline's reader (sim/dataset/read/dataset-reader.ts):
 // summaries and episode pages from the manifest, one episode's arrays from its NPZ file or HDF5
 // group, and verification by the same code as `pliant verify`, run in a worker thread.
-import { inAppWords } from './app-run-words.ts';
 import { stat } from 'node:fs/promises';
+
 import { compareDatasetFolders } from '../sim/dataset/read/dataset-comparison.ts';
 import { readDatasetOverview } from '../sim/dataset/read/dataset-overview.ts';
 import { DatasetReader as SimDatasetReader } from '../sim/dataset/read/dataset-reader.ts';
 import { shown } from './allowed-folders.ts';
+import { inAppWords } from './app-run-words.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
 import { encodeArray } from './encoded-array.ts';
 import { RequestError } from './request-error.ts';

@@ -4,12 +4,13 @@
 // calibration report. Sizes are checked before anything is read, and a file that is there but
 // wrong is reported as such ('invalid-dataset'), never shown as if it were good.
 import { readFile, stat } from 'node:fs/promises';
+
+import type { CalibrationReport, ScoreDocumentView } from '../sim/bridge/bridge-contract.ts';
 import { containedPath } from '../sim/dataset/formats/contained-path.ts';
 import { decodeNpz } from '../sim/dataset/formats/npz.ts';
 import { scoreProblems } from '../sim/identify/score/score-check.ts';
 import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
 import { shown } from './allowed-folders.ts';
-import type { CalibrationReport, ScoreDocumentView } from '../sim/bridge/bridge-contract.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
 import { encodeArray } from './encoded-array.ts';
 import { RequestError } from './request-error.ts';

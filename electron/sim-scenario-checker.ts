@@ -1,7 +1,7 @@
 // The ScenarioChecker seam filled with the scenario pipeline's own checker (sim/scenario), so
 // scenario.check in the app reports exactly what `pliant check` reports on the command line.
-import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import type { ScenarioProblem } from '../sim/bridge/bridge-contract.ts';
+import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import type { ScenarioChecker } from './request-services.ts';
 
 export const SIM_SCENARIO_CHECKER: ScenarioChecker = {

@@ -8,6 +8,7 @@
 // result must still lie inside the folder.
 import { realpath, stat } from 'node:fs/promises';
 import { join } from 'node:path';
+
 import { isInside } from './allowed-folders.ts';
 
 export type StaticLookup =

@@ -4,9 +4,10 @@
 // asking again for a folder already being checked shares that check, and only a few run at once,
 // so repeated clicks (or a hostile page) cannot start a thread per request.
 import { Worker } from 'node:worker_threads';
+
 import type { VerifyByFileReport } from '../sim/dataset/read/verify-by-file.ts';
+import { type ErrorReport,ReportedError } from '../sim/errors/error-report.ts';
 import { translateDatasetError } from './dataset-error-translation.ts';
-import { ReportedError, type ErrorReport } from '../sim/errors/error-report.ts';
 
 type FromVerifyWorker = { type: 'report'; report: VerifyByFileReport } | { type: 'failed'; error: ErrorReport };
 

@@ -12,9 +12,10 @@ import { existsSync, readFileSync } from 'node:fs';
 import { realpath, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { SAFETY_NOTICE } from './safety-notice.ts';
+
 import { createDefaultServices } from './default-services.ts';
 import { createRequestHandlers } from './request-handlers.ts';
+import { SAFETY_NOTICE } from './safety-notice.ts';
 import { startWebServer } from './web-server.ts';
 
 const repoRoot = fileURLToPath(new URL('..', import.meta.url));

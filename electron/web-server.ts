@@ -7,16 +7,17 @@
 //          POST /api/request/<name>       JSON argument object in, RequestReply out
 //          GET  /api/events?session=...   Server-Sent Events, one `job.progress` event per update
 import { randomBytes } from 'node:crypto';
-import { realpath, readFile } from 'node:fs/promises';
-import { createServer } from 'node:http';
+import { readFile,realpath } from 'node:fs/promises';
 import type { IncomingMessage, ServerResponse } from 'node:http';
+import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { BRIDGE_LIMITS, WEB_EVENTS_PATH, WEB_REQUEST_PREFIX, WEB_TOKEN_HEADER, WEB_TOKEN_PARAM } from '../sim/bridge/bridge-contract.ts';
+
 import type { RequestErrorCode } from '../sim/bridge/bridge-contract.ts';
-import { contentTypeFor } from './content-types.ts';
+import { BRIDGE_LIMITS, WEB_EVENTS_PATH, WEB_REQUEST_PREFIX, WEB_TOKEN_HEADER, WEB_TOKEN_PARAM } from '../sim/bridge/bridge-contract.ts';
 import { CONTENT_SECURITY_POLICY } from './content-security-policy.ts';
-import type { RequestHandlers } from './request-handlers.ts';
+import { contentTypeFor } from './content-types.ts';
 import { checkHostAndOrigin, checkToken } from './request-guard.ts';
+import type { RequestHandlers } from './request-handlers.ts';
 import { resolveStaticFile } from './static-file-resolver.ts';
 
 export const WEB_HOST = '127.0.0.1';

@@ -6,6 +6,7 @@
 // (job-limits.ts).
 import { randomUUID } from 'node:crypto';
 import { Worker } from 'node:worker_threads';
+
 import type { JobKind, JobLimits, JobProgress, JobState } from '../sim/bridge/bridge-contract.ts';
 import { inAppWords } from './app-run-words.ts';
 import { defaultJobLimits } from './job-limits.ts';

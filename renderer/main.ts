@@ -2,20 +2,21 @@
 // shared sweep, and shows the Sweep screen. Failing to connect is shown in the page with what to
 // do, never as a blank window.
 import './pliant.css';
-import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
+
 import type { AppInfo } from '../sim/bridge/bridge-contract.ts';
-import { connectBridge } from './bridge/connect-bridge.ts';
-import type { PliantBridge } from './bridge/pliant-bridge.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import { AppShell } from './app/app-shell.ts';
 import { SweepDocument } from './app/sweep-document.ts';
+import { connectBridge } from './bridge/connect-bridge.ts';
+import type { PliantBridge } from './bridge/pliant-bridge.ts';
 import { DatasetsScreen } from './datasets/datasets-screen.ts';
 import { ExportScreen } from './export/export-screen.ts';
 import { PreviewScreen } from './preview/preview-screen.ts';
 import { ScoresScreen } from './scores/scores-screen.ts';
 import { SeedScreen } from './seed/seed-screen.ts';
 import { SweepScreen } from './sweep/sweep-screen.ts';
-import { pickFolderInPage } from './ui/folder-picker-dialog.ts';
 import { h } from './ui/element.ts';
+import { pickFolderInPage } from './ui/folder-picker-dialog.ts';
 
 async function start(host: HTMLElement): Promise<void> {
   let bridge: PliantBridge;

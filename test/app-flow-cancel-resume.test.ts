@@ -5,10 +5,12 @@
 import { existsSync, mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
-import { cutDownScenario, runPliant, startDesktopSession } from './support/app-flow-session.ts';
 import type { AppSession } from './support/app-flow-session.ts';
+import { cutDownScenario, runPliant, startDesktopSession } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

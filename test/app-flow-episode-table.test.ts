@@ -4,9 +4,10 @@
 // descending reverses the whole order) and Python's str.lower() for the case-insensitive text
 // filter. The records are invented Korrin Bay eel-swimmer episodes, made up for this test only.
 import { describe, expect, it } from 'vitest';
+
 import type { EpisodeRecord } from '../sim/dataset/manifest/dataset-manifest.ts';
-import { EpisodeListing, UnknownSortKeyError } from '../sim/dataset/read/episode-listing.ts';
 import type { EpisodeListQuery } from '../sim/dataset/read/episode-listing.ts';
+import { EpisodeListing, UnknownSortKeyError } from '../sim/dataset/read/episode-listing.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

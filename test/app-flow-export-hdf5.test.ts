@@ -6,9 +6,11 @@
 import { mkdtempSync, realpathSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
+
 import type { AppSession } from './support/app-flow-session.ts';
+import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

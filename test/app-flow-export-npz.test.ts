@@ -9,10 +9,12 @@
 import { cpSync, mkdtempSync, readFileSync, realpathSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import type { EpisodeRow, JobProgress } from '../sim/bridge/bridge-contract.ts';
-import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import type { AppSession } from './support/app-flow-session.ts';
+import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -6,11 +6,13 @@
 import { existsSync, mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runRenderJob } from '../sim/render/render-job.ts';
+
 import type { RenderJobMessage } from '../sim/render/render-job.ts';
-import { cutDownScenario, runPliant, startDesktopSession } from './support/app-flow-session.ts';
+import { runRenderJob } from '../sim/render/render-job.ts';
 import type { AppSession } from './support/app-flow-session.ts';
+import { cutDownScenario, runPliant, startDesktopSession } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

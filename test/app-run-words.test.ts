@@ -6,13 +6,15 @@
 import { mkdirSync, mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { APP_RUN_WORDS, inAppWords } from '../electron/app-run-words.ts';
 import { runCli } from '../sim/cli/main.ts';
 import { DatasetRequestError } from '../sim/dataset/formats/dataset-request-error.ts';
 import { COMMAND_LINE_WORDS, say, wordRun } from '../sim/dataset/formats/run-words.ts';
-import { APP_RUN_WORDS, inAppWords } from '../electron/app-run-words.ts';
-import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import type { AppSession } from './support/app-flow-session.ts';
+import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 
 const work = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-run-words-')));
 const scenarioText = cutDownScenario('korrin-tether.json', 2, 10);

@@ -4,14 +4,16 @@
 // (persistence x_t = x_0; constant velocity x_t = x_0 + t·Δt·v_0: uniform motion, common
 // practice, no source); the files are byte-identical when written twice; and every bad input
 // exits with 2 and a message that names the problem, never a stack trace.
-import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import { decodeNpz, encodeNpz } from '../sim/dataset/formats/npz.ts';
 import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import type { NamedArray } from '../sim/dataset/formats/named-array.ts';
+import { decodeNpz, encodeNpz } from '../sim/dataset/formats/npz.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -11,13 +11,15 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import type { EpisodeRecord } from '../sim/dataset/manifest/dataset-manifest.ts';
-import { episodesOfSplits, loadTrajectory, openDataset, type OpenDataset } from '../sim/identify/baselines/dataset-episodes.ts';
+import { episodesOfSplits, loadTrajectory, type OpenDataset,openDataset } from '../sim/identify/baselines/dataset-episodes.ts';
 import type { EpisodeTrajectory } from '../sim/identify/baselines/episode-trajectory.ts';
 import { buildGreyBoxDesign } from '../sim/identify/baselines/grey-box-design.ts';
-import { identifyEpisode, type EpisodeIdentification } from '../sim/identify/baselines/grey-box-identify.ts';
+import { type EpisodeIdentification,identifyEpisode } from '../sim/identify/baselines/grey-box-identify.ts';
 import { solveLeastSquares } from '../sim/identify/baselines/grey-box-solve.ts';
 import { structureOf } from '../sim/identify/baselines/grey-box-structure.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';

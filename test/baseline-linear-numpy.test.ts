@@ -10,14 +10,16 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import { episodesOfSplits, loadTrajectory, openDataset } from '../sim/identify/baselines/dataset-episodes.ts';
 import type { EpisodeTrajectory } from '../sim/identify/baselines/episode-trajectory.ts';
 import { fitLinearOperator } from '../sim/identify/baselines/linear-fit.ts';
+import { linearRollout } from '../sim/identify/baselines/linear-rollout.ts';
 import { buildSnapshots } from '../sim/identify/baselines/linear-snapshots.ts';
 import type { LinearLayout } from '../sim/identify/baselines/linear-state.ts';
-import { linearRollout } from '../sim/identify/baselines/linear-rollout.ts';
 import { rolloutStartOf } from '../sim/identify/baselines/rollout-start.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

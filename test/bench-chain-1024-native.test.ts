@@ -5,9 +5,10 @@
 // both must give the 408.1644 to six significant digits. Where gcc is missing, the
 // bench must say so in its line instead of failing; that branch is checked instead.
 import { describe, expect, it } from 'vitest';
+
 import { CHAIN_1024_STEPS, runChain1024 } from '../sim/bench/chain-1024.ts';
-import { buildNativeChainKernel, runNativeChainKernel } from '../sim/bench/native-chain-kernel.ts';
 import { chain1024NativeCase } from '../sim/bench/chain-1024-native.ts';
+import { buildNativeChainKernel, runNativeChainKernel } from '../sim/bench/native-chain-kernel.ts';
 
 describe('C build of the chain-1024 kernel', () => {
   it('reaches the JavaScript checksum bit for bit (IEEE 754 correct rounding), or reports that gcc is missing', async () => {

@@ -4,7 +4,9 @@
 // exactly one JSON line with the keys documented in sim/bench/chain-1024.ts. No timing is
 // asserted: benchmarks measure, they are not timed tests.
 import { spawnSync } from 'node:child_process';
+
 import { describe, expect, it } from 'vitest';
+
 import { buildChain1024, runChain1024 } from '../sim/bench/chain-1024.ts';
 
 // Reference value of the case: 408.1644 (project issue).

@@ -6,6 +6,7 @@
 // which is what a projection contact model is for (common practice, no source), up to the
 // rounding of landing exactly on the plane (y + dt·(h − y)/dt need not be h to the last bit).
 import { describe, expect, it } from 'vitest';
+
 import { buildLattice8x8x8, lattice8x8x8Case, runLattice8x8x8 } from '../sim/bench/lattice-8x8x8.ts';
 
 const N = 8;

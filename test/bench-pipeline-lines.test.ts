@@ -9,11 +9,13 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { PIPELINE_EPISODES } from '../sim/bench/pipeline-episodes.ts';
-import { EXPORT_EPISODES, arrayBytes, exportHdf5, exportNpz, tetherEpisodes } from '../sim/bench/pipeline-export.ts';
-import { EXPORT_COMPRESSIONS } from '../sim/scenario/export-compression.ts';
+import { arrayBytes, EXPORT_EPISODES, exportHdf5, exportNpz, tetherEpisodes } from '../sim/bench/pipeline-export.ts';
 import { MEMORY_EPISODES_VARIABLE } from '../sim/bench/sweep-memory.ts';
+import { EXPORT_COMPRESSIONS } from '../sim/scenario/export-compression.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -10,9 +10,11 @@
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
-import { measureSweepMemory } from '../sim/bench/sweep-memory.ts';
+
 import type { SweepMemory } from '../sim/bench/sweep-memory.ts';
+import { measureSweepMemory } from '../sim/bench/sweep-memory.ts';
 
 const work = mkdtempSync(join(tmpdir(), 'pliant-bench-memory-test-'));
 afterAll(() => rmSync(work, { recursive: true, force: true }));

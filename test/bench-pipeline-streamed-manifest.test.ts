@@ -8,9 +8,11 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
-import { StreamedList, writeStreamedJson } from '../sim/dataset/formats/streamed-json.ts';
+
 import { runCli } from '../sim/cli/main.ts';
+import { StreamedList, writeStreamedJson } from '../sim/dataset/formats/streamed-json.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -5,7 +5,9 @@
 // both child runs. No time is asserted: benchmarks measure.
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { SCORE_EPISODES_VARIABLE } from '../sim/bench/score-throughput.ts';
 
 describe('score benchmark line', () => {

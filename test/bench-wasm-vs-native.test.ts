@@ -8,14 +8,15 @@
 // missing the lines must say so and still carry the JavaScript and WebAssembly throughputs.
 // No time is asserted; benchmarks measure.
 import { describe, expect, it } from 'vitest';
-import { runLattice8x8x8 } from '../sim/bench/lattice-8x8x8.ts';
-import { runNativeLatticeKernel, withNativeLatticeKernel } from '../sim/bench/native-lattice-kernel.ts';
-import { chain1024WasmCase } from '../sim/bench/chain-1024-wasm.ts';
-import { lattice8x8x8WasmVsNativeCase } from '../sim/bench/lattice-8x8x8-wasm-vs-native.ts';
+
 import { compareAlternately } from '../sim/bench/alternating-comparison.ts';
 import { runChain1024 } from '../sim/bench/chain-1024.ts';
 import { buildChain1024Bending, runChain1024Bending } from '../sim/bench/chain-1024-bending.ts';
+import { chain1024WasmCase } from '../sim/bench/chain-1024-wasm.ts';
+import { runLattice8x8x8 } from '../sim/bench/lattice-8x8x8.ts';
+import { lattice8x8x8WasmVsNativeCase } from '../sim/bench/lattice-8x8x8-wasm-vs-native.ts';
 import { buildNativeChainKernel, buildNativeKernel, runNativeChainKernel } from '../sim/bench/native-chain-kernel.ts';
+import { runNativeLatticeKernel, withNativeLatticeKernel } from '../sim/bench/native-lattice-kernel.ts';
 
 const INTERVALS = 12;
 

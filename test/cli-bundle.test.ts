@@ -7,11 +7,13 @@
 // one working bundle. Datasets written through the bundle (its own episode worker) are byte for
 // byte those of the tsx path. Everything is compared with the tsx path or files on disk; no timing.
 import { spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, readFileSync, readdirSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
+
 import { afterAll, describe, expect, it } from 'vitest';
-import { buildBundle, bundleKey, bundledCliEntry, currentBundle } from '../sim/cli/cli-bundle.mjs';
+
+import { buildBundle, bundledCliEntry, bundleKey, currentBundle } from '../sim/cli/cli-bundle.mjs';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const LAUNCHER = join(ROOT, 'sim/cli/pliant-launcher.mjs');

@@ -9,7 +9,9 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import { encodeNpyBytes } from '../sim/dataset/formats/npy.ts';
 import { encodeNpz } from '../sim/dataset/formats/npz.ts';

@@ -9,7 +9,9 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, realpathSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createNativeFolderChooser } from '../electron/folder-dialog.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';

@@ -8,7 +8,9 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -3,6 +3,7 @@
 // episodes remaining / rate (common practice, no source); with --progress json one JSON object
 // per line (RFC 8259 text, parsed back with JSON.parse); nothing with --progress none.
 import { describe, expect, it } from 'vitest';
+
 import { ProgressDisplay } from '../sim/cli/progress-display.ts';
 import type { GenerationEvent } from '../sim/dataset/write/generation-progress.ts';
 

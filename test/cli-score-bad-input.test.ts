@@ -9,9 +9,11 @@ import { spawnSync } from 'node:child_process';
 import { cpSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
-import { generateScoreDataset, manifestOf, runPliant, writePersistencePredictions, type CliOutcome } from './support/score-fixture.ts';
+import { type CliOutcome,generateScoreDataset, manifestOf, runPliant, writePersistencePredictions } from './support/score-fixture.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const LAUNCHER = join(ROOT, 'sim/cli/pliant-launcher.mjs');

@@ -3,8 +3,9 @@
 // name. Exit 2 for usage errors follows the convention of POSIX utilities (common practice,
 // no source); the nearest name is by Levenshtein edit distance.
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../sim/cli/main.ts';
+
 import { closestName } from '../sim/cli/closest-name.ts';
+import { runCli } from '../sim/cli/main.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 
 async function cli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {

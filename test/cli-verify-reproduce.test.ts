@@ -9,7 +9,9 @@
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';

@@ -6,10 +6,12 @@
 // documents them. Off CI a machine without a running cluster skips with the reason; under
 // CI=true the cluster is required.
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';

@@ -5,14 +5,16 @@
 // any later interval did, the jolt the window is there to remove.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { generateControlSignal } from '../sim/controls/control-signal.ts';
 import { rampInWindow } from '../sim/controls/ramp-in.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 import { SCENARIOS_DIR } from './support/e2e-web-app.ts';
+import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();
 

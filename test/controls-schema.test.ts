@@ -3,6 +3,7 @@
 // is accepted by all three, and broken documents are refused by schema and checker alike.
 import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
+
 import { generateControlSignal } from '../sim/controls/control-signal.ts';
 import type { ControlSpec } from '../sim/controls/control-spec.ts';
 import { CONTROL_KINDS } from '../sim/controls/control-spec.ts';

@@ -4,6 +4,7 @@
 // distribution of drawn levels and switching times, and the definitions of a linear chirp and
 // of a zero-order hold (common practice, no source).
 import { describe, expect, it } from 'vitest';
+
 import { generateControlSignal } from '../sim/controls/control-signal.ts';
 import type { ControlSpec } from '../sim/controls/control-spec.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';

@@ -4,15 +4,16 @@
 // so H swings in a relative band of ω·dt to first order) and its first-order behaviour: the
 // band halves when dt halves.
 import { describe, expect, it } from 'vitest';
-import { ModelBuilder } from '../sim/core/model-builder.ts';
-import { NODE_PINNED, RELATION_STRUCTURAL } from '../sim/core/model.ts';
-import { defaultWorld } from '../sim/core/world.ts';
-import { recordTrajectory, resolveSubsteps } from '../sim/episode/record-episode.ts';
-import type { RecordingSettings } from '../sim/episode/record-episode.ts';
-import { buildChain } from '../sim/systems/chain.ts';
-import { ENERGY_BASE_COUNT, ENERGY_NAMES } from '../sim/core/energy.ts';
+
 import { accuracySubsteps } from '../sim/core/accuracy-substeps.ts';
+import { ENERGY_BASE_COUNT, ENERGY_NAMES } from '../sim/core/energy.ts';
+import { NODE_PINNED, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { ModelBuilder } from '../sim/core/model-builder.ts';
 import { stabilityBound } from '../sim/core/stability-bound.ts';
+import { defaultWorld } from '../sim/core/world.ts';
+import type { RecordingSettings } from '../sim/episode/record-episode.ts';
+import { recordTrajectory, resolveSubsteps } from '../sim/episode/record-episode.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 
 /** (max − min)/mean of kinetic + potential energies over the record times (no fluid here, so the columns recorded without accounting hold them all). */
 function relativeBand(energiesJ: Float64Array): number {

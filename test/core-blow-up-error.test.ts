@@ -4,8 +4,9 @@
 // unstable for ω·dt > 2 (Hairer, Lubich & Wanner, Geometric Numerical Integration, ch. I).
 // The wording checks are project rules (common practice, no source).
 import { describe, expect, it } from 'vitest';
-import { SimulationBlowUpError, likelyCause } from '../sim/core/simulation-error.ts';
+
 import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../sim/core/blow-up-check.ts';
+import { likelyCause,SimulationBlowUpError } from '../sim/core/simulation-error.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { buildChain } from '../sim/systems/chain.ts';
 import { buildSpringOscillator } from './support/spring-oscillator.ts';

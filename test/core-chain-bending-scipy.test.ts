@@ -15,16 +15,17 @@
 // - stability bound: block Gershgorin with hinges stays above the true ω_max (scipy.linalg.eigh
 //   of the finite-difference stiffness at a bent pose) and within a factor 2 of it.
 import { beforeAll, describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
-import { writeBodyForces } from '../sim/core/body-forces.ts';
-import { accumulateSpringForces } from '../sim/core/spring-forces.ts';
+
 import { accumulateBendingForces, accumulateClampForces } from '../sim/core/bending-forces.ts';
-import { stabilityBound } from '../sim/core/stability-bound.ts';
-import { defaultWorld } from '../sim/core/world.ts';
-import type { World } from '../sim/core/world.ts';
+import { writeBodyForces } from '../sim/core/body-forces.ts';
 import type { Model } from '../sim/core/model.ts';
+import { accumulateSpringForces } from '../sim/core/spring-forces.ts';
+import { stabilityBound } from '../sim/core/stability-bound.ts';
+import type { World } from '../sim/core/world.ts';
+import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

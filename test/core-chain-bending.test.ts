@@ -9,15 +9,16 @@
 //   cantilever, β₁L = 1.8751 from cos βL·cosh βL = −1; Rao, Mechanical Vibrations; from memory);
 // - a stiff chain with automatic sub-steps stays stable and the bound is not wasteful.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
-import { accumulateBendingForces, accumulateClampForces } from '../sim/core/bending-forces.ts';
+
 import { bendingDissipationW, bendingEnergyJ } from '../sim/core/bending-energy.ts';
+import { accumulateBendingForces, accumulateClampForces } from '../sim/core/bending-forces.ts';
+import type { Model } from '../sim/core/model.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { stabilityBound } from '../sim/core/stability-bound.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import type { Model } from '../sim/core/model.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 import { zeroCrossingPeriodS } from './support/zero-crossing-period.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';
 

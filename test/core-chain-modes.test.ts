@@ -4,10 +4,11 @@
 // the chain's axis keeps every spring force exactly linear, so a mode-shaped start stays in its
 // mode and its period can be read from the zero crossings of the modal coordinate.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
+
 import { Simulator } from '../sim/core/simulator.ts';
 import { stabilityBound } from '../sim/core/stability-bound.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 import { zeroCrossingPeriodS } from './support/zero-crossing-period.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';
 

@@ -6,7 +6,9 @@
 // Newton's second law), not the code that wrote the fields.
 import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { Simulator } from '../sim/core/simulator.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';

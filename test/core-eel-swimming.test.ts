@@ -17,10 +17,12 @@
 // a body with cells of unequal stiffness swims along a slightly turned direction.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
+import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { SCENARIOS_DIR } from './support/e2e-web-app.ts';
 
 interface Swim {

@@ -11,13 +11,14 @@
 // the integrator's own error, first order in dt (Hairer, Lubich & Wanner, Geometric Numerical
 // Integration, 2nd ed., ch. IX): halving dt halves it.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
-import { defaultWorld } from '../sim/core/world.ts';
-import type { World } from '../sim/core/world.ts';
-import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import { FLOW_COLUMNS, FLOW_NAMES } from '../sim/core/energy-flows.ts';
+
 import { ENERGY_NAMES } from '../sim/core/energy.ts';
+import { FLOW_COLUMNS, FLOW_NAMES } from '../sim/core/energy-flows.ts';
+import type { World } from '../sim/core/world.ts';
+import { defaultWorld } from '../sim/core/world.ts';
+import { recordTrajectory } from '../sim/episode/record-episode.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 
 function tether(anchor: ChainParameters['anchor'], handles: number[]): ChainParameters {
   return {

@@ -3,9 +3,10 @@
 // Fundamentals of Physics, work and energy). Lengths use 3-4-5 triangles so every number is
 // exact in decimal.
 import { describe, expect, it } from 'vitest';
-import { ModelBuilder } from '../sim/core/model-builder.ts';
-import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+
 import { ENERGY_BASE_COUNT, ENERGY_NAMES, measureEnergies } from '../sim/core/energy.ts';
+import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { ModelBuilder } from '../sim/core/model-builder.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 
 describe('energies of a three-node system, worked by hand (Halliday & Resnick)', () => {

@@ -7,12 +7,13 @@
 //  - a straight segment held in a uniform flow: resistive-force drag C·A·U along the normal and
 //    the tangent (Gray & Hancock 1955, the drag law the fluid model is defined by).
 import { describe, expect, it } from 'vitest';
-import { ModelBuilder } from '../sim/core/model-builder.ts';
+
 import { NODE_PINNED, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { ModelBuilder } from '../sim/core/model-builder.ts';
+import { autoSubsteps, stabilityBound } from '../sim/core/stability-bound.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { buildLattice } from '../sim/systems/lattice.ts';
-import { autoSubsteps, stabilityBound } from '../sim/core/stability-bound.ts';
 
 const G = 9.81;
 

@@ -5,11 +5,12 @@
 // reproduce it to rounding, with and without sub-steps, and must not match the explicit-Euler
 // form g·dt²·n(n−1)/2, which would mean the position update used the old velocity.
 import { describe, expect, it } from 'vitest';
+
+import { ENERGY_BASE_COUNT } from '../sim/core/energy.ts';
 import { ModelBuilder } from '../sim/core/model-builder.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import { ENERGY_BASE_COUNT } from '../sim/core/energy.ts';
 
 const X0: [number, number, number] = [0.4, 12.5, -0.3];
 const V0: [number, number, number] = [0.75, 3.2, -1.1];

@@ -4,12 +4,13 @@
 // the lattice's map. Expected values come from the builders' stated definitions (chain.ts
 // header; common practice, no source), not from the model arrays.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial } from '../sim/systems/lattice.ts';
-import { graphLabels, NODE_FEATURE_NAMES } from '../sim/systems/graph-labels.ts';
-import { RELATION_SECOND_NEIGHBOUR, RELATION_NAMES, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+
 import { applyActuation } from '../sim/core/control-application.ts';
+import { RELATION_NAMES, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { buildChain } from '../sim/systems/chain.ts';
+import { graphLabels, NODE_FEATURE_NAMES } from '../sim/systems/graph-labels.ts';
+import type { LatticeMaterial } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 
 const F = NODE_FEATURE_NAMES.length;
 

@@ -7,14 +7,15 @@
 //  - kinetic friction opposes sliding and at most stops it, never reverses it;
 //  - a body resting on the floor stays on it: no sinking, no lift-off, no jitter.
 import { describe, expect, it } from 'vitest';
+
+import type { Model } from '../sim/core/model.ts';
 import { ModelBuilder } from '../sim/core/model-builder.ts';
 import { Simulator } from '../sim/core/simulator.ts';
-import { defaultWorld } from '../sim/core/world.ts';
-import type { World } from '../sim/core/world.ts';
-import type { Model } from '../sim/core/model.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
 import { autoSubsteps, stabilityBound } from '../sim/core/stability-bound.ts';
+import type { World } from '../sim/core/world.ts';
+import { defaultWorld } from '../sim/core/world.ts';
+import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 import { freeNodeMeanOf } from './support/centre-of-mass.ts';
 
 const G = 9.81;

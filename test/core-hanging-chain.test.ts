@@ -3,11 +3,12 @@
 // statics of a hanging rope; e.g. Halliday & Resnick, Fundamentals of Physics, tension in a
 // hanging rope). Mass-proportional air drag settles it without changing the equilibrium.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
+
 import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 
 function hangingChain(partCount: number, dampingRatio: number): ChainParameters {
   return {

@@ -9,14 +9,15 @@
 //  - It is stable for ω·dt < 2 and unstable above (same reference, and the Jury criterion in
 //    sim/core/stability-bound.ts).
 import { describe, expect, it } from 'vitest';
+
+import { ENERGY_BASE_COUNT } from '../sim/core/energy.ts';
+import { SimulationBlowUpError } from '../sim/core/simulation-error.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { stabilityBound } from '../sim/core/stability-bound.ts';
-import { SimulationBlowUpError } from '../sim/core/simulation-error.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { buildSpringOscillator } from './support/spring-oscillator.ts';
 import { zeroCrossingPeriodS } from './support/zero-crossing-period.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';
-import { ENERGY_BASE_COUNT } from '../sim/core/energy.ts';
 
 const MASS_KG = 0.25;
 const K_N_PER_M = 400;

@@ -6,16 +6,17 @@
 // - Face, cell and box clamps pick the nodes their definitions name; a driven face moved slowly
 //   carries a free body with it rigidly (rigid translation, common practice, no source).
 import { describe, expect, it } from 'vitest';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeClamp, LatticeMaterial } from '../sim/systems/lattice.ts';
+
 import { NODE_DRIVEN, NODE_PINNED } from '../sim/core/model.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { stabilityBound } from '../sim/core/stability-bound.ts';
 import { defaultWorld } from '../sim/core/world.ts';
+import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { findThinLatticeWarnings, THIN_LATTICE_CELLS } from '../sim/scenario/thin-lattice-warnings.ts';
+import type { LatticeClamp, LatticeMaterial } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';
 
 const E_PA = 1e7;

@@ -4,12 +4,13 @@
 // sim/systems/material-springs.ts: k1 = 22·E·a/35 for an interior edge, k2 = k3 = 6·E·a/35;
 // in 2-D k1 = 3·E·a/4, k2 = 3·E·a/8), and its outer panels.
 import { describe, expect, it } from 'vitest';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial } from '../sim/systems/lattice.ts';
+
+import type { Model } from '../sim/core/model.ts';
 import {
   NODE_PINNED, RELATION_BODY_DIAGONAL, RELATION_CELL_EDGE, RELATION_FACE_DIAGONAL,
 } from '../sim/core/model.ts';
-import type { Model } from '../sim/core/model.ts';
+import type { LatticeMaterial } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 
 const A = 0.025;
 const SOFT: LatticeMaterial = { name: 'fin silicone', youngsModulusPa: 8e4, densityKgPerM3: 1100, dampingRatio: 0.1, actuatorChannel: null, actuationStrainMax: 0 };

@@ -9,13 +9,14 @@
 //    to the similar cube with volume (1 ± strainMax)³·a³ (geometric similarity; common
 //    practice, no source).
 import { describe, expect, it } from 'vitest';
-import { buildLattice, latticeDimension } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
-import { latticePoissonRatio } from '../sim/systems/material-springs.ts';
+
+import type { Model } from '../sim/core/model.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { autoSubsteps, stabilityBound } from '../sim/core/stability-bound.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import type { Model } from '../sim/core/model.ts';
+import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
+import { buildLattice, latticeDimension } from '../sim/systems/lattice.ts';
+import { latticePoissonRatio } from '../sim/systems/material-springs.ts';
 import { withForceHandles } from './support/force-handles.ts';
 import { hexahedronVolumeM3 } from './support/hexahedron-volume.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';

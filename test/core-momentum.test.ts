@@ -9,12 +9,13 @@
 //    F/M (Newton's second law), whatever the internal forces and actuation do; discretely the
 //    centre of mass follows the free-fall closed form with g = F/M.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial } from '../sim/systems/lattice.ts';
-import { Simulator } from '../sim/core/simulator.ts';
+
 import type { Model } from '../sim/core/model.ts';
+import { Simulator } from '../sim/core/simulator.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
+import { buildChain } from '../sim/systems/chain.ts';
+import type { LatticeMaterial } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 import { freeMassKg, freeNodeMeanOf } from './support/centre-of-mass.ts';
 import { withForceHandles } from './support/force-handles.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';

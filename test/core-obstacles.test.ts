@@ -6,13 +6,14 @@
 //    on a sphere the surface under a node at polar angle θ is tilted by θ;
 //  - nothing ever goes into an obstacle, and a body resting on one stays still.
 import { describe, expect, it } from 'vitest';
+
 import { ModelBuilder } from '../sim/core/model-builder.ts';
-import { Simulator } from '../sim/core/simulator.ts';
-import { defaultWorld } from '../sim/core/world.ts';
-import type { Obstacle, World } from '../sim/core/world.ts';
 import { obstacleDistanceM } from '../sim/core/obstacle-contact.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
+import { Simulator } from '../sim/core/simulator.ts';
 import { stabilityBound } from '../sim/core/stability-bound.ts';
+import type { Obstacle, World } from '../sim/core/world.ts';
+import { defaultWorld } from '../sim/core/world.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 
 const G = 9.81;
 

@@ -8,13 +8,14 @@
 // (e.g. Rao, Mechanical Vibrations). Semi-implicit Euler is first-order (Hairer, Lubich &
 // Wanner, Geometric Numerical Integration, ch. I): halving dt halves the error.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
+
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory, resolveSubsteps } from '../sim/episode/record-episode.ts';
-import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
-import { DOP853_CHAIN_SCRIPT as REFERENCE_SCRIPT, chainReferenceInput } from './support/dop853-chain-reference.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 import type { ChainReferenceResult as ReferenceResult } from './support/dop853-chain-reference.ts';
+import { chainReferenceInput,DOP853_CHAIN_SCRIPT as REFERENCE_SCRIPT } from './support/dop853-chain-reference.ts';
+import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();
 

@@ -4,16 +4,17 @@
 // half-step run's error ≈ |x_h − x_{h/2}|. Checked against the actual error versus SciPy's DOP853
 // at rtol = atol = 1e-12 on a small pinned chain swinging under gravity.
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
+
 import { defaultWorld } from '../sim/core/world.ts';
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { richardsonEstimate, startStateOf } from '../sim/episode/richardson-estimate.ts';
-import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
-import { DOP853_CHAIN_SCRIPT, chainReferenceInput } from './support/dop853-chain-reference.ts';
-import type { ChainReferenceResult } from './support/dop853-chain-reference.ts';
-import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
+import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
+import type { ChainReferenceResult } from './support/dop853-chain-reference.ts';
+import { chainReferenceInput,DOP853_CHAIN_SCRIPT } from './support/dop853-chain-reference.ts';
+import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();
 

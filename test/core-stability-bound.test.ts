@@ -7,12 +7,13 @@
 // k·(1 − L0/L)·(I − n·nᵀ), same reference) and pinned degrees of freedom removed. Gershgorin's theorem (block form, Feingold & Varga 1962) makes our bound an upper
 // bound; the check also asks that it is not wasteful: within a factor 2.
 import { beforeAll, describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainAnchor } from '../sim/systems/chain.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeBase, LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
-import { stabilityBound } from '../sim/core/stability-bound.ts';
+
 import type { Model } from '../sim/core/model.ts';
+import { stabilityBound } from '../sim/core/stability-bound.ts';
+import type { ChainAnchor } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
+import type { LatticeBase, LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

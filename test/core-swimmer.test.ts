@@ -10,9 +10,10 @@
 // swimmer will: simulated data does not replace hardware testing, and controllers trained on
 // it must be brought up on hardware with conservative limits under the lab's own safety rules.
 import { describe, expect, it } from 'vitest';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial, MaterialMap2D } from '../sim/systems/lattice.ts';
+
 import { recordTrajectory } from '../sim/episode/record-episode.ts';
+import type { LatticeMaterial, MaterialMap2D } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 import { freeNodeMeanOf } from './support/centre-of-mass.ts';
 import { zeroGravityWorld } from './support/zero-gravity-world.ts';
 

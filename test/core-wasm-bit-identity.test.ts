@@ -16,27 +16,29 @@
 // episode is compared including its settling run.
 import { readdirSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
+import { buildChain1024, CHAIN_1024_DT_S } from '../sim/bench/chain-1024.ts';
+import { buildLattice8x8x8, LATTICE_CONTROL_INTERVAL_S,latticeWorld } from '../sim/bench/lattice-8x8x8.ts';
+import type { Model } from '../sim/core/model.ts';
 import { Simulator } from '../sim/core/simulator.ts';
+import { autoSubsteps, stabilityBound } from '../sim/core/stability-bound.ts';
 import type { StepKernel } from '../sim/core/step-kernel-choice.ts';
 import { resolveStepKernel } from '../sim/core/step-kernel-choice.ts';
-import { defaultWorld } from '../sim/core/world.ts';
 import type { World } from '../sim/core/world.ts';
-import type { Model } from '../sim/core/model.ts';
-import { autoSubsteps, stabilityBound } from '../sim/core/stability-bound.ts';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
-import { buildChain1024, CHAIN_1024_DT_S } from '../sim/bench/chain-1024.ts';
-import { buildLattice8x8x8, latticeWorld, LATTICE_CONTROL_INTERVAL_S } from '../sim/bench/lattice-8x8x8.ts';
+import { defaultWorld } from '../sim/core/world.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
+import { computeEpisodeOutcome } from '../sim/dataset/write/episode-outcome.ts';
+import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
+import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import { computeEpisodeOutcome } from '../sim/dataset/write/episode-outcome.ts';
-import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
-import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
+import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 

@@ -11,7 +11,9 @@ import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { bytesFromBase64 } from '../sim/core/wasm/base64-bytes.ts';
 import { STEP_KERNEL_BASE64, STEP_KERNEL_SHA256 } from '../sim/core/wasm/step-kernel-bytes.ts';
 

@@ -7,16 +7,18 @@
 // as a pass. The reference is the JavaScript step itself (sim/core/simulator.ts).
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
-import { Simulator } from '../sim/core/simulator.ts';
-import { defaultWorld } from '../sim/core/world.ts';
-import type { World } from '../sim/core/world.ts';
-import type { Model } from '../sim/core/model.ts';
-import { STEP_PASSES, wasmKernelCoverage } from '../sim/core/wasm/wasm-kernel-coverage.ts';
-import type { StepPass } from '../sim/core/wasm/wasm-kernel-coverage.ts';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
+
 import { buildLattice8x8x8, latticeWorld } from '../sim/bench/lattice-8x8x8.ts';
+import type { Model } from '../sim/core/model.ts';
+import { Simulator } from '../sim/core/simulator.ts';
+import type { StepPass } from '../sim/core/wasm/wasm-kernel-coverage.ts';
+import { STEP_PASSES, wasmKernelCoverage } from '../sim/core/wasm/wasm-kernel-coverage.ts';
+import type { World } from '../sim/core/world.ts';
+import { defaultWorld } from '../sim/core/world.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 

@@ -10,14 +10,16 @@
 // numpy.histogram's bins for bins=8, range=(min, max): equal width, each [low, high) and the
 // last one closed (NumPy reference, numpy.histogram). `pliant verify` must pass the folder and
 // must catch an edited picture, like any other listed file.
-import { mkdtempSync, readFileSync, rmSync, writeFileSync, appendFileSync, cpSync } from 'node:fs';
+import { appendFileSync, cpSync,mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
-import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -3,10 +3,12 @@
 // three array-job shards merged, as test/dataset-reproducibility.test.ts demands of independent
 // draws (the Latin hypercube one with exact, stratified split counts too); and its card must report the design with a discrepancy that SciPy's
 // scipy.stats.qmc.discrepancy(method="CD") (under /usr/bin/python3) confirms for the same points.
-import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { scenarioDesignPlan } from '../sim/scenario/design/scenario-design.ts';

@@ -15,17 +15,19 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import Ajv2020 from 'ajv/dist/2020.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
-import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
-import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
+
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { MANIFEST_SCHEMA } from '../sim/dataset/manifest/manifest-schema.ts';
 import { produceEpisode } from '../sim/dataset/write/episode-product.ts';
+import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
 import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
-import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
+import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
+import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
+import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

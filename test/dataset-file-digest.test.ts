@@ -9,7 +9,9 @@ import { spawnSync } from 'node:child_process';
 import { closeSync, ftruncateSync, mkdirSync, mkdtempSync, openSync, rmSync, writeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { digestFile } from '../sim/dataset/formats/file-digest.ts';
 import { checkFileRecord } from '../sim/dataset/read/verify-dataset.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability } from './support/reference-python.ts';

@@ -10,13 +10,15 @@
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, realpathSync, renameSync, rmSync, symlinkSync, unlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
 import type { DatasetJobMessage } from '../sim/dataset/jobs/dataset-job.ts';
+import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
+import type { AppSession } from './support/app-flow-session.ts';
 import { cutDownScenario, startDesktopSession } from './support/app-flow-session.ts';
 import { generateScoreDataset, runPliant, writePersistencePredictions } from './support/score-fixture.ts';
-import type { AppSession } from './support/app-flow-session.ts';
 
 const work = realpathSync(mkdtempSync(join(tmpdir(), 'pliant-links-')));
 const chosen = join(work, 'chosen');

@@ -8,7 +8,9 @@ import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { hostname, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -8,8 +8,10 @@ import * as fs from 'node:fs';
 import { chmodSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
-import { isTemporaryName, writeFileAtomic, writeFileAtomicVia, type AtomicFileSystem } from '../sim/dataset/formats/atomic-file.ts';
+
+import { type AtomicFileSystem,isTemporaryName, writeFileAtomic, writeFileAtomicVia } from '../sim/dataset/formats/atomic-file.ts';
 import { DatasetWriteError } from '../sim/dataset/formats/dataset-write-error.ts';
 
 const root = mkdtempSync(join(tmpdir(), 'pliant-atomic-'));

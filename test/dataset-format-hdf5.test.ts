@@ -6,11 +6,13 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { DatasetWriteError } from '../sim/dataset/formats/dataset-write-error.ts';
-import { HDF5_FIXED_TIME_S, encodeHdf5, fillHdf5File, writeHdf5File, type Hdf5Content } from '../sim/dataset/formats/hdf5-writer.ts';
 import { loadHdf5Library } from '../sim/dataset/formats/hdf5-runtime.ts';
-import { namedArray, type NamedArray } from '../sim/dataset/formats/named-array.ts';
+import { encodeHdf5, fillHdf5File, HDF5_FIXED_TIME_S, type Hdf5Content,writeHdf5File } from '../sim/dataset/formats/hdf5-writer.ts';
+import { type NamedArray,namedArray } from '../sim/dataset/formats/named-array.ts';
 import { NPY_DESCR } from '../sim/dataset/formats/npy.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

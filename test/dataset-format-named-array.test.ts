@@ -1,13 +1,14 @@
 // NamedArray helpers: float64 → float32 rounding and element counts checked against Debian
 // NumPy (astype(numpy.float32), ndarray.size); the consistency checks follow our own rules.
 import { describe, expect, it } from 'vitest';
+
 import {
   checkNamedArray,
   elementCount,
+  type NamedArray,
   namedArray,
   toFloat32,
   withFloatPrecision,
-  type NamedArray,
 } from '../sim/dataset/formats/named-array.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -4,10 +4,12 @@
 import { mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { DatasetReadError } from '../sim/dataset/formats/dataset-read-error.ts';
-import { namedArray, type NamedArray } from '../sim/dataset/formats/named-array.ts';
-import { NPY_DESCR, decodeNpy, encodeNpyBytes, readNpyFile, writeNpyFile } from '../sim/dataset/formats/npy.ts';
+import { type NamedArray,namedArray } from '../sim/dataset/formats/named-array.ts';
+import { decodeNpy, encodeNpyBytes, NPY_DESCR, readNpyFile, writeNpyFile } from '../sim/dataset/formats/npy.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

@@ -4,8 +4,10 @@
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
-import { namedArray, type NamedArray } from '../sim/dataset/formats/named-array.ts';
+
+import { type NamedArray,namedArray } from '../sim/dataset/formats/named-array.ts';
 import { NPY_DESCR } from '../sim/dataset/formats/npy.ts';
 import { encodeNpz, readNpzFile, writeNpzFile } from '../sim/dataset/formats/npz.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';

@@ -3,7 +3,9 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { digestFile, sha256Hex } from '../sim/dataset/formats/file-digest.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -9,10 +9,12 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
 import type { DatasetJob, DatasetJobMessage } from '../sim/dataset/jobs/dataset-job.ts';
+import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

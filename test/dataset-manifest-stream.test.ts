@@ -12,22 +12,24 @@
 // The scanner itself is checked against JSON.parse (ECMA-262's JSON grammar, RFC 8259) on
 // arbitrary JSON values from fast-check, read one byte at a time so every chunk boundary,
 // including those inside multi-byte UTF-8 characters (RFC 3629), is crossed.
-import { createHash } from 'node:crypto';
 import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { copyFileSync, linkSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
+
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../sim/dataset/manifest/dataset-manifest.ts';
-import { episodeId, episodeNpzPath } from '../sim/dataset/manifest/dataset-files.ts';
-import { writeDatasetTextStreamed } from '../sim/dataset/write/dataset-file-writer.ts';
-import { StreamedList, writeStreamedJson } from '../sim/dataset/formats/streamed-json.ts';
-import { JsonStreamError, scanJsonStream } from '../sim/dataset/formats/json-stream-scanner.ts';
 import type { ByteSource } from '../sim/dataset/formats/json-stream-scanner.ts';
+import { JsonStreamError, scanJsonStream } from '../sim/dataset/formats/json-stream-scanner.ts';
+import { StreamedList, writeStreamedJson } from '../sim/dataset/formats/streamed-json.ts';
+import { episodeId, episodeNpzPath } from '../sim/dataset/manifest/dataset-files.ts';
+import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { readManifestStream } from '../sim/dataset/manifest/manifest-stream.ts';
+import { writeDatasetTextStreamed } from '../sim/dataset/write/dataset-file-writer.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const LAUNCHER = join(ROOT, 'sim/cli/pliant-launcher.mjs');

@@ -15,20 +15,22 @@
 // - `pliant reproduce` gives byte-identical files, and without the block the arrays and the
 //   ground truth are what they were.
 // The thresholds are fixed before looking; the draws are fixed by the seed, so a pass is stable.
-import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
-import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
-import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
 import { observeTrajectory } from '../sim/episode/observe-trajectory.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
-import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
+import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
+import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
+import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
+import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
+import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 const python = referencePythonAvailability();

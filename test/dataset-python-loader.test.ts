@@ -9,12 +9,14 @@ import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { runCli } from '../sim/cli/main.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
+import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { generateDataset } from '../sim/dataset/write/generate-dataset.ts';
-import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
-import { runCli } from '../sim/cli/main.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability, referenceTorchAvailability, runReferencePython } from './support/reference-python.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

@@ -9,7 +9,9 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { REFERENCE_PYTHON, referencePythonAvailability } from './support/reference-python.ts';

@@ -8,7 +8,9 @@
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { rejectedRangeLines } from '../sim/dataset/write/rejection-limit.ts';

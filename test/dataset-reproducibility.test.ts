@@ -9,14 +9,16 @@
 // mode"). That a file-size limit turns writes into EFBIG once SIGXFSZ is ignored is POSIX
 // setrlimit(2), from memory.
 import { spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, relative, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
+import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { withOverrides } from '../sim/scenario/scenario-overrides.ts';
-import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const LAUNCHER = join(ROOT, 'sim/cli/pliant-launcher.mjs');

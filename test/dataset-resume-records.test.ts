@@ -8,11 +8,13 @@
 import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import { completionProblem } from '../sim/dataset/manifest/completion-check.ts';
-import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
 import type { DatasetJobMessage } from '../sim/dataset/jobs/dataset-job.ts';
+import { runDatasetJob } from '../sim/dataset/jobs/dataset-job.ts';
+import { completionProblem } from '../sim/dataset/manifest/completion-check.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { cutDownScenario } from './support/app-flow-session.ts';
 

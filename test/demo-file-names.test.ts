@@ -3,6 +3,7 @@
 // default never sends a reader to a file that no longer exists.
 import { readdirSync, readFileSync } from 'node:fs';
 import { join, relative } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
 
 const ROOT = join(import.meta.dirname, '..');

@@ -5,6 +5,7 @@
 // loguniform.ppf, truncnorm.ppf in moderate tails, scipy.special.ndtr with brentq in far ones)
 // and the floor rule for integer and categorical values.
 import { describe, expect, it } from 'vitest';
+
 import { centredL2DiscrepancySquared } from '../sim/design/centred-discrepancy.ts';
 import { expectedIndependentCentredDiscrepancySquared } from '../sim/design/design-coverage.ts';
 import { LatinHypercubeCoordinate } from '../sim/design/latin-hypercube.ts';

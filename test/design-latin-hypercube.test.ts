@@ -4,6 +4,7 @@
 // permutation it rests on being a bijection of [0, n) (Black & Rogaway 2002, cycle walking).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+
 import { IndexPermutation } from '../sim/design/index-permutation.ts';
 import { LatinHypercubeCoordinate } from '../sim/design/latin-hypercube.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';

@@ -8,9 +8,10 @@
 // dimensions have t = 0; linear matrix scrambles and digital shifts keep t, Owen 2003).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+
 import { JOE_KUO_D6_LINES, SOBOL_MAX_DIMENSION } from '../sim/design/sobol-direction-numbers.ts';
-import { sobolCoordinate, sobolDirectionNumbers } from '../sim/design/sobol-sequence.ts';
 import { scrambledSobolCoordinate, scrambledSobolDimension } from '../sim/design/sobol-scramble.ts';
+import { sobolCoordinate, sobolDirectionNumbers } from '../sim/design/sobol-sequence.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 describe('Joe & Kuo direction numbers (new-joe-kuo-6.21201)', () => {

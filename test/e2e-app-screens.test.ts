@@ -9,19 +9,21 @@
 // export writes gives the expected filter counts and split sizes, os.availableParallelism() is
 // what `pliant generate` defaults to, and axe-core (Deque's rules for WCAG 2 AA) judges
 // contrast and labels.
-import { availableParallelism } from 'node:os';
 import { mkdtempSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { availableParallelism } from 'node:os';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { createRequire } from 'node:module';
+
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
-import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
-import { waitInPage } from './support/e2e-page-condition.ts';
-import { SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
-import type { PliantWebApp } from './support/e2e-web-app.ts';
+
 import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
+import { chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
+import { waitInPage } from './support/e2e-page-condition.ts';
+import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
+import type { PliantWebApp } from './support/e2e-web-app.ts';
+import { SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -7,10 +7,12 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { EncodedArray, EpisodeArrays } from '../sim/bridge/bridge-contract.ts';
+
 import { playableEpisode } from '../renderer/datasets/episode-playback.ts';
 import { surfaceQuads } from '../renderer/view/body-topology.ts';
+import type { EncodedArray, EpisodeArrays } from '../sim/bridge/bridge-contract.ts';
 import { REPO_ROOT, SCENARIOS_DIR } from './support/e2e-web-app.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

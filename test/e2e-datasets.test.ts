@@ -6,14 +6,16 @@
 import { mkdtempSync, readFileSync, realpathSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+
 import { defaultJobLimits } from '../electron/job-limits.ts';
 import { bodyPixels, chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
-import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
 import { waitInPage } from './support/e2e-page-condition.ts';
-import { SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
+import { openDemo, replaceScenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
 import type { PliantWebApp } from './support/e2e-web-app.ts';
+import { SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

@@ -7,14 +7,16 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
-import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
+
 import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 import { EpisodeStepper } from '../renderer/preview/episode-stepper.ts';
+import { ENERGY_TERM_COUNT } from '../sim/core/energy.ts';
+import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
+import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { REPO_ROOT, SCENARIOS_DIR } from './support/e2e-web-app.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
-import { ENERGY_TERM_COUNT } from '../sim/core/energy.ts';
 
 const python = referencePythonAvailability();
 const DEMOS = readdirSync(SCENARIOS_DIR).filter((name) => name.endsWith('.json')).sort();

@@ -6,13 +6,15 @@
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+
+import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
 import { chooseFolderInPage, launchChromium, openApp, saveScreenshot } from './support/e2e-browser.ts';
 import { waitInPage } from './support/e2e-page-condition.ts';
-import { startPliantWebApp } from './support/e2e-web-app.ts';
 import type { PliantWebApp } from './support/e2e-web-app.ts';
-import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
+import { startPliantWebApp } from './support/e2e-web-app.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

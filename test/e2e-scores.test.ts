@@ -8,13 +8,15 @@
 import { cpSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import { chooseFolderInPage, launchChromium, openApp, saveScreenshot } from './support/e2e-browser.ts';
 import { waitInPage } from './support/e2e-page-condition.ts';
-import { SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import type { PliantWebApp } from './support/e2e-web-app.ts';
+import { SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

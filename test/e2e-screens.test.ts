@@ -9,14 +9,16 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+
 import { bodyPixels, chooseFolderInPage, launchChromium, measureStage, openApp, saveScreenshot } from './support/e2e-browser.ts';
-import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
-import type { PliantWebApp } from './support/e2e-web-app.ts';
 import { LARGE_LATTICE_NODES, largeLatticeScenarioText } from './support/e2e-large-lattice.ts';
-import { openDemo, replaceScenarioText, scenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
 import { waitInPage } from './support/e2e-page-condition.ts';
+import { openDemo, replaceScenarioText, scenarioText, waitForPreviewFinished } from './support/e2e-screen-steps.ts';
+import type { PliantWebApp } from './support/e2e-web-app.ts';
+import { REPO_ROOT, SCENARIOS_DIR, startPliantWebApp } from './support/e2e-web-app.ts';
 import { chromiumAvailability } from './support/reference-chromium.ts';
 
 const chromium = chromiumAvailability();

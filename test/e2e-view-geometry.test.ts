@@ -2,13 +2,14 @@
 // draws as skin, how springs meet at nodes, how units are read from scenario keys, and how the
 // playback clock turns wall time into frames. Each check names the outside fact it rests on.
 import { describe, expect, it } from 'vitest';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import type { LatticeMaterial } from '../sim/systems/lattice.ts';
-import { modelTopology } from '../renderer/preview/model-topology.ts';
-import { nodeSpringIncidence, surfaceQuads } from '../renderer/view/body-topology.ts';
-import { unitFromKey } from '../renderer/sweep/unit-from-key.ts';
-import { PlaybackClock } from '../renderer/playback/playback-clock.ts';
+
 import { formatDuration } from '../renderer/export/progress-words.ts';
+import { PlaybackClock } from '../renderer/playback/playback-clock.ts';
+import { modelTopology } from '../renderer/preview/model-topology.ts';
+import { unitFromKey } from '../renderer/sweep/unit-from-key.ts';
+import { nodeSpringIncidence, surfaceQuads } from '../renderer/view/body-topology.ts';
+import type { LatticeMaterial } from '../sim/systems/lattice.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 
 const foam: LatticeMaterial = { name: 'foam', youngsModulusPa: 1e4, densityKgPerM3: 1000, dampingRatio: 0.1, actuatorChannel: null, actuationStrainMax: 0 };
 

@@ -6,23 +6,25 @@
 // Core Specification 2.0 §4.3.3; ECMA-262 §6.1.6.1). The same worker under the policy without
 // 'wasm-unsafe-eval' must be refused WebAssembly (CSP Level 3; from memory) and fall back to the
 // JavaScript kernel with the same bits, which shows the source is needed and the fallback works.
-import { createServer } from 'node:http';
-import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import type { Server } from 'node:http';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { build } from 'esbuild';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { CONTENT_SECURITY_POLICY } from '../electron/content-security-policy.ts';
-import { chromiumAvailability } from './support/reference-chromium.ts';
-import { launchChromium } from './support/e2e-browser.ts';
-import { REPO_ROOT } from './support/e2e-web-app.ts';
+import { buildChain1024, CHAIN_1024_DT_S } from '../sim/bench/chain-1024.ts';
+import { buildLattice8x8x8, LATTICE_CONTROL_INTERVAL_S,latticeControl, latticeSubsteps, latticeWorld } from '../sim/bench/lattice-8x8x8.ts';
 import { Simulator } from '../sim/core/simulator.ts';
 import { defaultWorld } from '../sim/core/world.ts';
-import { buildChain1024, CHAIN_1024_DT_S } from '../sim/bench/chain-1024.ts';
-import { buildLattice8x8x8, latticeControl, latticeSubsteps, latticeWorld, LATTICE_CONTROL_INTERVAL_S } from '../sim/bench/lattice-8x8x8.ts';
+import { launchChromium } from './support/e2e-browser.ts';
+import { REPO_ROOT } from './support/e2e-web-app.ts';
+import { chromiumAvailability } from './support/reference-chromium.ts';
 
 const chromium = chromiumAvailability();
 const CHAIN_STEPS = 400;

@@ -6,14 +6,16 @@
 import { mkdtempSync, realpathSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ArrayDtype, BridgeEvent, PreloadBridgeApi, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
+
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createNativeFolderChooser } from '../electron/folder-dialog.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import { BridgeRequestError } from '../renderer/bridge/bridge-request-error.ts';
 import { base64ToBytes, decodeArray } from '../renderer/bridge/decode-array.ts';
 import { createElectronBridge } from '../renderer/bridge/electron-bridge.ts';
+import type { ArrayDtype, BridgeEvent, PreloadBridgeApi, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 let root: string;

@@ -9,7 +9,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { buildElectronBundles, WORKER_BUNDLES } from '../electron/electron-bundles.ts';
 import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';

@@ -6,7 +6,9 @@
 import { mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { createAppProtocolHandler } from '../electron/app-protocol.ts';
 import { CONTENT_SECURITY_POLICY } from '../electron/content-security-policy.ts';
 

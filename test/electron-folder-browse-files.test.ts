@@ -7,12 +7,14 @@
 import { mkdirSync, mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { FolderListing } from '../sim/bridge/bridge-contract.ts';
+
 import { createDefaultServices } from '../electron/default-services.ts';
-import { createRequestHandlers } from '../electron/request-handlers.ts';
-import type { RequestHandlers } from '../electron/request-handlers.ts';
 import { createNativeFolderChooser, folderDialogOptions } from '../electron/folder-dialog.ts';
+import type { RequestHandlers } from '../electron/request-handlers.ts';
+import { createRequestHandlers } from '../electron/request-handlers.ts';
+import type { FolderListing } from '../sim/bridge/bridge-contract.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 let root: string;

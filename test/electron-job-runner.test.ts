@@ -7,13 +7,15 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
+
+import { defaultJobLimits } from '../electron/job-limits.ts';
 import type { JobSpec, JobWorkerData } from '../electron/job-worker-protocol.ts';
 import { RequestError } from '../electron/request-error.ts';
-import { defaultJobLimits } from '../electron/job-limits.ts';
-import { createWorkerJobRunner } from '../electron/worker-job-runner.ts';
 import type { JobWorker } from '../electron/worker-job-runner.ts';
+import { createWorkerJobRunner } from '../electron/worker-job-runner.ts';
+import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
 
 const exportSpec = (behaviour: string): JobSpec => ({
   kind: 'export',

@@ -7,8 +7,10 @@
 import { mkdirSync, mkdtempSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { createAppProtocolHandler } from '../electron/app-protocol.ts';
 
 let root: string;

@@ -4,16 +4,18 @@
 // 6.3.3 (pattern), 6.5.3 (required), 10.3.2.3 (additionalProperties); OWASP "Path Traversal"
 // (dot-dot sequences, symlinks, absolute paths outside the web root); Electron's security
 // checklist, item 17 (treat every IPC message as untrusted input).
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync, realpathSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, realpathSync,rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { BRIDGE_LIMITS } from '../sim/bridge/bridge-contract.ts';
-import type { RequestErrorInfo, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
+
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createNativeFolderChooser } from '../electron/folder-dialog.ts';
-import { createRequestHandlers } from '../electron/request-handlers.ts';
 import type { RequestHandlers } from '../electron/request-handlers.ts';
+import { createRequestHandlers } from '../electron/request-handlers.ts';
+import type { RequestErrorInfo, RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
+import { BRIDGE_LIMITS } from '../sim/bridge/bridge-contract.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 
 let root: string;

@@ -4,7 +4,9 @@
 // '{ "a": ' the missing value is at the end of the text, line 1, column 8 (ECMA-404: a member
 // needs a value after its colon).
 import { tmpdir } from 'node:os';
+
 import { describe, expect, it } from 'vitest';
+
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
 import { SIM_SCENARIO_CHECKER } from '../electron/sim-scenario-checker.ts';

@@ -2,10 +2,11 @@
 // IPC messages" (parse the frame URL with a real URL parser and compare against an allow list;
 // item 13 warns that prefix checks let "example.com.attacker.com" through).
 import { describe, expect, it } from 'vitest';
-import type { RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
+
 import { createIpcRequestListener, REFUSED_SENDER_REPLY } from '../electron/ipc-shell.ts';
 import type { RequestHandlers } from '../electron/request-handlers.ts';
 import { isTrustedSenderFrame } from '../electron/sender-frame-check.ts';
+import type { RequestName, RequestReply } from '../sim/bridge/bridge-contract.ts';
 
 const top = (url: string) => ({ url, parent: null });
 

@@ -6,8 +6,10 @@
 import { mkdirSync, mkdtempSync, realpathSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import type { MenuItemConstructorOptions, Session, WebContents } from 'electron';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { appMenuTemplate } from '../electron/app-menu.ts';
 import { createAppProtocolHandler } from '../electron/app-protocol.ts';
 import { APP_ENTRY_URL, APP_SCHEME_REGISTRATION, isAppUrl } from '../electron/app-scheme.ts';

@@ -8,7 +8,9 @@
 // other import rules in architecture-layering.test.ts.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { REPO_ROOT } from './support/app-flow-session.ts';
 
 const SHELLS = ['electron/main.ts', 'electron/web-cli.ts'];

@@ -7,7 +7,9 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { createWorkerVerifier, MAX_PARALLEL_VERIFICATIONS } from '../electron/verify-in-worker.ts';
 
 let dir: string;

@@ -4,6 +4,7 @@
 // 8 no allowRunningInsecureContent, 9 no experimentalFeatures, 10 no enableBlinkFeatures,
 // 11-12 no <webview>, 13 limit navigation (no navigate-on-drop).
 import { describe, expect, it } from 'vitest';
+
 import { mainWindowOptions } from '../electron/window-options.ts';
 
 const PRELOAD = '/opt/pliant/resources/app/dist/electron/preload.cjs';

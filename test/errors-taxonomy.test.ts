@@ -6,32 +6,34 @@
 // source); 70 is EX_SOFTWARE of BSD's sysexits.h; HTTP statuses per RFC 9110 section 15; the
 // real ENOSPC comes from Linux's /dev/full, which "returns ENOSPC on write" (full(4) man page).
 import { writeFileSync } from 'node:fs';
+
 import { describe, expect, it } from 'vitest';
-import { ERROR_KINDS, PliantError, type ErrorKind } from '../sim/errors/pliant-error.ts';
-import { reportOf, ReportedError } from '../sim/errors/error-report.ts';
-import { systemErrorKind } from '../sim/errors/system-error-kind.ts';
-import { cliFailureOf, EXIT_CODE_BY_KIND } from '../sim/cli/exit-codes.ts';
-import { CliUsageError } from '../sim/cli/command.ts';
+
 import { toRequestErrorInfo } from '../electron/request-error.ts';
 import { STATUS_BY_CODE } from '../electron/web-server.ts';
-import { SpecError } from '../sim/random/spec-problem.ts';
-import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
+import { CliUsageError } from '../sim/cli/command.ts';
+import { cliFailureOf, EXIT_CODE_BY_KIND } from '../sim/cli/exit-codes.ts';
 import { SimulationBlowUpError } from '../sim/core/simulation-error.ts';
-import { JsonStreamError } from '../sim/dataset/formats/json-stream-scanner.ts';
-import { UnknownSortKeyError } from '../sim/dataset/read/episode-listing.ts';
-import { EpisodeWorkerError } from '../sim/dataset/write/episode-pool.ts';
+import { DatasetNotFoundError } from '../sim/dataset/formats/dataset-not-found-error.ts';
+import { DatasetReadError } from '../sim/dataset/formats/dataset-read-error.ts';
 import { DatasetRequestError } from '../sim/dataset/formats/dataset-request-error.ts';
 import { DatasetWriteError, datasetWriteErrorFromErrno } from '../sim/dataset/formats/dataset-write-error.ts';
-import { RejectionLimitError } from '../sim/dataset/write/rejection-limit.ts';
-import { DatasetReadError } from '../sim/dataset/formats/dataset-read-error.ts';
-import { DatasetNotFoundError } from '../sim/dataset/formats/dataset-not-found-error.ts';
-import { ShardPlanError } from '../sim/dataset/write/shard-plan.ts';
-import { EpisodeBuildError } from '../sim/dataset/write/episode-product.ts';
+import { JsonStreamError } from '../sim/dataset/formats/json-stream-scanner.ts';
 import { NpzTooLargeError } from '../sim/dataset/formats/npz.ts';
-import { MissingPictureArrayError } from '../sim/render/render-episode.ts';
+import { UnknownSortKeyError } from '../sim/dataset/read/episode-listing.ts';
+import { EpisodeWorkerError } from '../sim/dataset/write/episode-pool.ts';
+import { EpisodeBuildError } from '../sim/dataset/write/episode-product.ts';
+import { RejectionLimitError } from '../sim/dataset/write/rejection-limit.ts';
+import { ShardPlanError } from '../sim/dataset/write/shard-plan.ts';
+import { ReportedError,reportOf } from '../sim/errors/error-report.ts';
+import { ERROR_KINDS, type ErrorKind,PliantError } from '../sim/errors/pliant-error.ts';
+import { systemErrorKind } from '../sim/errors/system-error-kind.ts';
 import { BaselineInputError } from '../sim/identify/baselines/baseline-input-error.ts';
-import { PredictionsError } from '../sim/identify/predictions/predictions-error.ts';
 import { CalibrationInputError } from '../sim/identify/calibration/calibration-input-error.ts';
+import { PredictionsError } from '../sim/identify/predictions/predictions-error.ts';
+import { SpecError } from '../sim/random/spec-problem.ts';
+import { MissingPictureArrayError } from '../sim/render/render-episode.ts';
+import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
 
 const TANK = '/korrin-bay/tether-sweep';
 

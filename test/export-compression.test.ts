@@ -12,15 +12,17 @@
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
-import { encodeEpisodeNpz } from '../sim/dataset/write/episode-npz.ts';
-import { writeDatasetFile } from '../sim/dataset/write/dataset-file-writer.ts';
+import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
+import type { NamedArray } from '../sim/dataset/formats/named-array.ts';
 import type { DatasetManifest } from '../sim/dataset/manifest/dataset-manifest.ts';
 import { manifestProblems } from '../sim/dataset/manifest/manifest-check.ts';
-import type { NamedArray } from '../sim/dataset/formats/named-array.ts';
 import { parseSeedFile } from '../sim/dataset/manifest/seed-file.ts';
-import { sha256Hex } from '../sim/dataset/formats/file-digest.ts';
+import { writeDatasetFile } from '../sim/dataset/write/dataset-file-writer.ts';
+import { encodeEpisodeNpz } from '../sim/dataset/write/episode-npz.ts';
 import { writeSplitHdf5 } from '../sim/dataset/write/split-hdf5.ts';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { COMPRESSION_LEVELS, EXPORT_COMPRESSIONS } from '../sim/scenario/export-compression.ts';

@@ -8,11 +8,13 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
+import { BENCH_TRUE_VALUES, loadTetherScenario, makeKorrinTetherBench } from '../scenarios/bench/make-korrin-tether-bench.ts';
 import { runCli } from '../sim/cli/main.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
-import { BENCH_TRUE_VALUES, loadTetherScenario, makeKorrinTetherBench } from '../scenarios/bench/make-korrin-tether-bench.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const work = mkdtempSync(join(tmpdir(), 'pliant-calibrate-bench-'));

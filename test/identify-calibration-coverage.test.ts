@@ -9,11 +9,12 @@
 // seed are correlated, which widens the spread a little, so the accepted band is the binomial's
 // central 99.99 % (exact binomial CDF, computed below), about ±3.9 binomial standard deviations.
 import { describe, expect, it } from 'vitest';
+
 import { calibrate } from '../sim/identify/calibration/calibrate.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { cleanPositions, syntheticMeasurement } from './support/synthetic-measurement.ts';
 import type { SyntheticMeasurementSpec } from './support/synthetic-measurement.ts';
+import { cleanPositions, syntheticMeasurement } from './support/synthetic-measurement.ts';
 
 const SEEDS = 100;
 const TRUTH = { '/system/axialStiffnessN': 260, '/system/dampingRatio': 0.05 };

@@ -6,6 +6,7 @@
 // check must flag stiffness and mass (each naming the other), print no value or standard error
 // for them, keep their specs in the fitted scenario, and still fit the damping ratio.
 import { describe, expect, it } from 'vitest';
+
 import { calibrate } from '../sim/identify/calibration/calibrate.ts';
 import { fittedScenario } from '../sim/identify/calibration/fitted-scenario.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';

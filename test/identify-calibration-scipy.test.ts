@@ -13,12 +13,13 @@
 // (Measured when written: values within 2e-6 SE, standard errors within 1e-7 relative.)
 // The scenario is an invented Korrin Bay spring check.
 import { describe, expect, it } from 'vitest';
+
 import { calibrate } from '../sim/identify/calibration/calibrate.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
-import { cleanPositions, syntheticMeasurement } from './support/synthetic-measurement.ts';
 import type { SyntheticMeasurementSpec } from './support/synthetic-measurement.ts';
+import { cleanPositions, syntheticMeasurement } from './support/synthetic-measurement.ts';
 
 const python = referencePythonAvailability();
 

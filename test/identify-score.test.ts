@@ -8,10 +8,12 @@
 // written with Pliant's NPZ writer) and the truth plus Gaussian noise whose spread grows with
 // the horizon (written by numpy.savez_compressed, float32, velocities for some episodes only).
 // Also: the same inputs give the same bytes of every output file.
-import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { scoreProblems } from '../sim/identify/score/score-check.ts';
 import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';

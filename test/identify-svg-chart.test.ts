@@ -2,6 +2,7 @@
 // mapped linearly (or by decade) onto the plot box, gaps at non-finite values, and the same
 // input giving the same bytes. Tick values follow the 1-2-5 rule (common practice, no source).
 import { describe, expect, it } from 'vitest';
+
 import { decadeTicks, niceTicks } from '../sim/plots/nice-ticks.ts';
 import { renderLineChart } from '../sim/plots/svg-line-chart.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';

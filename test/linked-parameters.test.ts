@@ -9,27 +9,29 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+
+import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
+import { runCli } from '../sim/cli/main.ts';
+import { makeSeedFile, parseSeedFile, renderSeedFile } from '../sim/dataset/manifest/seed-file.ts';
+import type { DerivedExpression } from '../sim/random/derived-expression.ts';
 import {
-  ExpressionSyntaxError,
   derivedInterval,
   evaluateDerived,
+  ExpressionSyntaxError,
   isWholeByConstruction,
   parseDerivedExpression,
 } from '../sim/random/derived-expression.ts';
-import type { DerivedExpression } from '../sim/random/derived-expression.ts';
 import { sampleValue } from '../sim/random/distribution.ts';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { designParameters } from '../sim/scenario/design/scenario-design.ts';
+import { EpisodeDraws } from '../sim/scenario/episode-draws.ts';
+import { scenarioForEpisode } from '../sim/scenario/linked-parameters.ts';
 import { parameterStream } from '../sim/scenario/parameter-streams.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { scenarioForEpisode } from '../sim/scenario/linked-parameters.ts';
-import { EpisodeDraws } from '../sim/scenario/episode-draws.ts';
-import { makeSeedFile, parseSeedFile, renderSeedFile } from '../sim/dataset/manifest/seed-file.ts';
-import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
-import { runCli } from '../sim/cli/main.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const eelText = readFileSync(join(ROOT, 'scenarios/korrin-eel.json'), 'utf8');

@@ -4,10 +4,12 @@
 // sampled bodies (and the demo's datasets) are the same bit for bit.
 import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
+import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { checkedScenario } from '../renderer/preview/checked-scenario.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const eelText = readFileSync(join(ROOT, 'scenarios/korrin-eel.json'), 'utf8');

@@ -12,11 +12,13 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
+
 import { valueAtPointer } from '../sim/dataset/formats/json-pointer-lookup.ts';
-import { ARRAY_DTYPES, namedArray } from '../sim/dataset/formats/named-array.ts';
 import type { ArrayDtype, NamedArray } from '../sim/dataset/formats/named-array.ts';
+import { ARRAY_DTYPES, namedArray } from '../sim/dataset/formats/named-array.ts';
 import { writeNpzFile } from '../sim/dataset/formats/npz.ts';
 import { parseShard, shardEpisodes } from '../sim/dataset/write/shard-plan.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';

@@ -3,8 +3,9 @@
 // so the p-values are fixed numbers, not flaky draws. The bounds, constancy and error rules
 // are the spec format's own definition (common practice, no source).
 import { describe, expect, it } from 'vitest';
-import { isConstant, sampleValue, specBounds } from '../sim/random/distribution.ts';
+
 import type { CategoricalSpec, NumericValueSpec, ValueSpec } from '../sim/random/distribution.ts';
+import { isConstant, sampleValue, specBounds } from '../sim/random/distribution.ts';
 import { RandomStream, StreamPurpose } from '../sim/random/random-stream.ts';
 import { SpecError } from '../sim/random/spec-problem.ts';
 import { findValueSpecProblems } from '../sim/random/value-spec-problems.ts';

@@ -5,6 +5,7 @@
 // the Random123 manual examples (girving/random123-manual, examples/kat_vectors).
 // Line format there: counter words c0..c3, key words k0 k1, expected output words.
 import { describe, expect, it } from 'vitest';
+
 import { mulHi32, philox4x32, philox4x32Rounds } from '../sim/random/philox4x32.ts';
 
 function words(hex: string): Uint32Array {

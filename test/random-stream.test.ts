@@ -3,6 +3,7 @@
 // (girving/random123-manual, examples/kat_vectors); its uniforms, normals and integers are
 // checked with Debian's SciPy (Kolmogorov–Smirnov and chi-square tests, fixed seeds).
 import { describe, expect, it } from 'vitest';
+
 import { masterSeedKey, RandomStream, StreamPurpose, SUB_STREAM_LIMIT } from '../sim/random/random-stream.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

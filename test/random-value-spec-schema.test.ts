@@ -4,6 +4,7 @@
 // The standalone form carries its shared definition under $defs, as the scenario schema does.
 import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
+
 import { findValueSpecProblems } from '../sim/random/value-spec-problems.ts';
 import { standaloneValueSpecSchema as valueSpecSchema } from '../sim/random/value-spec-schema.ts';
 

@@ -2,10 +2,12 @@
 // reference decoder) to the frame count, size and timing asked for; the PNG writer's CRC-32
 // matches the published check value and Python's zlib.crc32; the hanging tether's pinned top
 // is drawn at the top of the side view. Bad requests exit 2 with a message.
-import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { runCli } from '../sim/cli/main.ts';
 import { crc32 } from '../sim/render/crc32.ts';
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';

@@ -3,9 +3,10 @@
 // own world for the same episode: what is drawn is where the nodes collided (common practice,
 // no source: the view must show the scene that was simulated). Pointers follow RFC 6901.
 import { describe, expect, it } from 'vitest';
+
+import { datasetScene, episodeWorld } from '../renderer/datasets/dataset-scene.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { datasetScene, episodeWorld } from '../renderer/datasets/dataset-scene.ts';
 
 describe('dataset scene: obstacles rebuilt from the seed scenario and the labels', () => {
   it('three obstacles with drawn centres and sizes equal the simulated world\'s, number for number', () => {

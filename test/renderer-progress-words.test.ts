@@ -3,8 +3,9 @@
 // not started. The running line is the worked example of the job runner's test (40 of 100
 // episodes at 5 episodes/s, 12 s left; plain arithmetic, common practice, no source).
 import { describe, expect, it } from 'vitest';
-import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
+
 import { describeRate } from '../renderer/export/progress-words.ts';
+import type { JobProgress } from '../sim/bridge/bridge-contract.ts';
 
 const base: JobProgress = { jobId: 'job-1', kind: 'export', done: 0, total: 0, episodesPerS: 0, etaS: null, state: 'queued' };
 

@@ -4,7 +4,9 @@
 // definition of the continuous uniform distribution), so its wording is compared with that case.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
 
 const TETHER = readFileSync(join(import.meta.dirname, '..', 'scenarios', 'korrin-tether.json'), 'utf8');

@@ -6,11 +6,12 @@
 // equals no design, a constant parameter added moves nothing, any episode computed alone
 // equals the same episode computed after all the others.
 import { describe, expect, it } from 'vitest';
+
+import { sampleValue } from '../sim/random/distribution.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { designParameters, scenarioDesignPlan } from '../sim/scenario/design/scenario-design.ts';
-import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { parameterStream } from '../sim/scenario/parameter-streams.ts';
-import { sampleValue } from '../sim/random/distribution.ts';
+import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
 
 function tether(extra: Record<string, unknown> = {}, system: Record<string, unknown> = {}): Record<string, unknown> {

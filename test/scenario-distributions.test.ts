@@ -4,6 +4,7 @@
 // scipy.stats.spearmanr for independence between parameters), via Debian's /usr/bin/python3.
 // With a fixed seed the p-values are fixed numbers; each must exceed 1e-3.
 import { beforeAll, describe, expect, it } from 'vitest';
+
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';

@@ -4,6 +4,7 @@
 // "a" → 0xe40c292c, "b" → 0xe70c2de5, "foobar" → 0xbf9cf968. The UTF-8 path is checked
 // against the bytes Debian's Python produces with str.encode('utf-8').
 import { describe, expect, it } from 'vitest';
+
 import { fnv1a32, xorFold24 } from '../sim/scenario/fnv1a.ts';
 import { parameterSubStream } from '../sim/scenario/parameter-streams.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';

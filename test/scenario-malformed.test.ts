@@ -7,9 +7,10 @@
 // Coulomb friction needs μ_k ≤ μ_s (common practice, no source); IEEE 754 doubles overflow
 // above about 1.8e308 and hold whole numbers exactly only up to 2^53 (IEEE 754-2008).
 import { describe, expect, it } from 'vitest';
+
 import { checkScenarioText } from '../sim/scenario/check-scenario.ts';
-import { formatProblems } from '../sim/scenario/scenario-problem.ts';
 import type { ScenarioProblem } from '../sim/scenario/scenario-problem.ts';
+import { formatProblems } from '../sim/scenario/scenario-problem.ts';
 
 type Json = any; // test fixtures are edited freely before being written out
 

@@ -4,12 +4,13 @@
 // lies in [a, b] (definition of the distribution); JSON pointers address the value they name
 // (RFC 6901).
 import { describe, expect, it } from 'vitest';
-import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
-import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
+
+import { ENERGY_TERMS } from '../sim/core/energy.ts';
+import { FLOW_COLUMNS } from '../sim/core/energy-flows.ts';
 import { produceEpisode } from '../sim/dataset/write/episode-product.ts';
 import { ReplayTable } from '../sim/dataset/write/replay-inputs.ts';
-import { FLOW_COLUMNS } from '../sim/core/energy-flows.ts';
-import { ENERGY_TERMS } from '../sim/core/energy.ts';
+import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
+import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 
 type Json = any; // fixtures are edited freely before checking
 

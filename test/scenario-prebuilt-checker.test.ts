@@ -7,7 +7,9 @@
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join, resolve } from 'node:path';
+
 import { afterAll, describe, expect, it, vi } from 'vitest';
+
 import { scenarioCheckerModuleCode } from '../sim/cli/scenario-checker-code.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');

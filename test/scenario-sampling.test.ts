@@ -7,6 +7,7 @@
 // deviation of n normal draws has relative standard error about 1/√(2n) (textbook sampling
 // theory, e.g. Kendall & Stuart).
 import { describe, expect, it } from 'vitest';
+
 import { NODE_DRIVEN, NODE_PINNED, RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { previewEpisodes } from '../sim/scenario/preview-episodes.ts';

@@ -3,6 +3,7 @@
 // source of the defaults a checked scenario receives.
 import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
+
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { SCENARIO_SCHEMA } from '../sim/scenario/scenario-schema.ts';
 

@@ -4,6 +4,7 @@
 // and actuator channels per cell in the given proportions (within 4.5 binomial standard
 // deviations, normal approximation; Feller, vol. 1).
 import { describe, expect, it } from 'vitest';
+
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { SampledEpisode } from '../sim/scenario/sampled-episode.ts';

@@ -8,10 +8,11 @@
 // and is checked here as a property; largest remainders (Hamilton's method) as there.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { countsFromFractions, dealInOrder } from '../sim/scenario/splits/split-dealing.ts';
 import type { Scenario } from '../sim/scenario/scenario-types.ts';
+import { countsFromFractions, dealInOrder } from '../sim/scenario/splits/split-dealing.ts';
 
 function tether(splits: Record<string, unknown>, extra: Record<string, unknown> = {}): Record<string, unknown> {
   return {

@@ -4,6 +4,7 @@
 // probability text, e.g. Feller, An Introduction to Probability Theory, vol. 1), and SciPy's
 // exact binomial test (scipy.stats.binomtest, via /usr/bin/python3) agrees, p > 1e-3.
 import { beforeAll, describe, expect, it } from 'vitest';
+
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { SampledEpisode } from '../sim/scenario/sampled-episode.ts';

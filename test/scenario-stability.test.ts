@@ -5,6 +5,7 @@
 // build the stiffest, lightest corner of the ranges. Checked by sampling many episodes and
 // computing each one's bound.
 import { describe, expect, it } from 'vitest';
+
 import { stabilityBound } from '../sim/core/stability-bound.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';

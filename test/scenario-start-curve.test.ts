@@ -8,11 +8,12 @@
 // - both: structural springs start at rest length, node 0 does not move, the drawn values are
 //   labels, and a scenario without a curve keeps the straight built line.
 import { describe, expect, it } from 'vitest';
+
+import type { Model } from '../sim/core/model.ts';
+import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
+import { unitOfLabel } from '../sim/dataset/manifest/label-units.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
-import type { Model } from '../sim/core/model.ts';
-import { unitOfLabel } from '../sim/dataset/manifest/label-units.ts';
 
 type Json = Record<string, unknown>;
 

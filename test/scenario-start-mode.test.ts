@@ -17,19 +17,20 @@
 // - an episode started in mode k of an undamped beaded chain oscillates at ω_k (period from
 //   the recording's zero crossings) and stays in that mode (projection on the others small).
 import { describe, expect, it } from 'vitest';
-import { buildChain } from '../sim/systems/chain.ts';
-import type { ChainParameters } from '../sim/systems/chain.ts';
-import { buildLattice } from '../sim/systems/lattice.ts';
-import { freeCoordinates, normalModes, vibrationModes, ZERO_MODE_TOLERANCE } from '../sim/core/normal-modes.ts';
-import { stiffnessMatrix } from '../sim/core/stiffness-matrix.ts';
-import { SPRING_PART_ELASTIC, writeSpringForcePart } from '../sim/core/spring-force-parts.ts';
+
 import type { Model } from '../sim/core/model.ts';
+import { freeCoordinates, normalModes, vibrationModes, ZERO_MODE_TOLERANCE } from '../sim/core/normal-modes.ts';
+import { SPRING_PART_ELASTIC, writeSpringForcePart } from '../sim/core/spring-force-parts.ts';
+import { stiffnessMatrix } from '../sim/core/stiffness-matrix.ts';
+import { recordTrajectory } from '../sim/episode/record-episode.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import { ScenarioProblemError } from '../sim/scenario/scenario-problem.ts';
-import { recordTrajectory } from '../sim/episode/record-episode.ts';
-import { zeroCrossingPeriodS } from './support/zero-crossing-period.ts';
+import type { ChainParameters } from '../sim/systems/chain.ts';
+import { buildChain } from '../sim/systems/chain.ts';
+import { buildLattice } from '../sim/systems/lattice.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
+import { zeroCrossingPeriodS } from './support/zero-crossing-period.ts';
 
 type Json = Record<string, unknown>;
 const python = referencePythonAvailability();

@@ -8,9 +8,10 @@
 //   angular momentum about its centre of mass is I·ω with I = Σ m(|r|²·1 − r·rᵀ) (Goldstein,
 //   Classical Mechanics, rigid-body kinematics; from memory) and its momentum M·v₀.
 import { describe, expect, it } from 'vitest';
+
+import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
 import { checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
-import { RELATION_STRUCTURAL } from '../sim/core/model.ts';
 
 type Json = Record<string, unknown>;
 

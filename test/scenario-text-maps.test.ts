@@ -5,7 +5,9 @@
 // so the same sampled bodies, bit for bit.
 import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+
 import { describe, expect, it } from 'vitest';
+
 import { checkScenarioText, checkScenarioValue } from '../sim/scenario/check-scenario.ts';
 import { sampleEpisode } from '../sim/scenario/sample-episode.ts';
 import type { LatticeSystemSpec, MapListShapeSpec } from '../sim/scenario/scenario-types.ts';

@@ -9,7 +9,9 @@
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, describe, expect, it } from 'vitest';
+
 import type { ScoreDocument } from '../sim/identify/score/score-document.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 import { runPliant } from './support/score-fixture.ts';

@@ -3,12 +3,13 @@
 // words with the unit the key carries ("Length, m"; SI unit symbols as in the SI Brochure, 9th
 // edition, 2019, table 4), and each problem is counted in the innermost section that holds it.
 import { describe, expect, it } from 'vitest';
-import { SCENARIO_SCHEMA } from '../sim/scenario/scenario-schema.ts';
+
 import { fieldLabel } from '../renderer/sweep/field-label.ts';
+import type { SchemaObject } from '../renderer/sweep/schema-shape.ts';
+import { SchemaReader } from '../renderer/sweep/schema-shape.ts';
 import { sectionOf } from '../renderer/sweep/section-of.ts';
 import { unitOfField } from '../renderer/sweep/unit-from-key.ts';
-import { SchemaReader } from '../renderer/sweep/schema-shape.ts';
-import type { SchemaObject } from '../renderer/sweep/schema-shape.ts';
+import { SCENARIO_SCHEMA } from '../sim/scenario/scenario-schema.ts';
 
 type Node = Record<string, unknown>;
 

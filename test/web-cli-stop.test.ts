@@ -6,7 +6,9 @@
 // /proc/<pid>/stat (proc(5): field 4 is the parent's pid, field 3 the state).
 import { spawn } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
+
 import { describe, expect, it } from 'vitest';
+
 import { REPO_ROOT } from './support/e2e-web-app.ts';
 
 interface ProcEntry {

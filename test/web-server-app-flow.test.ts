@@ -7,13 +7,15 @@
 import { mkdirSync, mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { EventSource } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BridgeEvent, JobProgress } from '../sim/bridge/bridge-contract.ts';
+
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
-import { startWebServer } from '../electron/web-server.ts';
 import type { RunningWebServer } from '../electron/web-server.ts';
+import { startWebServer } from '../electron/web-server.ts';
+import type { BridgeEvent, JobProgress } from '../sim/bridge/bridge-contract.ts';
 import { cutDownScenario, REPO_ROOT } from './support/app-flow-session.ts';
 import { referencePythonAvailability, runReferencePython } from './support/reference-python.ts';
 

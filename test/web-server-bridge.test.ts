@@ -6,17 +6,19 @@ import { mkdirSync, mkdtempSync, realpathSync, rmSync, writeFileSync } from 'nod
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+
 import { EventSource } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BridgeEvent, JobProgress } from '../sim/bridge/bridge-contract.ts';
+
 import { createDefaultServices } from '../electron/default-services.ts';
 import { defaultJobLimits } from '../electron/job-limits.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
-import { startWebServer } from '../electron/web-server.ts';
 import type { RunningWebServer } from '../electron/web-server.ts';
+import { startWebServer } from '../electron/web-server.ts';
 import { BridgeRequestError } from '../renderer/bridge/bridge-request-error.ts';
-import { createWebBridge, readSessionToken } from '../renderer/bridge/web-bridge.ts';
 import type { EventSourceLike, InPageFolderPicker, WebBridgeOptions } from '../renderer/bridge/web-bridge.ts';
+import { createWebBridge, readSessionToken } from '../renderer/bridge/web-bridge.ts';
+import type { BridgeEvent, JobProgress } from '../sim/bridge/bridge-contract.ts';
 
 let root: string;
 let server: RunningWebServer;

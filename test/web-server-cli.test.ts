@@ -6,9 +6,11 @@ import { spawn } from 'node:child_process';
 import { mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
+
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
+import { cutDownScenario, runPliant } from './support/app-flow-session.ts';
 
 let renderer: string;
 let datasets: string;

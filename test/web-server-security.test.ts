@@ -6,17 +6,19 @@
 // RFC 9110 section 15.5.6 (405 must carry an Allow header). Requests are sent with node:http so
 // the raw path reaches the server exactly as written (fetch would normalise "%2e%2e" away).
 import { mkdirSync, mkdtempSync, realpathSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
-import { request } from 'node:http';
 import type { IncomingHttpHeaders } from 'node:http';
+import { request } from 'node:http';
 import { connect } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
 import { CONTENT_SECURITY_POLICY } from '../electron/content-security-policy.ts';
 import { createDefaultServices } from '../electron/default-services.ts';
 import { createRequestHandlers } from '../electron/request-handlers.ts';
-import { startWebServer } from '../electron/web-server.ts';
 import type { RunningWebServer } from '../electron/web-server.ts';
+import { startWebServer } from '../electron/web-server.ts';
 
 interface RawResponse {
   status: number;

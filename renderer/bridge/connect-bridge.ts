@@ -1,11 +1,11 @@
 // Picks the bridge for wherever the page is running: the preload's window.pliantBridge inside
 // the desktop app, otherwise the web-mode server named by the page's own address.
-import { PRELOAD_GLOBAL_NAME } from '../../sim/bridge/bridge-contract.ts';
 import type { PreloadBridgeApi } from '../../sim/bridge/bridge-contract.ts';
+import { PRELOAD_GLOBAL_NAME } from '../../sim/bridge/bridge-contract.ts';
 import { createElectronBridge } from './electron-bridge.ts';
 import type { PliantBridge } from './pliant-bridge.ts';
-import { createWebBridge, readSessionToken } from './web-bridge.ts';
 import type { InPageFolderPicker } from './web-bridge.ts';
+import { createWebBridge, readSessionToken } from './web-bridge.ts';
 
 export function connectBridge(options: { pickFolderInPage?: InPageFolderPicker } = {}): PliantBridge {
   const preload = (window as unknown as Record<string, PreloadBridgeApi | undefined>)[PRELOAD_GLOBAL_NAME];

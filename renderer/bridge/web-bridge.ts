@@ -5,8 +5,8 @@
 // There is no system folder dialog in a browser, so `folder.choose` is answered by the page's own
 // folder picker (passed in by the screens), which browses with folder.browse; the chosen folder
 // is then granted to the session with folder.allow.
-import { EVENT_NAMES, WEB_EVENTS_PATH, WEB_REQUEST_PREFIX, WEB_TOKEN_HEADER, WEB_TOKEN_PARAM } from '../../sim/bridge/bridge-contract.ts';
 import type { BridgeEvent, FolderListing, FolderPurpose, RequestArgs, RequestName, RequestResult } from '../../sim/bridge/bridge-contract.ts';
+import { EVENT_NAMES, WEB_EVENTS_PATH, WEB_REQUEST_PREFIX, WEB_TOKEN_HEADER, WEB_TOKEN_PARAM } from '../../sim/bridge/bridge-contract.ts';
 import { BridgeRequestError } from './bridge-request-error.ts';
 import type { PliantBridge } from './pliant-bridge.ts';
 import { unwrapReply } from './unwrap-reply.ts';

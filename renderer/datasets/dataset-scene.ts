@@ -3,8 +3,8 @@
 // obstacles stood where (numbers drawn per episode come from its labels), and what the
 // materials are called. The episode arrays hold none of this; without a seed file the Datasets
 // screen plays the body alone.
-import type { StageWorld } from '../view/stage-world.ts';
 import type { Obstacle } from '../../sim/core/world.ts';
+import type { StageWorld } from '../view/stage-world.ts';
 
 export interface DatasetScene {
   hasGround: boolean;

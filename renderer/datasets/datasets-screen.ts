@@ -11,11 +11,11 @@ import { button, h } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { TrajectoryPlayer } from '../view/trajectory-player.ts';
-import { EpisodePictureSaver } from './episode-picture-saver.ts';
-import { EpisodeTable } from './episode-table.ts';
-import { playableEpisode } from './episode-playback.ts';
-import { datasetScene, episodeWorld } from './dataset-scene.ts';
 import type { DatasetScene } from './dataset-scene.ts';
+import { datasetScene, episodeWorld } from './dataset-scene.ts';
+import { EpisodePictureSaver } from './episode-picture-saver.ts';
+import { playableEpisode } from './episode-playback.ts';
+import { EpisodeTable } from './episode-table.ts';
 
 export class DatasetsScreen implements Screen {
   readonly id = 'datasets';

@@ -3,11 +3,11 @@
 // positions, time, energies and controls. Array names and layouts are those of the dataset's
 // episode catalogue (sim/dataset/manifest/episode-array-catalogue.ts).
 import type { EpisodeArrays } from '../../sim/bridge/bridge-contract.ts';
-import { decodeArray } from '../bridge/decode-array.ts';
-import type { DecodedArray } from '../bridge/decode-array.ts';
-import { NODE_FEATURE_NAMES } from '../../sim/systems/graph-labels.ts';
-import { TrajectoryFrames } from '../playback/trajectory-frames.ts';
 import { ENERGY_NAMES, ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
+import { NODE_FEATURE_NAMES } from '../../sim/systems/graph-labels.ts';
+import type { DecodedArray } from '../bridge/decode-array.ts';
+import { decodeArray } from '../bridge/decode-array.ts';
+import { TrajectoryFrames } from '../playback/trajectory-frames.ts';
 
 const BENDING = ENERGY_NAMES.indexOf('bending');
 import type { BodyTopology } from '../view/body-topology.ts';

@@ -5,17 +5,17 @@
 // shows the episodes per split and an estimate of the folder's size and the time it takes.
 import type { AppInfo, ExportFormat, JobProgress } from '../../sim/bridge/bridge-contract.ts';
 import { BRIDGE_LIMITS } from '../../sim/bridge/bridge-contract.ts';
-import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { SweepDocument } from '../app/sweep-document.ts';
+import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { byteSize } from '../ui/byte-size.ts';
 import { button, h, labelled, select } from '../ui/element.ts';
-import { safetyCaution } from '../ui/safety-caution.ts';
 import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
+import { safetyCaution } from '../ui/safety-caution.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
-import { JobProgressView } from './job-progress-view.ts';
-import { ESTIMATE_SAMPLE, ExportEstimator } from './export-estimate.ts';
 import type { ExportEstimate } from './export-estimate.ts';
+import { ESTIMATE_SAMPLE, ExportEstimator } from './export-estimate.ts';
+import { JobProgressView } from './job-progress-view.ts';
 
 /** Wait this long after the last change before estimating again, ms. */
 const ESTIMATE_SETTLE_MS = 400;

@@ -1,9 +1,9 @@
 // The controls under a 3-D view: play/pause, step, speed, and a timeline to scrub along, with
 // the current time and frame in seconds and frame numbers. Space plays or pauses and the arrow
 // keys step (Shift: ten frames) whenever the bar's screen is showing and no text field has focus.
-import { h, button, select } from '../ui/element.ts';
-import { PLAYBACK_SPEEDS } from './playback-clock.ts';
+import { button, h, select } from '../ui/element.ts';
 import type { PlaybackClock } from './playback-clock.ts';
+import { PLAYBACK_SPEEDS } from './playback-clock.ts';
 
 export interface PlaybackBarEvents {
   /** The clock changed in a way that needs the frame redrawn. */

@@ -3,6 +3,7 @@
 // new frames cost a redraw and no copies. The line is an element moved over the chart rather
 // than drawn into it, so following playback costs no chart redraw per frame.
 import uPlot from 'uplot';
+
 import { h } from '../ui/element.ts';
 
 export interface PlotSeries {

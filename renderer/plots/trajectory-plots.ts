@@ -1,9 +1,9 @@
 // The three charts beside a 3-D view — a chosen node's coordinates, the energies, the control
 // signals — kept in step with the trajectory as frames arrive and with the frame on show.
-import { h, labelled } from '../ui/element.ts';
 import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
-import { TimeSeriesPlot } from './time-series-plot.ts';
+import { h, labelled } from '../ui/element.ts';
 import type { PlotSeries } from './time-series-plot.ts';
+import { TimeSeriesPlot } from './time-series-plot.ts';
 import { TrajectorySeries } from './trajectory-series.ts';
 
 const AXIS_COLOURS = ['#b5462b', '#2f7f8c', '#6b4fa0'];

@@ -1,8 +1,8 @@
 // The curves plotted beside the 3-D view, taken out of a trajectory as it fills: one node's
 // coordinates, the energies and their sum, and every control channel, each a full-length array
 // of which the first `filled` entries are valid. Extending them touches only the new frames.
+import { ENERGY_BASE_COUNT, ENERGY_NAMES, ENERGY_TERM_COUNT,ENERGY_TERMS } from '../../sim/core/energy.ts';
 import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
-import { ENERGY_BASE_COUNT, ENERGY_NAMES, ENERGY_TERMS, ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
 
 const KINETIC = ENERGY_NAMES.indexOf('kinetic');
 const ELASTIC = ENERGY_NAMES.indexOf('elastic');

@@ -5,9 +5,9 @@
 // useDefaults does — at each object, every applying subschema's `properties` defaults are set
 // where the member is missing, before its members, if/then/else branches and allOf parts are
 // visited — and the end-to-end suite compares the result with checkScenarioText's on every demo.
-import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
 import { drawTextMaps } from '../../sim/scenario/draw-text-maps.ts';
 import { expandMaterialTemplates, hasMaterialTemplates } from '../../sim/scenario/material-templates.ts';
+import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
 import type { Scenario } from '../../sim/scenario/scenario-types.ts';
 
 type Schema = { [keyword: string]: unknown };

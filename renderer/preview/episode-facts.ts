@@ -2,8 +2,8 @@
 // every value the sampler drew for it as a table of parameter, value and unit, lists of values
 // summarised by their count and range so the panel stays a screen high.
 import { h } from '../ui/element.ts';
-import type { PreviewEpisodeSummary } from './preview-worker-protocol.ts';
 import { dimensionlessDash, groupParameters } from '../ui/parameter-label.ts';
+import type { PreviewEpisodeSummary } from './preview-worker-protocol.ts';
 
 export function renderEpisodeFacts(host: HTMLElement, e: PreviewEpisodeSummary): void {
   const rows: [string, string][] = [

@@ -2,14 +2,14 @@
 // the rest is still being computed. It performs exactly the arithmetic of recordTrajectory
 // (sim/episode/record-episode.ts) in the same order — same sub-steps, same controls, same
 // blow-up checks — so a previewed episode is the episode `generate` writes.
-import type { Model } from '../../sim/core/model.ts';
-import type { World } from '../../sim/core/world.ts';
-import { Simulator } from '../../sim/core/simulator.ts';
-import { ENERGY_TERM_COUNT, measureEnergies } from '../../sim/core/energy.ts';
-import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../../sim/core/blow-up-check.ts';
 import type { BlowUpLimits } from '../../sim/core/blow-up-check.ts';
-import { resolveSubsteps } from '../../sim/episode/record-episode.ts';
+import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../../sim/core/blow-up-check.ts';
+import { ENERGY_TERM_COUNT, measureEnergies } from '../../sim/core/energy.ts';
+import type { Model } from '../../sim/core/model.ts';
+import { Simulator } from '../../sim/core/simulator.ts';
+import type { World } from '../../sim/core/world.ts';
 import type { RecordingSettings } from '../../sim/episode/record-episode.ts';
+import { resolveSubsteps } from '../../sim/episode/record-episode.ts';
 
 export class EpisodeStepper {
   readonly steps: number;

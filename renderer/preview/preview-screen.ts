@@ -8,8 +8,8 @@ import { button, h, labelled } from '../ui/element.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
 import { TrajectoryPlayer } from '../view/trajectory-player.ts';
-import type { FromPreviewWorker, PreviewEpisodeSummary, ToPreviewWorker } from './preview-worker-protocol.ts';
 import { parameterTable, renderEpisodeFacts } from './episode-facts.ts';
+import type { FromPreviewWorker, PreviewEpisodeSummary, ToPreviewWorker } from './preview-worker-protocol.ts';
 
 const DEFAULT_PREVIEW_COUNT = 4;
 const MAX_PREVIEW_COUNT = 12;

@@ -5,8 +5,8 @@
 import { ENERGY_TERM_COUNT } from '../../sim/core/energy.ts';
 import { sampleEpisode } from '../../sim/scenario/sample-episode.ts';
 import type { SampledEpisode } from '../../sim/scenario/sampled-episode.ts';
-import { EpisodeStepper } from './episode-stepper.ts';
 import { checkedScenario } from './checked-scenario.ts';
+import { EpisodeStepper } from './episode-stepper.ts';
 import { modelTopology, topologyBuffers } from './model-topology.ts';
 import type { FromPreviewWorker, PreviewEpisodeSummary, ToPreviewWorker } from './preview-worker-protocol.ts';
 

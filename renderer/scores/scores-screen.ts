@@ -5,10 +5,10 @@
 // against each sampled parameter; play any episode with the prediction drawn over the
 // recording, coloured by its error. Calibration reports open here too.
 import type { DatasetSummary, JobProgress, ScoreDocumentView, ScoreEpisodeRow, ScoreReport } from '../../sim/bridge/bridge-contract.ts';
-import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { decodeArray } from '../bridge/decode-array.ts';
-import { datasetScene, episodeWorld } from '../datasets/dataset-scene.ts';
+import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import type { DatasetScene } from '../datasets/dataset-scene.ts';
+import { datasetScene, episodeWorld } from '../datasets/dataset-scene.ts';
 import { playableEpisode } from '../datasets/episode-playback.ts';
 import { JobProgressView } from '../export/job-progress-view.ts';
 import { TimeSeriesPlot } from '../plots/time-series-plot.ts';

@@ -5,9 +5,9 @@ import type { DatasetComparison, FileComparisonResult, JobProgress, SeedSummary 
 import type { PliantBridge } from '../bridge/pliant-bridge.ts';
 import { JobProgressView } from '../export/job-progress-view.ts';
 import { button, h, labelled } from '../ui/element.ts';
+import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
-import { insideFolder, newFolderNameProblem } from '../ui/new-folder-name.ts';
 
 export interface SeedScreenEvents {
   /** Show episode `index` of the seed file's scenario on the Preview screen. */

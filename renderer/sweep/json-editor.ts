@@ -7,14 +7,15 @@
 // of a <style> element; the page's Content-Security-Policy (style-src 'self', no inline styles)
 // blocks the element but not the sheet, so the policy needs no loosening and no nonce. The
 // colours are Pliant's own: custom properties of pliant.css inherit into the shadow tree.
-import { basicSetup } from 'codemirror';
 import { json } from '@codemirror/lang-json';
 import { HighlightStyle, syntaxHighlighting } from '@codemirror/language';
-import { lintGutter, setDiagnostics } from '@codemirror/lint';
 import type { Diagnostic } from '@codemirror/lint';
+import { lintGutter, setDiagnostics } from '@codemirror/lint';
 import { Annotation, EditorState } from '@codemirror/state';
 import { EditorView } from '@codemirror/view';
 import { tags } from '@lezer/highlight';
+import { basicSetup } from 'codemirror';
+
 import { h } from '../ui/element.ts';
 
 /** A problem at a 1-based line and column, with the words shown on hover. */

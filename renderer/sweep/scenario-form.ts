@@ -6,13 +6,13 @@
 // navigation column jumps to the top-level ones and counts their problems. Labels are the
 // schema's words with the unit ("Length, m"); the key shows on hover.
 import { button, h, select } from '../ui/element.ts';
+import { fieldLabel } from './field-label.ts';
 import { pointerAncestry, pointerOf, setValueAt } from './json-pointer.ts';
 import type { FieldKind, SchemaObject } from './schema-shape.ts';
 import { SchemaReader } from './schema-shape.ts';
-import { unitOfField } from './unit-from-key.ts';
-import { fieldLabel } from './field-label.ts';
-import { SectionNav } from './section-nav.ts';
 import type { SectionEntry } from './section-nav.ts';
+import { SectionNav } from './section-nav.ts';
+import { unitOfField } from './unit-from-key.ts';
 import { numberInput, valueSpecEditor } from './value-spec-editor.ts';
 
 export interface ScenarioFormEvents {

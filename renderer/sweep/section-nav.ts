@@ -3,8 +3,8 @@
 // inside it. A click unfolds the section and scrolls it into view, so a 20,000 px form of a
 // large lattice is a few clicks from any part.
 import { button, h } from '../ui/element.ts';
-import { sectionOf } from './section-of.ts';
 import type { SectionEntry } from './section-of.ts';
+import { sectionOf } from './section-of.ts';
 
 export type { SectionEntry };
 

@@ -3,19 +3,19 @@
 // words `pliant validate` uses, and save it. Edits in either view go through the shared SweepDocument, so the other screens always
 // work on what is shown here.
 import type { ExampleScenario } from '../../sim/bridge/bridge-contract.ts';
-import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
-import { formatProblems } from '../../sim/scenario/scenario-problem.ts';
 import type { ScenarioProblem } from '../../sim/scenario/scenario-problem.ts';
-import type { PliantBridge } from '../bridge/pliant-bridge.ts';
+import { formatProblems } from '../../sim/scenario/scenario-problem.ts';
+import { SCENARIO_SCHEMA } from '../../sim/scenario/scenario-schema.ts';
 import type { SweepDocument, SweepState } from '../app/sweep-document.ts';
+import type { PliantBridge } from '../bridge/pliant-bridge.ts';
+import { button, h, select } from '../ui/element.ts';
+import { rememberFolder, suggestFolder } from '../ui/folder-picker-dialog.ts';
+import { insideFolder } from '../ui/new-folder-name.ts';
 import type { Screen } from '../ui/screen.ts';
 import { StatusLine } from '../ui/status-line.ts';
-import { insideFolder } from '../ui/new-folder-name.ts';
-import { rememberFolder, suggestFolder } from '../ui/folder-picker-dialog.ts';
-import { button, h, select } from '../ui/element.ts';
+import { JsonEditor } from './json-editor.ts';
 import { ScenarioForm } from './scenario-form.ts';
 import type { SchemaObject } from './schema-shape.ts';
-import { JsonEditor } from './json-editor.ts';
 
 const TEXT_EDIT_SETTLE_MS = 350;
 

@@ -70,7 +70,7 @@ function spacedWords(key: string): string {
  * range ("16 values, 0.1–0.9"), anything else as short text.
  */
 export function summariseValue(text: string): string {
-  let value: unknown = text;
+  let value: unknown;
   try {
     value = JSON.parse(text);
   } catch {

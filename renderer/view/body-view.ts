@@ -3,6 +3,7 @@
 // showing a frame writes positions and colours into those buffers in place, so playing back a
 // large lattice allocates nothing per frame.
 import * as THREE from 'three';
+
 import type { BodyTopology, NodeSpringIncidence, SurfaceQuads } from './body-topology.ts';
 import { nodeSpringIncidence, surfaceQuads } from './body-topology.ts';
 import { materialPalette, writeDivergingColour, writeMaterialColour, writeSequentialColour } from './colour-scale.ts';

@@ -1,9 +1,9 @@
 // The legend beside the 3-D view: what the colours mean in the current colour mode, with the
 // quantity's unit. Materials get swatches with their names; strain and actuator level get the
 // diverging bar with its end values.
+import { h } from '../ui/element.ts';
 import type { ColourMode } from './body-view.ts';
 import { divergingGradientCss, materialCss, sequentialGradientCss } from './colour-scale.ts';
-import { h } from '../ui/element.ts';
 
 /** `errorLimitM`: the error at the dark end of the scale in 'error' mode, m. */
 export function renderColourLegend(host: HTMLElement, mode: ColourMode, materialNames: string[], strainLimit: number, errorLimitM = 0, materialCount = materialNames.length): void {

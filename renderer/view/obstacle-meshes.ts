@@ -1,6 +1,7 @@
 // The static obstacles of a world drawn simply: flat-shaded solids with lined edges, in the
 // ground's colour family so the body stays the thing to look at. Rebuilt when the world changes.
 import * as THREE from 'three';
+
 import type { Obstacle } from '../../sim/core/world.ts';
 
 const OBSTACLE_COLOUR = 0xb9ae95;

@@ -3,10 +3,11 @@
 // when something changed (a new frame, a camera move, a resize), so an idle screen costs nothing.
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
+
 import type { BodyBounds } from './body-view.ts';
 import { BodyView } from './body-view.ts';
-import { isSoftwareRendering } from './software-rendering.ts';
 import { fillObstacleGroup } from './obstacle-meshes.ts';
+import { isSoftwareRendering } from './software-rendering.ts';
 import type { StageWorld } from './stage-world.ts';
 
 export type { StageWorld } from './stage-world.ts';

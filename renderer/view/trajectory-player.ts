@@ -2,6 +2,9 @@
 // mode and its legend, what parts to draw, the playback bar and a draw-rate readout. The Preview
 // and Datasets screens each own one. While playing it runs one requestAnimationFrame loop that
 // moves the body in place; paused, it draws only on change.
+import { PlaybackBar } from '../playback/playback-bar.ts';
+import { PlaybackClock } from '../playback/playback-clock.ts';
+import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
 import { h, labelled, select } from '../ui/element.ts';
 import type { BodyTopology } from './body-topology.ts';
 import type { ColourMode } from './body-view.ts';
@@ -9,9 +12,6 @@ import { BodyView } from './body-view.ts';
 import { renderColourLegend } from './colour-legend.ts';
 import type { StageWorld } from './scene-view.ts';
 import { SceneView } from './scene-view.ts';
-import { PlaybackBar } from '../playback/playback-bar.ts';
-import { PlaybackClock } from '../playback/playback-clock.ts';
-import type { TrajectoryFrames } from '../playback/trajectory-frames.ts';
 
 const STRAIN_LIMITS = [0.01, 0.05, 0.2] as const;
 /** Frames remembered per one-second measuring window (enough for a 240 Hz display). */

@@ -6,8 +6,9 @@
 // A test checks the committed files are exactly what this script makes.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { MarkerTrajectoryModel } from '../../sim/identify/calibration/marker-trajectory-model.ts';
+
 import { selectParameters } from '../../sim/identify/calibration/free-parameters.ts';
+import { MarkerTrajectoryModel } from '../../sim/identify/calibration/marker-trajectory-model.ts';
 import type { Measurement } from '../../sim/identify/calibration/measurement.ts';
 import { RandomStream, StreamPurpose } from '../../sim/random/random-stream.ts';
 import { checkScenarioText } from '../../sim/scenario/check-scenario.ts';

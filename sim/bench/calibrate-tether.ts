@@ -3,6 +3,7 @@
 // five parameters the bench does not know left free: length, axial stiffness, damping ratio,
 // gravity and normal drag. Reading the files is outside the timed part.
 import { fileURLToPath } from 'node:url';
+
 import { calibrate } from '../identify/calibration/calibrate.ts';
 import { readMeasurement } from '../identify/calibration/read-measurement.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';

@@ -2,9 +2,9 @@
 // the JavaScript kernel, the WebAssembly kernel and the C build (native/chain_kernel.c with
 // "bending") alternately, five times each; medians and ratios per wall and per CPU second, as
 // chain-1024-wasm-vs-native. Without gcc the line carries JavaScript and WebAssembly and says why.
-import type { BenchmarkCase } from './benchmark-case.ts';
-import { compareAlternately } from './alternating-comparison.ts';
 import type { ComparedBuild } from './alternating-comparison.ts';
+import { compareAlternately } from './alternating-comparison.ts';
+import type { BenchmarkCase } from './benchmark-case.ts';
 import { CHAIN_1024_STEPS } from './chain-1024.ts';
 import { runChain1024Bending } from './chain-1024-bending.ts';
 import { WASM_COMPARISON_RUNS } from './chain-1024-wasm-vs-native.ts';

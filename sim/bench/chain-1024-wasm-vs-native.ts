@@ -3,9 +3,9 @@
 // alternately, five times each; medians and their ratios, per wall and per CPU second
 // (alternating-comparison.ts). Without gcc the line still carries the JavaScript and
 // WebAssembly throughputs and says why the C build is missing.
-import type { BenchmarkCase } from './benchmark-case.ts';
-import { compareAlternately } from './alternating-comparison.ts';
 import type { ComparedBuild } from './alternating-comparison.ts';
+import { compareAlternately } from './alternating-comparison.ts';
+import type { BenchmarkCase } from './benchmark-case.ts';
 import { CHAIN_1024_STEPS, runChain1024 } from './chain-1024.ts';
 import { buildNativeChainKernel, runNativeChainKernel } from './native-chain-kernel.ts';
 

@@ -7,9 +7,9 @@
 // Its bench line: {"case":"chain-1024","kernel":…,"spring_updates_per_s":…,"seconds":…,"checksum":…},
 // the checksum to 10 significant digits; the kernel is js unless `pliant bench --kernel wasm`.
 // native/chain_kernel.c is the same kernel in C.
-import { ModelBuilder } from '../core/model-builder.ts';
-import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../core/model.ts';
 import type { Model } from '../core/model.ts';
+import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../core/model.ts';
+import { ModelBuilder } from '../core/model-builder.ts';
 import { Simulator } from '../core/simulator.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { defaultWorld } from '../core/world.ts';

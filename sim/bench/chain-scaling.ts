@@ -10,11 +10,11 @@
 // The chart (bench output folder, chain-scaling.svg; its path is the last line's "chart") plots
 // the rate against log₂ nodes.
 import { Simulator } from '../core/simulator.ts';
-import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
+import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import { defaultWorld } from '../core/world.ts';
 import type { MultiLineBenchmarkCase } from './benchmark-case.ts';
-import { CHAIN_1024_DT_S, buildReferenceChainBuilder, cpuSecondsSince } from './chain-1024.ts';
+import { buildReferenceChainBuilder, CHAIN_1024_DT_S, cpuSecondsSince } from './chain-1024.ts';
 import { median } from './median.ts';
 import { typedArrayBytes, writeScalingChart } from './scaling-chart.ts';
 

@@ -12,6 +12,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+
 import { CHECKOUT_ROOT } from '../cli/cli-bundle.mjs';
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { demoScenarioPath } from './demo-scenario.ts';

@@ -2,6 +2,7 @@
 // checked exactly as `pliant generate` reads and checks a scenario file.
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+
 import { checkScenarioText } from '../scenario/check-scenario.ts';
 import { formatProblems } from '../scenario/scenario-problem.ts';
 import type { Scenario } from '../scenario/scenario-types.ts';

@@ -3,12 +3,12 @@
 // flags of the chain kernel) alternately, five times each; medians and their ratios, per wall
 // and per CPU second (alternating-comparison.ts). Without gcc the line carries the JavaScript
 // and WebAssembly throughputs and the reason.
-import type { BenchmarkCase } from './benchmark-case.ts';
-import { compareAlternately } from './alternating-comparison.ts';
 import type { ComparedBuild } from './alternating-comparison.ts';
+import { compareAlternately } from './alternating-comparison.ts';
+import type { BenchmarkCase } from './benchmark-case.ts';
+import { WASM_COMPARISON_RUNS } from './chain-1024-wasm-vs-native.ts';
 import { LATTICE_INTERVALS, runLattice8x8x8 } from './lattice-8x8x8.ts';
 import { runNativeLatticeKernel, withNativeLatticeKernel } from './native-lattice-kernel.ts';
-import { WASM_COMPARISON_RUNS } from './chain-1024-wasm-vs-native.ts';
 
 function kernelBuild(kernel: 'js' | 'wasm'): ComparedBuild {
   return {

@@ -4,14 +4,14 @@
 // channel by u = sin(2π·f·t), so the block pumps up and down while ground contact and Coulomb
 // friction act on its base. Fixed by definition; sub-steps come from the stability bound of
 // the built model (a deterministic function of it), so the checksum is reproducible.
-import { Simulator } from '../core/simulator.ts';
-import type { StepKernel } from '../core/step-kernel-choice.ts';
-import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
-import { defaultWorld } from '../core/world.ts';
-import type { World } from '../core/world.ts';
-import { buildLattice } from '../systems/lattice.ts';
-import type { LatticeMaterial, MaterialMap3D } from '../systems/lattice.ts';
 import type { Model } from '../core/model.ts';
+import { Simulator } from '../core/simulator.ts';
+import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
+import type { World } from '../core/world.ts';
+import { defaultWorld } from '../core/world.ts';
+import type { LatticeMaterial, MaterialMap3D } from '../systems/lattice.ts';
+import { buildLattice } from '../systems/lattice.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { cpuSecondsSince } from './chain-1024.ts';
 

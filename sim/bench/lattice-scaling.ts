@@ -7,14 +7,14 @@
 //   {"case":"lattice-scaling","kernel":…,"cells":…,"springs":…,"model_kib":…,"steps":…,"spring_updates_per_s":…,"spring_updates_per_cpu_s":…,"relative_to_best":…}
 // The chart is lattice-scaling.svg in the bench output folder (the last line's "chart").
 import { Simulator } from '../core/simulator.ts';
-import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
+import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import type { MultiLineBenchmarkCase } from './benchmark-case.ts';
+import { cpuSecondsSince } from './chain-1024.ts';
 import type { ScalingPoint } from './chain-scaling.ts';
 import { scalingLines } from './chain-scaling.ts';
-import { LATTICE_CONTROL_INTERVAL_S, buildReferenceLattice, latticeControl, latticeSubsteps, latticeWorld } from './lattice-8x8x8.ts';
+import { buildReferenceLattice, LATTICE_CONTROL_INTERVAL_S, latticeControl, latticeSubsteps, latticeWorld } from './lattice-8x8x8.ts';
 import { median } from './median.ts';
-import { cpuSecondsSince } from './chain-1024.ts';
 import { typedArrayBytes, writeScalingChart } from './scaling-chart.ts';
 
 export const LATTICE_SCALING_SIDES = [2, 4, 8, 16, 32] as const;

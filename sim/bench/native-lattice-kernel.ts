@@ -6,9 +6,10 @@ import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { buildNativeKernel, parseNativeLine, withNativeKernel } from './native-chain-kernel.ts';
+
+import { buildLattice8x8x8, LATTICE_CONTROL_INTERVAL_S,latticeControl, latticeSubsteps, latticeWorld } from './lattice-8x8x8.ts';
 import type { BenchLine, NativeRun } from './native-chain-kernel.ts';
-import { buildLattice8x8x8, latticeControl, latticeSubsteps, latticeWorld, LATTICE_CONTROL_INTERVAL_S } from './lattice-8x8x8.ts';
+import { buildNativeKernel, parseNativeLine, withNativeKernel } from './native-chain-kernel.ts';
 
 const SOURCE_PATH = fileURLToPath(new URL('./native/lattice_kernel.c', import.meta.url));
 

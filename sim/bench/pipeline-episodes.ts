@@ -14,13 +14,14 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { generateDataset } from '../dataset/write/generate-dataset.ts';
+
 import { loadHdf5Library } from '../dataset/formats/hdf5-runtime.ts';
-import { withOverrides } from '../scenario/scenario-overrides.ts';
+import { generateDataset } from '../dataset/write/generate-dataset.ts';
 import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
+import { withOverrides } from '../scenario/scenario-overrides.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';
-import { DEMO_SCENARIO_NAMES, demoScenarioFolder, loadDemoScenario } from './demo-scenario.ts';
 import type { DemoScenarioName } from './demo-scenario.ts';
+import { DEMO_SCENARIO_NAMES, demoScenarioFolder, loadDemoScenario } from './demo-scenario.ts';
 
 /** Episodes per run: each line takes seconds to tens of seconds on a two-core laptop. */
 export const PIPELINE_EPISODES: Readonly<Record<DemoScenarioName, number>> = {

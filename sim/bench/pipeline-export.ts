@@ -15,14 +15,15 @@
 import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { ensureFolder, writeDatasetFile } from '../dataset/write/dataset-file-writer.ts';
+
+import { loadHdf5Library } from '../dataset/formats/hdf5-runtime.ts';
 import { episodeNpzPath } from '../dataset/manifest/dataset-files.ts';
+import { ensureFolder, writeDatasetFile } from '../dataset/write/dataset-file-writer.ts';
 import { encodeEpisodeNpz } from '../dataset/write/episode-npz.ts';
 import { produceEpisode } from '../dataset/write/episode-product.ts';
 import { ReplayTable } from '../dataset/write/replay-inputs.ts';
-import { loadHdf5Library } from '../dataset/formats/hdf5-runtime.ts';
-import { writeSplitHdf5 } from '../dataset/write/split-hdf5.ts';
 import type { SplitEpisode } from '../dataset/write/split-hdf5.ts';
+import { writeSplitHdf5 } from '../dataset/write/split-hdf5.ts';
 import { EXPORT_COMPRESSIONS, type ExportCompression } from '../scenario/export-compression.ts';
 import { withOverrides } from '../scenario/scenario-overrides.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';

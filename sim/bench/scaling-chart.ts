@@ -3,8 +3,9 @@
 // x axis is their base-2 logarithm (the line chart's x axis is linear).
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { renderLineChart } from '../plots/svg-line-chart.ts';
+
 import type { ChartSeries } from '../plots/svg-line-chart.ts';
+import { renderLineChart } from '../plots/svg-line-chart.ts';
 import type { BenchmarkOptions } from './benchmark-case.ts';
 
 export const DEFAULT_BENCH_OUT_DIR = 'bench-output';

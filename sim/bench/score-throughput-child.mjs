@@ -5,6 +5,7 @@
 //
 // Arguments: the score arguments (DATASET PREDICTIONS --out DIR --split …).
 import { readFileSync } from 'node:fs';
+
 import { register } from 'tsx/esm/api';
 
 register();

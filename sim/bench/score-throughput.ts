@@ -13,9 +13,10 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { DatasetManifest } from '../dataset/manifest/dataset-manifest.ts';
+
 import { namedArray } from '../dataset/formats/named-array.ts';
 import { readNpzFile, writeNpzFile } from '../dataset/formats/npz.ts';
+import type { DatasetManifest } from '../dataset/manifest/dataset-manifest.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';
 import { demoScenarioPath } from './demo-scenario.ts';
 import { episodeCountFromEnvironment } from './sweep-memory.ts';

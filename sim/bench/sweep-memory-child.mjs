@@ -15,6 +15,7 @@
 // the second figure covers the sweep alone and is not hidden under that start-up peak.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
+
 import { bundledCliEntry, connectPrebuiltParts } from '../cli/cli-bundle.mjs';
 
 const bundled = process.env.PLIANT_CLI_TSX === '0' ? await bundledCliEntry() : undefined;

@@ -13,6 +13,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+
 import { CliUsageError } from '../cli/command.ts';
 import { MAX_EPISODES } from '../scenario/scenario-limits.ts';
 import type { BenchmarkCase } from './benchmark-case.ts';

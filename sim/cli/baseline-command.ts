@@ -4,20 +4,21 @@
 // folders that `pliant score` reads. See sim/identify/baselines/BASELINES.md.
 import { mkdirSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
-import type { CliCommand, CliIo } from './command.ts';
-import { CliUsageError } from './command.ts';
-import { choiceOption, parseArguments, wholeNumberOption, type ParsedArguments } from './command-arguments.ts';
-import { asCliFailure } from './dataset-failure.ts';
-import { shownPath } from './shown-path.ts';
+
 import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
+import { baselineModelHead, fitBaseline } from '../identify/baselines/baseline-fit.ts';
 import { BASELINE_MODEL_NAMES, type BaselineModel } from '../identify/baselines/baseline-model.ts';
 import { readBaselineModel, writeBaselineModel } from '../identify/baselines/baseline-model-file.ts';
-import { baselineModelHead, fitBaseline } from '../identify/baselines/baseline-fit.ts';
 import { predictBaseline } from '../identify/baselines/baseline-predict.ts';
 import { openDataset } from '../identify/baselines/dataset-episodes.ts';
 import { greyBoxReport } from '../identify/baselines/grey-box-report.ts';
 import { parseRankChoice } from '../identify/baselines/rank-rule.ts';
 import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
+import type { CliCommand, CliIo } from './command.ts';
+import { CliUsageError } from './command.ts';
+import { choiceOption, parseArguments, type ParsedArguments,wholeNumberOption } from './command-arguments.ts';
+import { asCliFailure } from './dataset-failure.ts';
+import { shownPath } from './shown-path.ts';
 
 const USAGE = [
   'Usage: pliant baseline fit DATASET --model MODEL --out MODEL.json [options]',

@@ -1,12 +1,13 @@
 // `pliant bench`: runs the benchmark cases and prints one JSON object per line. Benchmarks
 // measure; they are not tests and never fail on a time.
-import type { CliCommand } from './command.ts';
-import { CliUsageError } from './command.ts';
 import { resolve } from 'node:path';
+
 import { BENCHMARK_CASES } from '../bench/benchmark-cases.ts';
 import { DEFAULT_BENCH_OUT_DIR } from '../bench/scaling-chart.ts';
-import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
+import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
+import type { CliCommand } from './command.ts';
+import { CliUsageError } from './command.ts';
 
 export const benchCommand: CliCommand = {
   name: 'bench',

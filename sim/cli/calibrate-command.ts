@@ -4,6 +4,7 @@
 import { mkdirSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
+
 import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { calibrate } from '../identify/calibration/calibrate.ts';
 import { calibrationJson, calibrationMarkdown, RESIDUAL_PLOT_FILE, residualPlot } from '../identify/calibration/calibration-report.ts';

@@ -2,8 +2,8 @@
 // own file, loaded only when that command runs. `pliant --help` then reads no more than this
 // table, and a command does not pay for the libraries of the others (ajv, h5wasm, three).
 // Add new commands here.
-import type { CliCommand } from './command.ts';
 import { PYTHON_LOADER_FILE_NAME } from '../dataset/card/python-loader-source.ts';
+import type { CliCommand } from './command.ts';
 
 export interface CommandEntry {
   name: string;

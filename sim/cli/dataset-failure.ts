@@ -2,9 +2,9 @@
 // problems are placed in the named scenario file, and an episode that cannot be built says that
 // finished episodes are kept for --resume. Which exit code a failure gets is not decided here
 // but by its kind, once, in exit-codes.ts.
-import { CliUsageError } from './command.ts';
 import { EpisodeBuildError } from '../dataset/write/episode-product.ts';
-import { ScenarioProblemError, formatProblems } from '../scenario/scenario-problem.ts';
+import { formatProblems,ScenarioProblemError } from '../scenario/scenario-problem.ts';
+import { CliUsageError } from './command.ts';
 
 export function asCliFailure(error: unknown, scenarioName = 'scenario'): unknown {
   if (error instanceof EpisodeBuildError) return new CliUsageError(`${error.message}\nFix the scenario; episodes finished so far are kept for --resume.`);

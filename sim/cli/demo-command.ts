@@ -4,17 +4,18 @@
 import { readdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+
+import { generateDataset } from '../dataset/write/generate-dataset.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
+import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
-import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
+import { withCliFailures } from './dataset-failure.ts';
 import { progressOption, workersOption } from './generate-options.ts';
 import { ProgressDisplay } from './progress-display.ts';
-import { withCliFailures } from './dataset-failure.ts';
+import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
 import { shownPath } from './shown-path.ts';
-import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { generateDataset } from '../dataset/write/generate-dataset.ts';
-import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 
 const DEMO_SCENARIOS = fileURLToPath(new URL('../../scenarios/', import.meta.url));
 

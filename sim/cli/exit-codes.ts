@@ -3,8 +3,8 @@
 // disk, no permission, a damaged file) with 1, as the command line has always done; both print
 // only the message. A bug exits with 70, EX_SOFTWARE of BSD's sysexits.h ("an internal software
 // error has been detected"), and prints its stack trace so it can be reported.
-import type { ErrorKind } from '../errors/pliant-error.ts';
 import { reportOf } from '../errors/error-report.ts';
+import type { ErrorKind } from '../errors/pliant-error.ts';
 
 export const EXIT_CODE_BY_KIND: Readonly<Record<ErrorKind, number>> = {
   user: 2,

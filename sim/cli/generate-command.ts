@@ -1,23 +1,24 @@
 // `pliant generate SCENARIO --out DIR`: samples, simulates and writes a labelled, split,
 // checksummed dataset (or one shard of it), resumable after any interruption.
 import { resolve } from 'node:path';
-import { shownPath } from './shown-path.ts';
+
+import { CARD_FILE } from '../dataset/manifest/dataset-files.ts';
+import type { GenerateResult } from '../dataset/write/generate-dataset.ts';
+import { generateDataset } from '../dataset/write/generate-dataset.ts';
+import type { ShardPlan } from '../dataset/write/shard-plan.ts';
+import { SHARD_COUNT_VARIABLE } from '../dataset/write/shard-plan.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
+import { withOverrides } from '../scenario/scenario-overrides.ts';
 import type { CliCommand, CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
-import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
-import { overrideOptions, progressOption, shardOption, workersOption } from './generate-options.ts';
-import { ProgressDisplay } from './progress-display.ts';
-import type { ProgressMode } from './progress-display.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { generateDataset } from '../dataset/write/generate-dataset.ts';
-import type { GenerateResult } from '../dataset/write/generate-dataset.ts';
-import { SHARD_COUNT_VARIABLE } from '../dataset/write/shard-plan.ts';
-import type { ShardPlan } from '../dataset/write/shard-plan.ts';
-import { withOverrides } from '../scenario/scenario-overrides.ts';
-import { CARD_FILE } from '../dataset/manifest/dataset-files.ts';
+import { overrideOptions, progressOption, shardOption, workersOption } from './generate-options.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
+import type { ProgressMode } from './progress-display.ts';
+import { ProgressDisplay } from './progress-display.ts';
+import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
+import { shownPath } from './shown-path.ts';
 
 export const generateCommand: CliCommand = {
   name: 'generate',

@@ -2,14 +2,15 @@
 // generate's own overrides, so each flag is checked (and refused with exit 2) before any folder
 // is made.
 import { availableParallelism } from 'node:os';
+
+import type { ShardPlan } from '../dataset/write/shard-plan.ts';
+import { parseShard, shardFromEnvironment } from '../dataset/write/shard-plan.ts';
+import { MAX_EPISODES } from '../scenario/scenario-limits.ts';
 import type { CliIo } from './command.ts';
 import { CliUsageError } from './command.ts';
-import { choiceOption, wholeNumberOption } from './command-arguments.ts';
 import type { ParsedArguments } from './command-arguments.ts';
+import { choiceOption, wholeNumberOption } from './command-arguments.ts';
 import type { ProgressMode } from './progress-display.ts';
-import { parseShard, shardFromEnvironment } from '../dataset/write/shard-plan.ts';
-import type { ShardPlan } from '../dataset/write/shard-plan.ts';
-import { MAX_EPISODES } from '../scenario/scenario-limits.ts';
 
 export const PROGRESS_MODES: readonly ProgressMode[] = ['bar', 'json', 'none'];
 export const FORMATS = ['npz', 'hdf5', 'both'] as const;

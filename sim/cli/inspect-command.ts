@@ -1,11 +1,12 @@
 // `pliant inspect DIR`: what a dataset folder holds — episodes per split, parameter ranges,
 // file sizes and the rejected episodes — for a person deciding whether it is the one they want.
 import { resolve } from 'node:path';
+
+import { inspectDataset } from '../dataset/read/inspect-dataset.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { inspectDataset } from '../dataset/read/inspect-dataset.ts';
 
 /** Version of the --json document; raised when a member changes meaning or goes away. */
 export const INSPECT_JSON_FORMAT = 1;

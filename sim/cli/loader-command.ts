@@ -2,12 +2,13 @@
 // or writes it to PATH, so a dataset folder drops straight into a NumPy or PyTorch training loop.
 import { existsSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+
+import { PYTHON_LOADER_FILE_NAME, pythonLoaderSource } from '../dataset/card/python-loader-source.ts';
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
-import { PYTHON_LOADER_FILE_NAME, pythonLoaderSource } from '../dataset/card/python-loader-source.ts';
 
 export const loaderCommand: CliCommand = {
   name: 'loader',

@@ -1,17 +1,17 @@
 // The `pliant` command line: dispatches to sub-commands, prints help, and turns whatever a
 // command throws into a message and exit code by its kind (exit-codes.ts): 2 for user mistakes,
 // 1 for the machine's refusals, 70 and a stack trace only for genuine internal errors.
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
+import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
+import { didYouMean } from './closest-name.ts';
+import type { CliIo } from './command.ts';
 import { COMMANDS } from './commands.ts';
 import { cliFailureOf } from './exit-codes.ts';
-import type { CliIo } from './command.ts';
-import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { didYouMean } from './closest-name.ts';
-import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 
 // The prebuilt command line hands its ahead-of-time scenario checker and its bundled episode
 // worker in through these (sim/cli/cli-bundle.mjs).
-export { usePrebuiltScenarioChecker } from '../scenario/prebuilt-scenario-checker.ts';
 export { usePrebuiltEpisodeWorker } from '../dataset/write/episode-worker-source.ts';
+export { usePrebuiltScenarioChecker } from '../scenario/prebuilt-scenario-checker.ts';
 
 export function defaultIo(): CliIo {
   return {

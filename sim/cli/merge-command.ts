@@ -1,13 +1,14 @@
 // `pliant merge SHARD_DIR... --out DIR`: joins the shard folders of an array job into the one
 // dataset a single machine would have written from the same seed file.
 import { resolve } from 'node:path';
-import { shownPath } from './shown-path.ts';
+
+import { mergeShards } from '../dataset/write/merge-shards.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { mergeShards } from '../dataset/write/merge-shards.ts';
+import { shownPath } from './shown-path.ts';
 
 export const mergeCommand: CliCommand = {
   name: 'merge',

@@ -4,6 +4,7 @@
 // PLIANT_CLI_TSX=1 asks for it, the TypeScript sources through the tsx loader.
 // Kept as plain JavaScript so `npx pliant` works straight after `npm install`, with no build step.
 import { pathToFileURL } from 'node:url';
+
 import { bundledCliEntry, connectPrebuiltParts } from './cli-bundle.mjs';
 
 const bundled = process.env.PLIANT_CLI_TSX === '1' ? undefined : await bundledCliEntry();

@@ -3,13 +3,14 @@
 // from above or both.
 import { mkdir } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
+
+import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
+import type { PictureView } from '../render/episode-picture.ts';
+import { renderedGif, renderedPngs,renderEpisode } from '../render/render-episode.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments, wholeNumberOption } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
-import { renderEpisode, renderedGif, renderedPngs } from '../render/render-episode.ts';
-import type { PictureView } from '../render/episode-picture.ts';
 
 const VIEWS: readonly PictureView[] = ['side', 'above', 'both'];
 const MAX_SIDE_PX = 4096;

@@ -1,16 +1,17 @@
 // `pliant reproduce DIR/seed.json --out DIR2`: regenerates a dataset from its seed file and
 // reports, file by file, whether the new bytes are identical. Exit 1 on any difference.
 import { resolve } from 'node:path';
+
+import { MANIFEST_FILE } from '../dataset/manifest/dataset-files.ts';
+import { reproduceDataset, seedEditedWords } from '../dataset/write/reproduce-dataset.ts';
+import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
 import { progressOption, workersOption } from './generate-options.ts';
-import { ProgressDisplay } from './progress-display.ts';
 import { stopOnInterrupt } from './interrupt-stop.ts';
-import { PLIANT_VERSION } from '../scenario/pliant-version.ts';
-import { reproduceDataset, seedEditedWords } from '../dataset/write/reproduce-dataset.ts';
-import { MANIFEST_FILE } from '../dataset/manifest/dataset-files.ts';
+import { ProgressDisplay } from './progress-display.ts';
 
 export const reproduceCommand: CliCommand = {
   name: 'reproduce',

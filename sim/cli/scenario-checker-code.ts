@@ -5,9 +5,10 @@
 // compiled code refers to a schema node (verbose errors carry them as parentSchema), the writer
 // would put a copy of that node; here each becomes a lookup of the live node by its path in
 // SCENARIO_SCHEMA, so errors point at the same objects as when ajv compiles at run time.
-import Ajv2020 from 'ajv/dist/2020.js';
 import { _, stringify } from 'ajv';
+import Ajv2020 from 'ajv/dist/2020.js';
 import standaloneCode from 'ajv/dist/standalone/index.js';
+
 import { SCENARIO_SCHEMA } from '../scenario/scenario-schema.ts';
 import { SCENARIO_AJV_OPTIONS } from '../scenario/schema-problems.ts';
 

@@ -1,18 +1,19 @@
 // Reads and checks a scenario file named on the command line. Problems come back in the one
 // wording the app also shows (file:line:column pointer: message), ready to print; problems found
 // later (a replay file that cannot be read) are placed in the same file the same way.
-import { PliantError } from '../errors/pliant-error.ts';
-import { systemErrorCode, systemErrorKind } from '../errors/system-error-kind.ts';
 import { dirname, resolve } from 'node:path';
-import { checkScenarioText } from '../scenario/check-scenario.ts';
-import { parseJsonText, placeProblems } from '../scenario/json-source-map.ts';
-import type { Scenario } from '../scenario/scenario-types.ts';
-import { ScenarioProblemError, formatProblems } from '../scenario/scenario-problem.ts';
-import type { ScenarioProblem } from '../scenario/scenario-problem.ts';
-import type { CliIo } from './command.ts';
-import { CliUsageError } from './command.ts';
+
 import { MiB, PATH_IS_FOLDER_CODE, readBoundedText } from '../dataset/formats/bounded-text-file.ts';
 import { DatasetRequestError } from '../dataset/formats/dataset-request-error.ts';
+import { PliantError } from '../errors/pliant-error.ts';
+import { systemErrorCode, systemErrorKind } from '../errors/system-error-kind.ts';
+import { checkScenarioText } from '../scenario/check-scenario.ts';
+import { parseJsonText, placeProblems } from '../scenario/json-source-map.ts';
+import type { ScenarioProblem } from '../scenario/scenario-problem.ts';
+import { formatProblems,ScenarioProblemError } from '../scenario/scenario-problem.ts';
+import type { Scenario } from '../scenario/scenario-types.ts';
+import type { CliIo } from './command.ts';
+import { CliUsageError } from './command.ts';
 
 /** Scenario files are short documents; replay arrays live in files of their own. */
 export const MAX_SCENARIO_FILE_BYTES = 16 * MiB;

@@ -3,14 +3,15 @@
 // score.json, REPORT.md and SVG charts. Exit 0 when scored, 2 for a mistake in the request or
 // the predictions folder, 1 when a dataset file cannot be read or a report file written.
 import { resolve } from 'node:path';
+
+import { DEFAULT_HORIZONS, parseHorizons } from '../identify/score/horizons.ts';
+import { REPORT_FILE, SCORE_FILE, writeScore } from '../identify/score/score-outputs.ts';
+import { DEFAULT_VPT_THRESHOLD, scorePredictions } from '../identify/score/score-predictions.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { asCliFailure } from './dataset-failure.ts';
 import { shownPath } from './shown-path.ts';
-import { DEFAULT_HORIZONS, parseHorizons } from '../identify/score/horizons.ts';
-import { DEFAULT_VPT_THRESHOLD, scorePredictions } from '../identify/score/score-predictions.ts';
-import { REPORT_FILE, SCORE_FILE, writeScore } from '../identify/score/score-outputs.ts';
 
 function threshold(text: string): number {
   const value = Number(text);

@@ -1,11 +1,11 @@
 // `pliant validate SCENARIO`: checks a scenario file against the schema and the physical checks
 // and prints every problem with its line, column and JSON pointer. Exit 0 when valid, 2 if not.
+import { gatherInputs } from '../dataset/write/dataset-inputs.ts';
+import { findThinLatticeWarnings } from '../scenario/thin-lattice-warnings.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { loadScenarioFile, reportingScenarioProblems } from './scenario-file.ts';
-import { gatherInputs } from '../dataset/write/dataset-inputs.ts';
-import { findThinLatticeWarnings } from '../scenario/thin-lattice-warnings.ts';
 
 export const validateCommand: CliCommand = {
   name: 'validate',

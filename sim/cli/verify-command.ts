@@ -1,12 +1,13 @@
 // `pliant verify DIR`: checks a dataset's manifest against its schema and every file against
 // its SHA-256. Exit 0 when everything matches, 1 on any mismatch or missing file.
-import { COMMAND_LINE_WORDS, wordRun } from '../dataset/formats/run-words.ts';
 import { resolve } from 'node:path';
+
+import { COMMAND_LINE_WORDS, wordRun } from '../dataset/formats/run-words.ts';
+import { verifyDataset } from '../dataset/read/verify-dataset.ts';
 import type { CliCommand } from './command.ts';
 import { CliUsageError } from './command.ts';
 import { parseArguments } from './command-arguments.ts';
 import { withCliFailures } from './dataset-failure.ts';
-import { verifyDataset } from '../dataset/read/verify-dataset.ts';
 
 export const verifyCommand: CliCommand = {
   name: 'verify',

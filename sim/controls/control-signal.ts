@@ -2,8 +2,8 @@
 // writes the signal at every record time into a step-major array (zero-order hold between
 // records), applies the clip and then the ramp-in window (ramp-in.ts), and returns the drawn
 // parameters as ground-truth labels.
-import { sampleValue } from '../random/distribution.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
+import { sampleValue } from '../random/distribution.ts';
 import type { JsonValue } from '../random/json-value.ts';
 import type { RandomStream } from '../random/random-stream.ts';
 import { childPointer, SpecError } from '../random/spec-problem.ts';
@@ -12,8 +12,8 @@ import { findControlSpecProblems } from './control-spec-problems.ts';
 import { fillHeld, fillPiecewiseConstant, fillSwitchedLevels } from './held-levels.ts';
 import { drawMultisine, fillMultisine } from './multisine-signal.ts';
 import { fillOrnsteinUhlenbeck } from './ornstein-uhlenbeck-signal.ts';
-import { fillChirp, fillSinusoid } from './sinusoid-signal.ts';
 import { applyRampIn } from './ramp-in.ts';
+import { fillChirp, fillSinusoid } from './sinusoid-signal.ts';
 
 /** The parameters one episode drew for a channel, in the spec's member names and units. */
 export interface SampledControl {

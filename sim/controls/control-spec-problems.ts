@@ -1,10 +1,10 @@
 // What a control spec's JSON Schema cannot say, checked before any drawing so that an error
 // never depends on the seed: every member's whole range must be valid (a hold time above zero,
 // frequencies below the record rate's Nyquist limit, min ranges wholly below max ranges).
-import { specBounds } from '../random/distribution.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
-import { childPointer, unknownKindProblem, unknownMemberProblems } from '../random/spec-problem.ts';
+import { specBounds } from '../random/distribution.ts';
 import type { SpecProblem } from '../random/spec-problem.ts';
+import { childPointer, unknownKindProblem, unknownMemberProblems } from '../random/spec-problem.ts';
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { CONTROL_KINDS, MAX_COMPONENT_COUNT, MAX_STEP_COUNT } from './control-spec.ts';
 

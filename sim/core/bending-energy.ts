@@ -1,8 +1,8 @@
 // The energy stored in bending hinges and clamps, ½·k·|w|² each (bending-forces.ts), and the
 // power their damping dissipates, η·(w·ẇ)²/|w|² each. |w|² is summed from w's components,
 // not as 2(1 − cos φ), so nearly straight hinges keep their digits.
-import type { Model } from './model.ts';
 import { STRAIGHT_HINGE_W2 } from './bending-forces.ts';
+import type { Model } from './model.ts';
 
 /** Bending energy of `model` at `positionM` (3 per node, m), J. */
 export function bendingEnergyJ(model: Model, positionM: Float64Array): number {

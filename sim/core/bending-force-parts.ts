@@ -3,8 +3,8 @@
 // (s = η·(w·ẇ)/|w|², whose negative work is the dissipation bendingDissipationW measures), for
 // hinges and clamps together. Same geometry and operation order as the hot loop, so the two
 // parts add up to the summed force to rounding. Runs only when energy accounting is on.
-import type { Model } from './model.ts';
 import { STRAIGHT_HINGE_W2 } from './bending-forces.ts';
+import type { Model } from './model.ts';
 
 export const BENDING_PART_ELASTIC = 0;
 export const BENDING_PART_DAMPING = 1;

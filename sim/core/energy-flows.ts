@@ -1,8 +1,8 @@
 // The columns of `energy_flows`: energy that crossed into or out of the moving nodes since the
 // start of the episode, J, cumulative. One column per force term of force-terms.ts, then the
 // work of the supports (driven nodes) and the kinetic energy the contact projections removed.
-import { FORCE_TERMS, flowColumnName } from './force-terms.ts';
 import type { ForceRole } from './force-terms.ts';
+import { flowColumnName,FORCE_TERMS } from './force-terms.ts';
 
 export interface FlowColumn {
   readonly name: string;

@@ -9,9 +9,9 @@
 // are recorded only with numerics.energyBalance, so files made without it keep their bytes.
 // To add a term: append one entry below with its own measure function; a potential energy
 // must also have a force term in force-terms.ts whose work it pairs with.
+import { bendingEnergyJ } from './bending-energy.ts';
 import type { Model } from './model.ts';
 import type { World } from './world.ts';
-import { bendingEnergyJ } from './bending-energy.ts';
 
 export type EnergyRole = 'kinetic' | 'potential' | 'support';
 

@@ -8,12 +8,12 @@
 // damping), with
 // `potential` naming its column in energy.ts when it is conservative. The ledger, the
 // `energy_flows` columns and both balances pick it up from this list.
-import type { Model } from './model.ts';
-import type { World } from './world.ts';
-import { accumulateFluidDrag } from './fluid-drag.ts';
-import { buoyantDensityKgPerM3 } from './energy.ts';
 import { BENDING_PART_DAMPING, BENDING_PART_ELASTIC, writeBendingForcePart } from './bending-force-parts.ts';
+import { buoyantDensityKgPerM3 } from './energy.ts';
+import { accumulateFluidDrag } from './fluid-drag.ts';
+import type { Model } from './model.ts';
 import { SPRING_PART_DAMPING, SPRING_PART_ELASTIC, writeSpringForcePart } from './spring-force-parts.ts';
+import type { World } from './world.ts';
 
 export type ForceRole = 'conservative' | 'input' | 'dissipative';
 

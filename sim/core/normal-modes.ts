@@ -6,8 +6,9 @@
 // O(n³) time and n² memory, so callers cap n (scenarios: MAX_MODE_COORDINATES in
 // sim/scenario/scenario-limits.ts).
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { NODE_DRIVEN, NODE_PINNED } from './model.ts';
+
 import type { Model } from './model.ts';
+import { NODE_DRIVEN, NODE_PINNED } from './model.ts';
 import { stiffnessMatrix } from './stiffness-matrix.ts';
 
 /**

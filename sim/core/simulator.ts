@@ -9,20 +9,20 @@
 // (wasm/wasm-stepper.ts), chosen once per Simulator; both give the same bits. WebAssembly runs
 // only where it implements every pass this model and world need (wasm/wasm-kernel-coverage.ts):
 // a pass added here must be registered there, or the kernel stands aside for everything.
-import type { Model } from './model.ts';
-import type { World } from './world.ts';
-import { writeBodyForces } from './body-forces.ts';
-import { accumulateSpringForces } from './spring-forces.ts';
 import { accumulateBendingForces, accumulateClampForces } from './bending-forces.ts';
+import { writeBodyForces } from './body-forces.ts';
+import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
 import { accumulateFluidDrag } from './fluid-drag.ts';
 import { projectGroundContact } from './ground-contact.ts';
+import type { Model } from './model.ts';
 import { projectObstacleContact } from './obstacle-contact.ts';
-import { StepLedger } from './step-ledger.ts';
-import { applyActuation, writeDrivenTargets, writeHandleForces } from './control-application.ts';
-import { resolveStepKernel } from './step-kernel-choice.ts';
+import { accumulateSpringForces } from './spring-forces.ts';
 import type { StepKernel } from './step-kernel-choice.ts';
-import { WasmStepper } from './wasm/wasm-stepper.ts';
+import { resolveStepKernel } from './step-kernel-choice.ts';
+import { StepLedger } from './step-ledger.ts';
 import { wasmKernelCoverage } from './wasm/wasm-kernel-coverage.ts';
+import { WasmStepper } from './wasm/wasm-stepper.ts';
+import type { World } from './world.ts';
 
 export interface SimulatorOptions {
   /**

@@ -15,12 +15,12 @@
 //
 // Recorded forces are impulse averages over the record interval: Σ F·dt / interval, the force
 // that explains the velocity change between two records.
-import type { Model } from './model.ts';
-import type { World } from './world.ts';
-import { FORCE_TERMS } from './force-terms.ts';
-import type { ForceTermContext } from './force-terms.ts';
 import { CONTACT_FRICTION_COLUMN, CONTACT_NORMAL_COLUMN, FLOW_COLUMN_COUNT, SUPPORT_WORK_COLUMN } from './energy-flows.ts';
+import type { ForceTermContext } from './force-terms.ts';
+import { FORCE_TERMS } from './force-terms.ts';
+import type { Model } from './model.ts';
 import { writeSpringTensions } from './spring-force-parts.ts';
+import type { World } from './world.ts';
 
 const FLUID_TERM = FORCE_TERMS.findIndex((term) => term.name === 'fluid_drag');
 

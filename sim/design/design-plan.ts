@@ -7,11 +7,11 @@
 // hypercube six round keys per parameter, grid one level count per parameter; any episode's
 // point is then computed on its own in O(dimension) (Latin hypercube: O(dimension) expected, the
 // cycle walk of its permutation).
-import { LatinHypercubeCoordinate } from './latin-hypercube.ts';
-import { gridCoordinates } from './full-factorial-grid.ts';
-import { scrambledSobolCoordinate, scrambledSobolDimension } from './sobol-scramble.ts';
-import type { ScrambledSobolDimension } from './sobol-scramble.ts';
 import type { DesignKind, DesignParameter, DesignSpec } from './design-spec.ts';
+import { gridCoordinates } from './full-factorial-grid.ts';
+import { LatinHypercubeCoordinate } from './latin-hypercube.ts';
+import type { ScrambledSobolDimension } from './sobol-scramble.ts';
+import { scrambledSobolCoordinate, scrambledSobolDimension } from './sobol-scramble.ts';
 
 export interface DesignPlan {
   kind: Exclude<DesignKind, 'independent'>;

@@ -5,18 +5,18 @@
 // on, the energy flows and both balances are recorded too; with force recording on, impulse-
 // averaged forces per record interval. A blow-up stops the run with SimulationBlowUpError;
 // nothing half-good is returned.
-import type { Model } from '../core/model.ts';
-import type { World } from '../core/world.ts';
-import { Simulator } from '../core/simulator.ts';
-import type { StepKernel } from '../core/step-kernel-choice.ts';
-import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
-import { ENERGY_BASE_COUNT, ENERGY_NAMES, ENERGY_TERM_COUNT, measureEnergies } from '../core/energy.ts';
-import { FLOW_COLUMN_COUNT } from '../core/energy-flows.ts';
-import { balanceResiduals } from '../core/energy-balance.ts';
-import type { BalanceResiduals } from '../core/energy-balance.ts';
 import { accuracySubsteps } from '../core/accuracy-substeps.ts';
-import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../core/blow-up-check.ts';
 import type { BlowUpLimits } from '../core/blow-up-check.ts';
+import { checkForBlowUp, DEFAULT_BLOW_UP_LIMITS } from '../core/blow-up-check.ts';
+import { ENERGY_BASE_COUNT, ENERGY_NAMES, ENERGY_TERM_COUNT, measureEnergies } from '../core/energy.ts';
+import type { BalanceResiduals } from '../core/energy-balance.ts';
+import { balanceResiduals } from '../core/energy-balance.ts';
+import { FLOW_COLUMN_COUNT } from '../core/energy-flows.ts';
+import type { Model } from '../core/model.ts';
+import { Simulator } from '../core/simulator.ts';
+import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
+import type { World } from '../core/world.ts';
 
 export interface RecordingSettings {
   recordIntervalS: number;

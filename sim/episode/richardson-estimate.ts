@@ -8,8 +8,8 @@
 // holds, since the recorded trajectory is what a learner sees.
 import type { Model } from '../core/model.ts';
 import type { World } from '../core/world.ts';
-import { recordTrajectory } from './record-episode.ts';
 import type { RecordedTrajectory, RecordingSettings } from './record-episode.ts';
+import { recordTrajectory } from './record-episode.ts';
 
 export const RICHARDSON_ORDER = 1;
 

@@ -3,8 +3,8 @@
 // and the error rebuilt from it on the other side. `reportOf` is the one classification of a
 // thrown value: Pliant's own errors say their kind, an operating-system error is classified by
 // its errno code (system-error-kind.ts), anything else is a bug.
-import { PliantError } from './pliant-error.ts';
 import type { ErrorKind } from './pliant-error.ts';
+import { PliantError } from './pliant-error.ts';
 import { systemErrorCode, systemErrorKind } from './system-error-kind.ts';
 
 export interface ErrorReport {

@@ -1,10 +1,10 @@
 // Deterministic SVG line and point charts for the reports Pliant writes (score and calibration):
 // plain SVG 1.1 text with no scripts, fonts or external references, coordinates rounded to
 // 0.01 px so the same numbers always give the same bytes. Non-finite values leave gaps.
-import { decadeTicks, niceTicks, tickLabel } from './nice-ticks.ts';
-import type { AxisTicks } from './nice-ticks.ts';
-import { escapeXml, svgNumber as fmt } from './svg-text.ts';
 import { CHART_COLOURS } from './chart-colours.ts';
+import type { AxisTicks } from './nice-ticks.ts';
+import { decadeTicks, niceTicks, tickLabel } from './nice-ticks.ts';
+import { escapeXml, svgNumber as fmt } from './svg-text.ts';
 
 export type SeriesStyle = 'line' | 'points' | 'line+points';
 

@@ -2,9 +2,9 @@
 // with a legend, for the dataset card (parameters against each other, coloured by split).
 // Plain SVG 1.1, no scripts, fonts or external references; every coordinate goes through
 // svgNumber. Each point is a circle of class "point" whose fill names its group's colour.
+import { chartColour } from './chart-colours.ts';
 import { niceTicks, tickLabel } from './nice-ticks.ts';
 import { escapeXml, svgClose, svgNumber, svgOpen } from './svg-text.ts';
-import { chartColour } from './chart-colours.ts';
 
 export interface ScatterVariable {
   /** Axis label, with its unit. */

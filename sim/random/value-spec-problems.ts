@@ -1,8 +1,8 @@
 // Everything the JSON Schema of a value spec cannot say (min <= max, weights matching values,
 // a positive log-uniform range), checked on raw JSON so the scenario layer can report all of it
 // at once with pointers, and so that sampling never starts from a spec it would misread.
-import { childPointer, unknownKindProblem, unknownMemberProblems } from './spec-problem.ts';
 import type { SpecProblem } from './spec-problem.ts';
+import { childPointer, unknownKindProblem, unknownMemberProblems } from './spec-problem.ts';
 
 const MEMBERS: Record<string, readonly string[]> = {
   uniform: ['kind', 'min', 'max'],

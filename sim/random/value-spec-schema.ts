@@ -6,8 +6,8 @@
 // which the scenario schema puts under $defs): written out in every place, ajv generated 5.6 MB
 // of checking code and the compile cost about 140 MB of memory and a second; shared, 0.2 MB,
 // 15 MB and 0.15 s. The place keeps its own description and default beside the $ref.
-import type { JsonValue } from './json-value.ts';
 import { MAX_EXPRESSION_LENGTH, PARAMETER_NAME_PATTERN, PARAMS_POINTER } from './derived-expression.ts';
+import type { JsonValue } from './json-value.ts';
 
 export type JsonSchema = { [keyword: string]: JsonValue };
 

@@ -3,6 +3,7 @@
 // practice, no source), so callers pick a frame stride that keeps each delay at 0.02 s or more;
 // the delay of each frame is rounded from the episode's own time, so rounding never accumulates.
 import * as gifencModule from 'gifenc';
+
 import type { IndexedFrame } from './indexed-frame.ts';
 
 export interface GifTiming {

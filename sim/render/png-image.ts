@@ -3,6 +3,7 @@
 // edition, W3C 2003). Deflate is fflate's at a fixed level, so the same picture gives the same
 // bytes.
 import { zlibSync } from 'fflate';
+
 import { crc32 } from './crc32.ts';
 import type { IndexedFrame } from './indexed-frame.ts';
 

@@ -2,12 +2,12 @@
 // a numbered PNG sequence: for papers, reviews and a quick look without the app. The episode is
 // read as the app reads it (NPZ or HDF5 group, checked against the manifest), so a picture is
 // always of the data a model is trained on.
-import { DatasetReader } from '../dataset/read/dataset-reader.ts';
 import { DatasetRequestError } from '../dataset/formats/dataset-request-error.ts';
 import type { NamedArray } from '../dataset/formats/named-array.ts';
+import { DatasetReader } from '../dataset/read/dataset-reader.ts';
 import { NODE_FEATURE_NAMES } from '../systems/graph-labels.ts';
-import { EpisodePicture, PICTURE_PALETTE } from './episode-picture.ts';
 import type { PictureView } from './episode-picture.ts';
+import { EpisodePicture, PICTURE_PALETTE } from './episode-picture.ts';
 import { encodeGif } from './gif-animation.ts';
 import type { IndexedFrame } from './indexed-frame.ts';
 import { encodePng } from './png-image.ts';

@@ -2,8 +2,9 @@
 // 'cancel' message by stopping before the next picture, and relays runRenderJob's messages.
 // Start it through render-job-worker-entry.mjs, which loads TypeScript first.
 import { parentPort, workerData } from 'node:worker_threads';
-import { runRenderJob } from './render-job.ts';
+
 import type { RenderJob } from './render-job.ts';
+import { runRenderJob } from './render-job.ts';
 
 const port = parentPort!;
 const { spec } = workerData as { jobId: string; spec: RenderJob };

@@ -5,12 +5,13 @@
 // app's words, never a stack trace or a command-line flag.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { writeFileAtomic } from '../dataset/formats/atomic-file.ts';
 import { toDatasetWriteError } from '../dataset/formats/dataset-write-error.ts';
+import type { JobMessage } from '../dataset/jobs/job-message.ts';
 import { reportOf } from '../errors/error-report.ts';
 import type { PictureView } from './episode-picture.ts';
-import { MissingPictureArrayError, renderEpisode, renderedGif, renderedPngs } from './render-episode.ts';
-import type { JobMessage } from '../dataset/jobs/job-message.ts';
+import { MissingPictureArrayError, renderedGif, renderedPngs,renderEpisode } from './render-episode.ts';
 
 export interface RenderJob {
   kind: 'render';

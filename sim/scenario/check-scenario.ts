@@ -1,15 +1,15 @@
 // The checker every front end uses: scenario text (or an already parsed value) in, either the
 // checked Scenario with its defaults filled in, or every problem found, each with its JSON
 // pointer and, for text, its line and column. Nothing here throws for a user's mistake.
+import { drawTextMaps } from './draw-text-maps.ts';
 import { parseJsonText, placeProblems } from './json-source-map.ts';
+import { checkLinks } from './linked-parameters.ts';
+import { expandMaterialTemplates, hasMaterialTemplates } from './material-templates.ts';
 import { findPhysicalProblems } from './physical-checks.ts';
-import { findSchemaProblems } from './schema-problems.ts';
 import { findRangeProblemsBesideSchema } from './range-checks-beside-schema.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
-import { drawTextMaps } from './draw-text-maps.ts';
-import { checkLinks } from './linked-parameters.ts';
-import { expandMaterialTemplates, hasMaterialTemplates } from './material-templates.ts';
+import { findSchemaProblems } from './schema-problems.ts';
 
 export type ScenarioCheck = { ok: true; scenario: Scenario } | { ok: false; problems: ScenarioProblem[] };
 

@@ -4,10 +4,10 @@
 // shapes, as small test blocks of each material and of all materials mixed, because every
 // generated body is a subset of such cells and the stability bound of a node depends only on
 // the cells around it.
-import { buildChain } from '../systems/chain.ts';
 import type { BuiltSystem } from '../systems/built-system.ts';
-import { buildLattice } from '../systems/lattice.ts';
+import { buildChain } from '../systems/chain.ts';
 import type { LatticeMaterial, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
+import { buildLattice } from '../systems/lattice.ts';
 import { DemandingCorner } from './demanding-corner.ts';
 import { channelledMaterials } from './lattice-materials.ts';
 import { resolveChainParameters } from './resolve-chain.ts';

@@ -1,8 +1,8 @@
 // The parameter resolver of the checks: every value at one end of its range, chosen so that the
 // resulting system is the stiffest, lightest and largest ('demanding') or the opposite
 // ('gentle') that the scenario can produce; it also lists every parameter it was asked for.
-import { isConstant, specBounds } from '../random/distribution.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
+import { isConstant, specBounds } from '../random/distribution.ts';
 import type { DemandingEnd, ParameterResolver } from './parameter-resolver.ts';
 
 export interface ParameterSite {

@@ -1,12 +1,12 @@
 // The parameter resolver of one episode: every value is drawn from the stream of its own JSON
 // pointer and recorded as a label under that pointer. A parameter a design places takes the
 // value of its design coordinate under its distribution's inverse CDF instead.
+import type { NumericValueSpec } from '../random/distribution.ts';
 import { sampleValue } from '../random/distribution.ts';
 import { valueAtProbability } from '../random/inverse-cdf.ts';
-import type { NumericValueSpec } from '../random/distribution.ts';
-import type { LabelValue } from './sampled-episode.ts';
 import type { DemandingEnd, ParameterResolver } from './parameter-resolver.ts';
 import { parameterStream } from './parameter-streams.ts';
+import type { LabelValue } from './sampled-episode.ts';
 
 export class EpisodeDraws implements ParameterResolver {
   readonly labels: Record<string, LabelValue> = {};

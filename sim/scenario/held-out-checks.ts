@@ -1,8 +1,8 @@
 // Held-out rules must name a parameter that really varies between episodes and must be able to
 // match some of its values; otherwise the split they promise would be empty or everything.
+import type { NumericValueSpec } from '../random/distribution.ts';
 import { specBounds } from '../random/distribution.ts';
 import { isConstant } from '../random/distribution.ts';
-import type { NumericValueSpec } from '../random/distribution.ts';
 import { closestName } from './closest-name.ts';
 import type { ParameterSite } from './demanding-corner.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';

@@ -1,7 +1,7 @@
 // Randomises an episode's start: normal noise on the position and velocity of every free node.
 // Pinned and driven nodes keep their prescribed state; 2-D lattices stay in their plane.
-import { NODE_DRIVEN, NODE_PINNED } from '../core/model.ts';
 import type { Model } from '../core/model.ts';
+import { NODE_DRIVEN, NODE_PINNED } from '../core/model.ts';
 import type { RandomStream } from '../random/random-stream.ts';
 
 /**

@@ -1,8 +1,9 @@
 // Reads scenario text with a parser that keeps offsets (jsonc-parser in strict JSON mode: no
 // comments, no trailing commas), so every problem found on the parsed value can be shown at its
 // line and column; and turns the parser's own syntax errors into plain words at their place.
-import { parseTree, printParseErrorCode } from 'jsonc-parser';
 import type { Node as JsonNode, ParseError } from 'jsonc-parser';
+import { parseTree, printParseErrorCode } from 'jsonc-parser';
+
 import type { ScenarioProblem } from './scenario-problem.ts';
 
 export interface SourcePosition {

@@ -2,8 +2,8 @@
 // nodes per group, faces a 2-D body has, distinct channel names, and — for listed maps, where
 // the body is known in advance — that every group holds at least one node of every map.
 // Generated shapes differ from episode to episode, so there only faces can be clamped.
-import { buildLattice, latticeDimension } from '../systems/lattice.ts';
 import type { LatticeMaterial } from '../systems/lattice.ts';
+import { buildLattice, latticeDimension } from '../systems/lattice.ts';
 import type { ResolvedLattice } from './resolve-lattice.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { LatticeSystemSpec } from './scenario-types.ts';

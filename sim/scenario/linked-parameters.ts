@@ -8,18 +8,18 @@
 // rest, and hands the builders a copy of the scenario with every linked place replaced by its
 // number, so everything below sees plain value specs and the labels hold the resolved values.
 // A scenario without any linked form is passed through untouched, so its datasets keep their bytes.
-import type { NumericValueSpec } from '../random/distribution.ts';
-import { isConstant, specBounds } from '../random/distribution.ts';
+import type { DerivedExpression, ValueInterval } from '../random/derived-expression.ts';
 import {
-  ExpressionSyntaxError,
-  PARAMS_POINTER,
   derivedInterval,
   evaluateDerived,
+  ExpressionSyntaxError,
   isWholeByConstruction,
   parametersUsed,
+  PARAMS_POINTER,
   parseDerivedExpression,
 } from '../random/derived-expression.ts';
-import type { DerivedExpression, ValueInterval } from '../random/derived-expression.ts';
+import type { NumericValueSpec } from '../random/distribution.ts';
+import { isConstant, specBounds } from '../random/distribution.ts';
 import { childPointer } from '../random/spec-problem.ts';
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { closestName } from './closest-name.ts';

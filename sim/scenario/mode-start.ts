@@ -9,8 +9,8 @@
 // whose displacement is at least SIGN_SHARE of the largest is positive for amplitudeM > 0;
 // a negative amplitudeM starts the other way. Velocities are left as they are (zero unless a
 // start velocity or spin follows), so the mode starts from rest at its turning point.
-import { freeCoordinates, normalModes, vibrationModes } from '../core/normal-modes.ts';
 import type { Model } from '../core/model.ts';
+import { freeCoordinates, normalModes, vibrationModes } from '../core/normal-modes.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
 
 export interface ResolvedModeStart {

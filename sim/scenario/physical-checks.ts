@@ -3,31 +3,31 @@
 // summing to 1), sizes within the limits, held-out rules that can work, control specs and
 // channel names that fit the system, an observation that fits the records and the nodes, and
 // sub-steps that keep the integration stable.
-import { isConstant, specBounds } from '../random/distribution.ts';
+import { PARAMS_POINTER } from '../random/derived-expression.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
+import { isConstant, specBounds } from '../random/distribution.ts';
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { findChannelKeyProblems, findControlSpecProblemsOf } from './control-checks.ts';
 import { cornerSystems } from './corner-systems.ts';
-import { PARAMS_POINTER } from '../random/derived-expression.ts';
-import { linkedPointers, linkedRangeView } from './linked-parameters.ts';
-import { DemandingCorner } from './demanding-corner.ts';
 import type { ParameterSite } from './demanding-corner.ts';
-import { findHeldOutProblems } from './held-out-checks.ts';
+import { DemandingCorner } from './demanding-corner.ts';
 import { findScenarioDesignProblems } from './design/design-checks.ts';
-import { findSplitPlanProblems } from './splits/split-plan-checks.ts';
-import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
-import { findObservationProblems } from './observation-checks.ts';
+import { findHeldOutProblems } from './held-out-checks.ts';
 import { findLatticeClampProblems } from './lattice-clamp-checks.ts';
+import { findLatticeShapeProblems } from './lattice-shape-checks.ts';
+import { linkedPointers, linkedRangeView } from './linked-parameters.ts';
+import { findObservationProblems } from './observation-checks.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
-import { resolveWorld } from './resolve-world.ts';
 import { resolveStartState } from './resolve-start-state.ts';
-import { findStartStateProblems } from './start-state-checks.ts';
+import { resolveWorld } from './resolve-world.ts';
 import { FRACTION_SUM_TOLERANCE, MAX_RECORDED_NODE_STATES, MAX_STRING_SEED, MIN_NODE_MASS_KG } from './scenario-limits.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { ChainSystemSpec, LatticeSystemSpec, Scenario } from './scenario-types.ts';
 import { SPLIT_ORDER } from './split-assignment.ts';
+import { findSplitPlanProblems } from './splits/split-plan-checks.ts';
 import { findStabilityProblems } from './stability-check.ts';
+import { findStartStateProblems } from './start-state-checks.ts';
 
 /**
  * Every numeric parameter of the scenario, as the sampler will visit it: named parameters

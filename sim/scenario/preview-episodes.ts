@@ -1,7 +1,7 @@
 // The episodes the app previews: the first ones of the sweep, identical to what `generate`
 // writes for the same indices, so what is shown is what the dataset will hold.
-import { sampleEpisode } from './sample-episode.ts';
 import type { SampleEpisodeOptions } from './sample-episode.ts';
+import { sampleEpisode } from './sample-episode.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
 import type { Scenario } from './scenario-types.ts';
 

@@ -6,8 +6,8 @@
 // shared valueSpec-* definition) whose value no schema problem lies at or under.
 import { findValueSpecProblems } from '../random/value-spec-problems.ts';
 import { isLinkedValue } from './linked-parameters.ts';
-import { SCENARIO_SCHEMA } from './scenario-schema.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
+import { SCENARIO_SCHEMA } from './scenario-schema.ts';
 
 type Node = Record<string, unknown>;
 

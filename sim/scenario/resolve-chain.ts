@@ -1,8 +1,8 @@
 // Chain specs to the chain builder's parameters, one number per parameter from the resolver.
 import type { ChainParameters } from '../systems/chain.ts';
 import type { ParameterResolver } from './parameter-resolver.ts';
-import type { ChainSystemSpec, Vector3Spec } from './scenario-types.ts';
 import type { DemandingEnd } from './parameter-resolver.ts';
+import type { ChainSystemSpec, Vector3Spec } from './scenario-types.ts';
 
 export function resolveVector3(spec: Vector3Spec, pointer: string, resolver: ParameterResolver, demanding: DemandingEnd = 'none'): [number, number, number] {
   return [

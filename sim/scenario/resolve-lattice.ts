@@ -2,8 +2,8 @@
 // materials, origin and the shape's parameters, one value per parameter from the resolver.
 import type { LatticeClamp, LatticeMaterial } from '../systems/lattice.ts';
 import { resolveLatticeMaterials } from './lattice-materials.ts';
-import { resolveShapeParameters } from './lattice-shape.ts';
 import type { ShapeParameters } from './lattice-shape.ts';
+import { resolveShapeParameters } from './lattice-shape.ts';
 import type { ParameterResolver } from './parameter-resolver.ts';
 import { resolveVector3 } from './resolve-chain.ts';
 import type { LatticeSystemSpec } from './scenario-types.ts';

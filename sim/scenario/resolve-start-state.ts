@@ -3,10 +3,10 @@
 // and the mode are resolved (and so labelled) only when the scenario gives them, so scenarios
 // without them keep exactly the labels they had.
 import type { Axis } from '../systems/chain.ts';
+import type { ResolvedModeStart } from './mode-start.ts';
 import type { ParameterResolver } from './parameter-resolver.ts';
 import { resolveVector3 } from './resolve-chain.ts';
 import type { InitialStateSpec, ModeStartSpec, StartCurveSpec } from './scenario-types.ts';
-import type { ResolvedModeStart } from './mode-start.ts';
 import type { ResolvedStartCurve } from './start-curve.ts';
 import type { StartMotion } from './start-pose.ts';
 

@@ -1,10 +1,10 @@
 // World specs to the simulator's World: a ground or fluid section that is present is enabled.
-import { defaultWorld } from '../core/world.ts';
 import type { World } from '../core/world.ts';
+import type { Obstacle } from '../core/world.ts';
+import { defaultWorld } from '../core/world.ts';
 import type { ParameterResolver } from './parameter-resolver.ts';
 import { resolveVector3 } from './resolve-chain.ts';
 import type { ObstacleSpec, WorldSpec } from './scenario-types.ts';
-import type { Obstacle } from '../core/world.ts';
 
 export function resolveWorld(spec: WorldSpec, resolver: ParameterResolver): World {
   const world = defaultWorld();

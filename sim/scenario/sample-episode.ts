@@ -2,35 +2,35 @@
 // drawn from the stream of its JSON pointer, the system built by the real builders, the start
 // state set (curve, pose, settling, mode, motion, noise in that order), the observation
 // settings resolved, the controls generated per channel and the split assigned.
-import { SpecError } from '../random/spec-problem.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import type { SpecProblem } from '../random/spec-problem.ts';
+import { SpecError } from '../random/spec-problem.ts';
+import type { BuiltSystem } from '../systems/built-system.ts';
 import { buildChain } from '../systems/chain.ts';
 import { buildLattice, latticeDimension } from '../systems/lattice.ts';
-import type { BuiltSystem } from '../systems/built-system.ts';
-import { sampleControls } from './control-sampling.ts';
 import type { ReplayReader } from './control-sampling.ts';
-import { EpisodeDraws } from './episode-draws.ts';
+import { sampleControls } from './control-sampling.ts';
 import { designCoordinates } from './design/scenario-design.ts';
+import { EpisodeDraws } from './episode-draws.ts';
 import { applyInitialStateNoise } from './initial-state-noise.ts';
 import { latticeBody } from './lattice-shape.ts';
+import { scenarioForEpisode } from './linked-parameters.ts';
+import { applyModeStart } from './mode-start.ts';
 import { INITIAL_POSITION_SUB_STREAM, INITIAL_VELOCITY_SUB_STREAM, initialStateStream, richardsonStream, shapeStream, splitStream } from './parameter-streams.ts';
 import { resolveChainParameters } from './resolve-chain.ts';
 import { resolveLatticeParameters } from './resolve-lattice.ts';
 import { resolveObservation } from './resolve-observation.ts';
-import { resolveWorld } from './resolve-world.ts';
 import { resolveStartState } from './resolve-start-state.ts';
-import { applyStartPose, applyStartVelocity } from './start-pose.ts';
-import { settleStart } from './settle-start.ts';
-import { applyStartCurve } from './start-curve.ts';
-import { applyModeStart } from './mode-start.ts';
-import type { StepKernel } from '../core/step-kernel-choice.ts';
+import { resolveWorld } from './resolve-world.ts';
 import type { SampledEpisode } from './sampled-episode.ts';
-import { scenarioForEpisode } from './linked-parameters.ts';
-import { ScenarioProblemError } from './scenario-problem.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
+import { ScenarioProblemError } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
+import { settleStart } from './settle-start.ts';
 import { assignSplit } from './split-assignment.ts';
 import { plannedSplit, scenarioSplitPlan, usesPlannedSplits } from './splits/planned-splits.ts';
+import { applyStartCurve } from './start-curve.ts';
+import { applyStartPose, applyStartVelocity } from './start-pose.ts';
 
 export interface SampleEpisodeOptions {
   /** Reads a replay table (a .npy file named in a "replay" control spec). */

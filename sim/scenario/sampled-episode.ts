@@ -2,9 +2,9 @@
 // determined by (scenario, master seed, episode index). The pipeline records it, the preview
 // plays it, the manifest stores its labels.
 import type { World } from '../core/world.ts';
-import type { BuiltSystem } from '../systems/built-system.ts';
-import type { RecordingSettings } from '../episode/record-episode.ts';
 import type { ObservationSettings } from '../episode/observe-trajectory.ts';
+import type { RecordingSettings } from '../episode/record-episode.ts';
+import type { BuiltSystem } from '../systems/built-system.ts';
 
 /** A ground-truth label value: what the sampler drew for one parameter. */
 export type LabelValue = number | string | boolean | null | LabelValue[] | { [key: string]: LabelValue };

@@ -3,9 +3,15 @@
 // Structure, types, enums and per-value physical limits live here; what one value cannot say
 // on its own (ranges against ranges, stability, sizes) is in physical-checks.ts.
 import { controlSpecSchema } from '../controls/control-spec-schema.ts';
+import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
+import { DESIGN_KINDS } from '../design/design-spec.ts';
+import { PARAMETER_NAME_PATTERN } from '../random/derived-expression.ts';
 import type { JsonSchema } from '../random/value-spec-schema.ts';
-import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-schema.ts';
 import type { ValueSpecSchemaOptions } from '../random/value-spec-schema.ts';
+import { VALUE_SPEC_DEFINITIONS, valueSpecSchema } from '../random/value-spec-schema.ts';
+import { DEFAULT_EXPORT_COMPRESSION, describeCompression,EXPORT_COMPRESSIONS, SEED_COMPRESSION_BEFORE_CHOICE } from './export-compression.ts';
+import { withFieldTitles } from './field-titles.ts';
+import { SAFETY_CAUTION } from './safety-caution.ts';
 import {
   MAX_ACTUATOR_CHANNELS,
   MAX_CHAIN_PARTS,
@@ -27,12 +33,6 @@ import {
   MAX_SETTLE_S,
   MAX_SUBSTEPS,
 } from './scenario-limits.ts';
-import { SAFETY_CAUTION } from './safety-caution.ts';
-import { withFieldTitles } from './field-titles.ts';
-import { DEFAULT_RAMP_IN_S } from '../controls/ramp-in.ts';
-import { DESIGN_KINDS } from '../design/design-spec.ts';
-import { PARAMETER_NAME_PATTERN } from '../random/derived-expression.ts';
-import { DEFAULT_EXPORT_COMPRESSION, EXPORT_COMPRESSIONS, SEED_COMPRESSION_BEFORE_CHOICE, describeCompression } from './export-compression.ts';
 
 export const SCENARIO_SCHEMA_ID = 'https://pliant.invalid/schema/scenario-1.json';
 

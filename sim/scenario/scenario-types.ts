@@ -5,10 +5,10 @@
 // Defaults named in the schema are filled in by checking, so every member below is present.
 import type { ControlSpec } from '../controls/control-spec.ts';
 import type { DesignSpec } from '../design/design-spec.ts';
-import type { ExportCompression } from './export-compression.ts';
 import type { NumericValueSpec } from '../random/distribution.ts';
 import type { Axis, ChainAnchor, ChainEnd } from '../systems/chain.ts';
 import type { LatticeBase, LatticeFace, MaterialMap2D, MaterialMap3D } from '../systems/lattice.ts';
+import type { ExportCompression } from './export-compression.ts';
 
 export type Vector3Spec = [NumericValueSpec, NumericValueSpec, NumericValueSpec];
 

@@ -4,14 +4,15 @@
 // The schema picks between forms with if/then/else, never anyOf/oneOf, so ajv reports only
 // the errors of the form a value evidently meant; the `if` echoes are dropped here.
 // Defaults written in the schema are filled into the value as it is checked.
-import Ajv2020 from 'ajv/dist/2020.js';
 import type { ErrorObject, ValidateFunction } from 'ajv';
+import Ajv2020 from 'ajv/dist/2020.js';
+
 import type { JsonSchema } from '../random/value-spec-schema.ts';
 import { closestName } from './closest-name.ts';
 import { pointerSegments } from './json-source-map.ts';
-import { SCENARIO_SCHEMA } from './scenario-schema.ts';
-import type { ScenarioProblem } from './scenario-problem.ts';
 import { prebuiltScenarioChecker } from './prebuilt-scenario-checker.ts';
+import type { ScenarioProblem } from './scenario-problem.ts';
+import { SCENARIO_SCHEMA } from './scenario-schema.ts';
 
 /**
  * allowUnionTypes: some values are "a whole number or a string"; strictTypes would refuse

@@ -3,10 +3,10 @@
 // drag, so a hanging chain or a resting body starts at rest where it would hang or rest, not
 // falling from its built shape. Its velocities are then set to zero; start velocities and noise
 // come after. The run uses the stability bound's sub-steps with the extra drag included.
-import { Simulator } from '../core/simulator.ts';
-import type { StepKernel } from '../core/step-kernel-choice.ts';
-import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
 import type { Model } from '../core/model.ts';
+import { Simulator } from '../core/simulator.ts';
+import { autoSubsteps, stabilityBound } from '../core/stability-bound.ts';
+import type { StepKernel } from '../core/step-kernel-choice.ts';
 import type { World } from '../core/world.ts';
 
 export function settleStart(model: Model, world: World, settleS: number, settleDragPerS: number, intervalS: number, autoSafety: number, kernel?: StepKernel): void {

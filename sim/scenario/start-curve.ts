@@ -12,8 +12,8 @@
 // - sine: w(u) = A·(sin(2π·u/λ + φ) − sin φ), so w(0) = 0; node j + 1 is the point of the curve
 //   at distance a from node j with u between u_j and u_j + a, found by bisection (the distance
 //   is −a short of it at u_j and at least 0 past it at u_j + a, so a root lies between).
-import { RELATION_STRUCTURAL } from '../core/model.ts';
 import type { Model } from '../core/model.ts';
+import { RELATION_STRUCTURAL } from '../core/model.ts';
 import { ScenarioProblemError } from './scenario-problem.ts';
 
 export type ResolvedStartCurve =

@@ -4,8 +4,8 @@
 // about its centre of mass; a translation of a free body; and a uniform velocity plus a spin
 // ω × (x − pivot). Held nodes never move, so a held node away from the pivot is only allowed
 // a zero rotation (checked in start-state-checks.ts). 2-D lattices keep to their x-y plane.
-import { NODE_DRIVEN, NODE_PINNED } from '../core/model.ts';
 import type { Model } from '../core/model.ts';
+import { NODE_DRIVEN, NODE_PINNED } from '../core/model.ts';
 
 export interface StartMotion {
   translationM: [number, number, number];

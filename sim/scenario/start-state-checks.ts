@@ -3,16 +3,16 @@
 // held place (the pivot) and a curve a chain held at node 0 at most; an arc's parts must fit
 // as chords of its circle, and a mode start must stay within the size Pliant decomposes.
 // Checked on the systems the checks build at both ends of every range.
-import { isConstant, specBounds } from '../random/distribution.ts';
-import type { NumericValueSpec } from '../random/distribution.ts';
 import { NODE_DRIVEN, NODE_PINNED } from '../core/model.ts';
+import type { NumericValueSpec } from '../random/distribution.ts';
+import { isConstant, specBounds } from '../random/distribution.ts';
 import type { BuiltSystem } from '../systems/built-system.ts';
-import { MAX_MODE_COORDINATES, MAX_SETTLE_INTERVALS } from './scenario-limits.ts';
 import { DemandingCorner } from './demanding-corner.ts';
 import { resolveStartState } from './resolve-start-state.ts';
-import { bendPlaneUnit, chainLine } from './start-curve.ts';
+import { MAX_MODE_COORDINATES, MAX_SETTLE_INTERVALS } from './scenario-limits.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { Scenario } from './scenario-types.ts';
+import { bendPlaneUnit, chainLine } from './start-curve.ts';
 
 function canBeNonZero(spec: NumericValueSpec): boolean {
   const { min, max } = specBounds(spec);

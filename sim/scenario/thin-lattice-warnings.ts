@@ -4,8 +4,8 @@
 // weight, 2.2× at 1 cell, 1.30× at 2, 1.13× at 3, 1.07× at 4 and 1.03× at 6 cells (2-D; 3-D
 // one cell deep alike), close to 1 + 1.2/n² from 2 cells on (test/core-lattice-bending.test.ts).
 // Nothing is wrong with such a scenario, so these are warnings, not problems.
-import { linkedRangeView } from './linked-parameters.ts';
 import { specBounds } from '../random/distribution.ts';
+import { linkedRangeView } from './linked-parameters.ts';
 import type { ScenarioProblem } from './scenario-problem.ts';
 import type { MaterialMap, Scenario } from './scenario-types.ts';
 

@@ -6,8 +6,8 @@
 // sim/core/bending-forces.ts. Second-neighbour springs (i, i+2), a fraction of the structural
 // stiffness, remain as an option: they resist folding but add no bending stiffness about a
 // straight line.
-import { ModelBuilder } from '../core/model-builder.ts';
 import { NODE_PINNED, RELATION_SECOND_NEIGHBOUR, RELATION_STRUCTURAL } from '../core/model.ts';
+import { ModelBuilder } from '../core/model-builder.ts';
 import type { BuiltSystem } from './built-system.ts';
 import type { ControlChannelInfo } from './control-channel.ts';
 import { dampingFromRatio } from './spring-damping.ts';

@@ -7,8 +7,8 @@
 //
 // Material maps: 2-D maps are rows [y][x], 3-D maps are layers [y][z][x]; y is up and index 0
 // is the bottom. 0 is empty, m ≥ 1 is materials[m − 1].
-import { ModelBuilder } from '../core/model-builder.ts';
 import { NODE_PINNED, RELATION_BODY_DIAGONAL, RELATION_CELL_EDGE, RELATION_FACE_DIAGONAL } from '../core/model.ts';
+import { ModelBuilder } from '../core/model-builder.ts';
 import type { BuiltSystem } from './built-system.ts';
 import type { ControlChannelInfo } from './control-channel.ts';
 import { cellSpringShares } from './material-springs.ts';

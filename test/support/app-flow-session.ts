@@ -7,11 +7,12 @@ import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { JobProgress, RequestArgs, RequestErrorInfo, RequestName, RequestResult } from '../../sim/bridge/bridge-contract.ts';
+
 import { createDefaultServices } from '../../electron/default-services.ts';
 import { createNativeFolderChooser } from '../../electron/folder-dialog.ts';
-import { createRequestHandlers } from '../../electron/request-handlers.ts';
 import type { RequestHandlers } from '../../electron/request-handlers.ts';
+import { createRequestHandlers } from '../../electron/request-handlers.ts';
+import type { JobProgress, RequestArgs, RequestErrorInfo, RequestName, RequestResult } from '../../sim/bridge/bridge-contract.ts';
 
 export const REPO_ROOT = fileURLToPath(new URL('../..', import.meta.url));
 

@@ -3,11 +3,13 @@
 // under test-output/, and measures what the 3-D view really drew by reading its pixels.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { chromium } from 'playwright-core';
+
 import type { Browser, Page } from 'playwright-core';
-import { CHROMIUM_ARGS, CHROMIUM_PATH } from './reference-chromium.ts';
-import { REPO_ROOT } from './e2e-web-app.ts';
+import { chromium } from 'playwright-core';
+
 import { waitInPage } from './e2e-page-condition.ts';
+import { REPO_ROOT } from './e2e-web-app.ts';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from './reference-chromium.ts';
 
 export const SCREENSHOT_DIR = join(REPO_ROOT, 'test-output', 'screens');
 

@@ -1,6 +1,7 @@
 // Steps the end-to-end suites take on Pliant's screens, written once: open a demo scenario on
 // the Sweep screen and wait for its check, wait for a preview to finish simulating.
 import type { Page } from 'playwright-core';
+
 import { waitInPage } from './e2e-page-condition.ts';
 
 export async function openDemo(page: Page, fileName: string): Promise<void> {

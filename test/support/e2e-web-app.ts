@@ -2,16 +2,18 @@
 // temporary folder, then runs the web-mode server (electron/web-server.ts) with the same services
 // `npm run web` builds (electron/web-cli.ts: the real dataset pipeline in every seam), on a free
 // loopback port.
+import { readFileSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { readFileSync } from 'node:fs';
+
 import { build } from 'vite';
+
 import { createDefaultServices } from '../../electron/default-services.ts';
 import { createRequestHandlers } from '../../electron/request-handlers.ts';
-import { startWebServer } from '../../electron/web-server.ts';
 import type { RunningWebServer } from '../../electron/web-server.ts';
+import { startWebServer } from '../../electron/web-server.ts';
 
 export const REPO_ROOT = fileURLToPath(new URL('../..', import.meta.url));
 export const SCENARIOS_DIR = join(REPO_ROOT, 'scenarios');

@@ -4,10 +4,11 @@
 // persistence prediction (every row the recorded initial state) with the project's NPZ writer.
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { runCli } from '../../sim/cli/main.ts';
-import type { DatasetManifest } from '../../sim/dataset/manifest/dataset-manifest.ts';
 import { namedArray } from '../../sim/dataset/formats/named-array.ts';
 import { readNpzFile, writeNpzFile } from '../../sim/dataset/formats/npz.ts';
+import type { DatasetManifest } from '../../sim/dataset/manifest/dataset-manifest.ts';
 
 export function scoreScenario(): unknown {
   return {

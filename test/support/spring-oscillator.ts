@@ -2,9 +2,9 @@
 // x axis at the spring's rest length plus an initial displacement. Motion stays on the axis,
 // where the spring force −k·(x − L0) is exactly linear, so the run is the one-degree-of-
 // freedom oscillator x'' = −(k/m)·x.
-import { ModelBuilder } from '../../sim/core/model-builder.ts';
-import { NODE_PINNED, RELATION_STRUCTURAL } from '../../sim/core/model.ts';
 import type { Model } from '../../sim/core/model.ts';
+import { NODE_PINNED, RELATION_STRUCTURAL } from '../../sim/core/model.ts';
+import { ModelBuilder } from '../../sim/core/model-builder.ts';
 
 export interface SpringOscillatorSpec {
   massKg: number;

@@ -10,8 +10,8 @@
 // are read once, here.
 import type { Model } from '../model.ts';
 import type { World } from '../world.ts';
-import { instantiateStepKernel, WASM_PAGE_BYTES } from './step-kernel-module.ts';
 import type { StepKernelExports } from './step-kernel-module.ts';
+import { instantiateStepKernel, WASM_PAGE_BYTES } from './step-kernel-module.ts';
 
 /** Bump allocator over byte offsets, 8-byte aligned. */
 class MemoryPlan {

@@ -3,9 +3,9 @@
 // (x across, z down the page, looking down the −y axis) and from the side (x across, y up).
 // Only the frames and the drawn springs of those few episodes are kept, read from their
 // episode files at the end of the run, so the sheet costs nothing per episode of the sweep.
-import type { NamedArray } from '../formats/named-array.ts';
-import { renderEdgeSheet } from '../../plots/svg-edge-sheet.ts';
 import type { EdgePanel } from '../../plots/svg-edge-sheet.ts';
+import { renderEdgeSheet } from '../../plots/svg-edge-sheet.ts';
+import type { NamedArray } from '../formats/named-array.ts';
 import { formatLabelNumber } from './text-histogram.ts';
 
 /** Episodes on the sheet at most. */

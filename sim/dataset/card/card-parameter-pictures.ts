@@ -3,15 +3,15 @@
 // label-bins.ts, shared by every split, so splits compare bar for bar; every episode of the
 // split counted, rejected ones too, as in the text histograms), with the held-out rules' ranges
 // shaded; and scatter plots of the two or three parameters spread most widely over their range.
-import type { CardTally, LabelTally } from './card-tally.ts';
-import type { HeldOutRule } from '../../scenario/scenario-types.ts';
-import { labelBins } from './label-bins.ts';
-import { unitOfLabel } from '../manifest/label-units.ts';
-import { formatLabelNumber } from './text-histogram.ts';
-import { renderHistogramPanels } from '../../plots/svg-histogram-panels.ts';
 import type { HistogramBand, HistogramBin, HistogramPanel } from '../../plots/svg-histogram-panels.ts';
-import { renderScatterPanels } from '../../plots/svg-scatter-panels.ts';
+import { renderHistogramPanels } from '../../plots/svg-histogram-panels.ts';
 import type { ScatterGroup } from '../../plots/svg-scatter-panels.ts';
+import { renderScatterPanels } from '../../plots/svg-scatter-panels.ts';
+import type { HeldOutRule } from '../../scenario/scenario-types.ts';
+import { unitOfLabel } from '../manifest/label-units.ts';
+import type { CardTally, LabelTally } from './card-tally.ts';
+import { labelBins } from './label-bins.ts';
+import { formatLabelNumber } from './text-histogram.ts';
 
 /** Most distinct non-numeric values a picture draws one bar each for (as the card's text). */
 const CATEGORY_BARS = 12;

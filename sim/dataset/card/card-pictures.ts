@@ -3,13 +3,13 @@
 // sheet (card/episodes.svg), each present only when it has something to draw. Like CARD.md they
 // are made from the folder's content alone (tally, scenario, a few episode files), never the
 // run, so every copy of a dataset has the same bytes.
-import type { CardTally } from './card-tally.ts';
-import type { HeldOutRule } from '../../scenario/scenario-types.ts';
 import { chartColour } from '../../plots/chart-colours.ts';
+import type { HeldOutRule } from '../../scenario/scenario-types.ts';
 import { CARD_PICTURES_FOLDER } from '../manifest/dataset-files.ts';
-import { parameterHistograms, parameterScatter } from './card-parameter-pictures.ts';
-import { renderContactSheet } from './card-contact-sheet.ts';
 import type { SheetEpisode } from './card-contact-sheet.ts';
+import { renderContactSheet } from './card-contact-sheet.ts';
+import { parameterHistograms, parameterScatter } from './card-parameter-pictures.ts';
+import type { CardTally } from './card-tally.ts';
 
 export interface CardPicture {
   /** Path inside the dataset folder, '/'-separated, as CARD.md links it and the manifest lists it. */

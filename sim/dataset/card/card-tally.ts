@@ -5,8 +5,8 @@
 // histograms need (nothing for a label while it keeps one value, 8 bytes per episode while it
 // is a number, and 2 bytes per value for the split it came from, which the SVG pictures count
 // by), and one SHA-256 digest per distinct list-valued label.
-import { Sha256Stream } from '../formats/file-digest.ts';
 import type { LabelValue } from '../../scenario/sampled-episode.ts';
+import { Sha256Stream } from '../formats/file-digest.ts';
 import type { EpisodeRecord, EpisodeRejection, EpisodeSimulation } from '../manifest/dataset-manifest.ts';
 
 /** How many rejected episodes the card lists one by one; the manifest lists them all. */

@@ -4,20 +4,20 @@
 // from the manifest's content alone (never the run metadata), so every copy of a dataset made
 // from the same seed file has the same card, byte for byte. The episodes arrive as a CardTally,
 // gathered one record at a time, so a card for a large sweep needs little memory.
-import type { ManifestHead } from '../manifest/dataset-manifest.ts';
-import { REJECTED_LISTED } from './card-tally.ts';
-import type { CardTally, ScalarLabel } from './card-tally.ts';
-import { EPISODE_ARRAYS } from '../manifest/episode-array-catalogue.ts';
 import { describeCompression } from '../../scenario/export-compression.ts';
-import { categoricalHistogram, formatLabelNumber, numericHistogram } from './text-histogram.ts';
-import { valueAtPointer } from '../formats/json-pointer-lookup.ts';
-import { unitOfLabel } from '../manifest/label-units.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
+import { valueAtPointer } from '../formats/json-pointer-lookup.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from '../manifest/dataset-files.ts';
+import type { ManifestHead } from '../manifest/dataset-manifest.ts';
+import { EPISODE_ARRAYS } from '../manifest/episode-array-catalogue.ts';
+import { unitOfLabel } from '../manifest/label-units.ts';
+import { SHEET_EPISODES } from './card-contact-sheet.ts';
+import { SCATTER_POINTS_PER_SPLIT } from './card-parameter-pictures.ts';
+import type { CardTally, ScalarLabel } from './card-tally.ts';
+import { REJECTED_LISTED } from './card-tally.ts';
 import { designCardSection } from './design-card-section.ts';
 import { PYTHON_LOADER_FILE_NAME } from './python-loader-source.ts';
-import { SCATTER_POINTS_PER_SPLIT } from './card-parameter-pictures.ts';
-import { SHEET_EPISODES } from './card-contact-sheet.ts';
+import { categoricalHistogram, formatLabelNumber, numericHistogram } from './text-histogram.ts';
 
 export interface CardSource extends ManifestHead {
   /** The folder's episodes, gathered in index order. */

@@ -4,6 +4,7 @@
 // temporary file is removed and a DatasetWriteError says what happened.
 import * as nodeFs from 'node:fs';
 import { basename, dirname, join } from 'node:path';
+
 import { toDatasetWriteError } from './dataset-write-error.ts';
 
 /** The file-system calls the writer makes; tests pass a wrapper that fails on purpose (e.g. a full disk). */

@@ -3,6 +3,7 @@
 // endless read or V8's "Invalid string length". The size is checked before reading and again
 // while reading (a file may grow, and some special files report size 0).
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
+
 import { DatasetRequestError } from './dataset-request-error.ts';
 
 export const MiB = 1024 * 1024;

@@ -6,6 +6,7 @@
 import { realpathSync } from 'node:fs';
 import { realpath } from 'node:fs/promises';
 import { basename, dirname, isAbsolute, join, relative, sep } from 'node:path';
+
 import { DatasetRequestError } from './dataset-request-error.ts';
 
 /** True when `candidate` is `root` itself or lies below it (both absolute). */

@@ -1,7 +1,6 @@
 // The user-facing error for a dataset or controls file that cannot be read or is not in the
 // expected format: names the file and the place in it, what is wrong and how to fix it.
 import { PliantError } from '../../errors/pliant-error.ts';
-
 import { COMMAND_LINE_WORDS, wordRun } from './run-words.ts';
 
 export class DatasetReadError extends PliantError {

@@ -3,7 +3,6 @@
 // to fix it; the command line prints only that and exits with 2. (Failed reads and writes on the
 // way are DatasetReadError and DatasetWriteError.)
 import { PliantError } from '../../errors/pliant-error.ts';
-
 import { COMMAND_LINE_WORDS, wordRun } from './run-words.ts';
 
 export class DatasetRequestError extends PliantError {

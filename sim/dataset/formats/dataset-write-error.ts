@@ -1,6 +1,7 @@
 // The user-facing error for a dataset file that could not be written: says what went wrong,
 // where, and how to fix it, in one line the command line and the app can show as it is.
 import { dirname } from 'node:path';
+
 import { PliantError } from '../../errors/pliant-error.ts';
 import { systemErrorCode } from '../../errors/system-error-kind.ts';
 import { COMMAND_LINE_WORDS, say, wordRun } from './run-words.ts';

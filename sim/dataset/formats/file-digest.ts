@@ -9,6 +9,7 @@
 // architecture-layering.test.ts checks that nothing else calls node:crypto's createHash).
 import { createHash } from 'node:crypto';
 import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
+
 import { systemErrorCode } from './read-file-bytes.ts';
 
 const READ_PIECE_BYTES = 1 << 20;

@@ -2,12 +2,13 @@
 // into NamedArrays, through the same h5wasm library the writer uses. Only the named datasets of
 // the group are read, so showing one episode of a large split does not decompress the others.
 import { resolve } from 'node:path';
+
 import { DatasetReadError } from './dataset-read-error.ts';
-import { HDF5_FIXED_TIME_S } from './hdf5-writer.ts';
-import { loadHdf5Library, runHdf5Calls } from './hdf5-runtime.ts';
 import type { Hdf5Library } from './hdf5-runtime.ts';
-import { dtypeOfTypedArray } from './named-array.ts';
+import { loadHdf5Library, runHdf5Calls } from './hdf5-runtime.ts';
+import { HDF5_FIXED_TIME_S } from './hdf5-writer.ts';
 import type { ArrayDtype, NamedArray } from './named-array.ts';
+import { dtypeOfTypedArray } from './named-array.ts';
 
 type Hdf5Dataset = InstanceType<Hdf5Library['Dataset']>;
 

@@ -7,10 +7,11 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { writeFileAtomicVia, type AtomicWriteOptions } from './atomic-file.ts';
+
+import { type AtomicWriteOptions,writeFileAtomicVia } from './atomic-file.ts';
 import { DatasetWriteError, datasetWriteErrorFromErrno } from './dataset-write-error.ts';
-import { loadHdf5Library, runHdf5Calls, type Hdf5Library } from './hdf5-runtime.ts';
-import { ARRAY_NAME_PATTERN, checkNamedArray, dtypeByteSize, type ArrayDtype, type NamedArray } from './named-array.ts';
+import { type Hdf5Library,loadHdf5Library, runHdf5Calls } from './hdf5-runtime.ts';
+import { ARRAY_NAME_PATTERN, type ArrayDtype, checkNamedArray, dtypeByteSize, type NamedArray } from './named-array.ts';
 import { readFileBytes } from './read-file-bytes.ts';
 
 /** Strings become UTF-8 strings, numbers float64 and bigints int64 scalars. */

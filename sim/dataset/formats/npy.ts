@@ -2,18 +2,19 @@
 // writes it (version 1.0, little-endian, C order), and read back from anything numpy.save
 // produces for the dtypes Pliant uses (the command line replays user controls from .npy).
 import { basename } from 'node:path';
-import { writeFileAtomic, type AtomicWriteOptions } from './atomic-file.ts';
+
+import { type AtomicWriteOptions,writeFileAtomic } from './atomic-file.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
-import { readFileBytes } from './read-file-bytes.ts';
 import {
+  type ArrayDtype,
   checkNamedArray,
   dtypeByteSize,
   elementCount,
-  typedArrayOver,
-  type ArrayDtype,
   type NamedArray,
+  typedArrayOver,
 } from './named-array.ts';
 import { encodeNpyHeader, parseNpyHeader } from './npy-header.ts';
+import { readFileBytes } from './read-file-bytes.ts';
 
 /** NumPy's dtype.descr strings for little-endian data; one-byte types carry no byte order ('|'). */
 export const NPY_DESCR: Readonly<Record<ArrayDtype, string>> = {

@@ -7,9 +7,10 @@
 // Compression: 'deflate' (default, level 6, what numpy.savez_compressed gives) or 'stored'
 // (no compression, what numpy.savez gives; fastest, and float trajectories rarely shrink much).
 // The archive is built in memory and has no ZIP64 records, so it must stay under 4 GiB.
-import { unzipSync, zipSync, type Zippable } from 'fflate';
-import { writeFileAtomic, type AtomicWriteOptions } from './atomic-file.ts';
+import { unzipSync, type Zippable,zipSync } from 'fflate';
+
 import { PliantError } from '../../errors/pliant-error.ts';
+import { type AtomicWriteOptions,writeFileAtomic } from './atomic-file.ts';
 import { DatasetReadError } from './dataset-read-error.ts';
 import { DatasetWriteError } from './dataset-write-error.ts';
 import type { NamedArray } from './named-array.ts';

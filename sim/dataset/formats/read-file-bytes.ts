@@ -1,6 +1,7 @@
 // Reads a whole dataset or controls file into memory, turning operating-system failures into a
 // DatasetReadError that names the file and says what to check.
 import { readFileSync } from 'node:fs';
+
 import { DatasetReadError } from './dataset-read-error.ts';
 
 export function readFileBytes(path: string): Uint8Array {

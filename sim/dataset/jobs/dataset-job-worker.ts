@@ -2,9 +2,10 @@
 // 'cancel' message by stopping at the next episode boundary, and relays runDatasetJob's messages.
 // Start it through dataset-job-worker-entry.mjs, which loads TypeScript first.
 import { parentPort, workerData } from 'node:worker_threads';
+
 import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
-import { runDatasetJob } from './dataset-job.ts';
 import type { DatasetJob } from './dataset-job.ts';
+import { runDatasetJob } from './dataset-job.ts';
 
 const port = parentPort!;
 const { spec } = workerData as { jobId: string; spec: DatasetJob };

@@ -3,10 +3,10 @@
 // episode boundary when asked. The shapes of the job and its messages follow the job protocol
 // the desktop and web shells define (electron/job-worker-protocol.ts); they are restated here
 // rather than imported, so sim/ never depends on the shells.
+import { reportOf } from '../../errors/error-report.ts';
 import { checkScenarioText } from '../../scenario/check-scenario.ts';
 import { withOverrides } from '../../scenario/scenario-overrides.ts';
-import { ScenarioProblemError, formatProblems } from '../../scenario/scenario-problem.ts';
-import { reportOf } from '../../errors/error-report.ts';
+import { formatProblems,ScenarioProblemError } from '../../scenario/scenario-problem.ts';
 import { generateDataset } from '../write/generate-dataset.ts';
 import type { GenerationEvent } from '../write/generation-progress.ts';
 import { replayFilesOf } from '../write/replay-inputs.ts';

@@ -4,6 +4,7 @@
 // large dataset takes seconds to minutes, which must not stall the Electron main process or the
 // web server. Start it through dataset-verify-worker-entry.mjs, which loads TypeScript first.
 import { parentPort, workerData } from 'node:worker_threads';
+
 import { reportOf } from '../../errors/error-report.ts';
 import { verifyDatasetByFile } from '../read/verify-by-file.ts';
 

@@ -2,13 +2,14 @@
 // (checked against the schema) and whether a run is still in progress there.
 import { stat } from 'node:fs/promises';
 import { join } from 'node:path';
+
 import { containedPath } from '../formats/contained-path.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { say } from '../formats/run-words.ts';
+import { readTextIfPresent } from '../formats/text-file.ts';
 import { MANIFEST_FILE, SEED_FILE, WORK_FOLDER } from './dataset-files.ts';
 import type { DatasetManifest } from './dataset-manifest.ts';
 import { manifestProblems } from './manifest-check.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { readTextIfPresent } from '../formats/text-file.ts';
-import { say } from '../formats/run-words.ts';
 
 export interface FolderState {
   dir: string;

@@ -7,8 +7,8 @@ import type { BlowUpKind } from '../../core/simulation-error.ts';
 import type { CompressionLevels, ExportCompression } from '../../scenario/export-compression.ts';
 import type { LabelValue } from '../../scenario/sampled-episode.ts';
 import type { ControlChannelInfo } from '../../systems/control-channel.ts';
-import type { CatalogueDtype } from './episode-array-catalogue.ts';
 import type { ColumnMoments } from './column-moments.ts';
+import type { CatalogueDtype } from './episode-array-catalogue.ts';
 
 export const MANIFEST_FORMAT_VERSION = 1;
 

@@ -1,10 +1,10 @@
 // What each array of an episode holds: its name in the files, its shape in symbols, its unit
 // and its meaning. The manifest, the dataset card and LAYOUT.md all quote this one table, so a
 // learner reading any of them gets the same description of every column.
-import { NODE_FEATURE_NAMES } from '../../systems/graph-labels.ts';
-import { RELATION_NAMES } from '../../core/model.ts';
 import { ENERGY_BASE_COUNT, ENERGY_TERMS } from '../../core/energy.ts';
 import { FLOW_COLUMNS } from '../../core/energy-flows.ts';
+import { RELATION_NAMES } from '../../core/model.ts';
+import { NODE_FEATURE_NAMES } from '../../systems/graph-labels.ts';
 
 /** 'float' arrays take the dataset's export dtype (float32 or float64); the rest are fixed. */
 export type CatalogueDtype = 'float' | 'int32' | 'uint8' | 'int16';

@@ -7,12 +7,13 @@
 import { readFileSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { ArrayLayout, EpisodeRecord, FileRecord } from './dataset-manifest.ts';
-import { digestFile } from '../formats/file-digest.ts';
+
 import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { digestFile } from '../formats/file-digest.ts';
 import { systemErrorCode } from '../formats/read-file-bytes.ts';
 import { say } from '../formats/run-words.ts';
 import { asCompletion, completionProblem } from './completion-check.ts';
+import type { ArrayLayout, EpisodeRecord, FileRecord } from './dataset-manifest.ts';
 
 export interface EpisodeCompletion {
   record: EpisodeRecord;

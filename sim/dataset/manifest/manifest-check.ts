@@ -1,9 +1,10 @@
 // Checks a parsed manifest.json against MANIFEST_SCHEMA and words each failure with the JSON
 // pointer of the offending member, so `pliant verify` can say exactly what is wrong.
-import Ajv2020 from 'ajv/dist/2020.js';
 import type { ErrorObject, ValidateFunction } from 'ajv';
-import { MANIFEST_SCHEMA } from './manifest-schema.ts';
+import Ajv2020 from 'ajv/dist/2020.js';
+
 import type { DatasetManifest } from './dataset-manifest.ts';
+import { MANIFEST_SCHEMA } from './manifest-schema.ts';
 
 let ajv: Ajv2020 | undefined;
 

@@ -7,17 +7,18 @@
 //
 // The format is unchanged: this reads exactly what dataset-finish.ts writes (and any other
 // layout of the same JSON). `readFolderState` stays for the small readers of ordinary folders.
-import { Sha256Stream } from '../formats/file-digest.ts';
-import { EPISODE_RECORDS_DIGEST_MEMBER } from './episode-records-digest.ts';
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import { join } from 'node:path';
+
+import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { Sha256Stream } from '../formats/file-digest.ts';
+import type { JsonPath } from '../formats/json-stream-scanner.ts';
+import { JsonStreamError, scanJsonStream } from '../formats/json-stream-scanner.ts';
+import { systemErrorCode } from '../formats/read-file-bytes.ts';
 import { MANIFEST_FILE } from './dataset-files.ts';
 import type { ArrayRecord, DataFileRecord, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead } from './dataset-manifest.ts';
+import { EPISODE_RECORDS_DIGEST_MEMBER } from './episode-records-digest.ts';
 import { manifestPieceProblems } from './manifest-check.ts';
-import { JsonStreamError, scanJsonStream } from '../formats/json-stream-scanner.ts';
-import type { JsonPath } from '../formats/json-stream-scanner.ts';
-import { DatasetReadError } from '../formats/dataset-read-error.ts';
-import { systemErrorCode } from '../formats/read-file-bytes.ts';
 
 /** A file record as streamed: lists longer than KEPT_LIST_ITEMS are given item by item only (null here). */
 export interface StreamedFileRecord extends FileRecord {

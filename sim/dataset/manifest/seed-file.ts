@@ -4,8 +4,8 @@
 // scenario replays, copied beside it with their SHA-256.
 import { checkScenarioValue } from '../../scenario/check-scenario.ts';
 import { SEED_COMPRESSION_BEFORE_CHOICE } from '../../scenario/export-compression.ts';
-import type { Scenario } from '../../scenario/scenario-types.ts';
 import { formatProblems } from '../../scenario/scenario-problem.ts';
+import type { Scenario } from '../../scenario/scenario-types.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 
 export const SEED_FORMAT_VERSION = 1;

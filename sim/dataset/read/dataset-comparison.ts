@@ -7,12 +7,13 @@
 // little memory.
 import { readdir, stat } from 'node:fs/promises';
 import { join } from 'node:path';
-import { MANIFEST_FILE, WORK_FOLDER } from '../manifest/dataset-files.ts';
-import { manifestDigestWithoutRun, readManifestStream } from '../manifest/manifest-stream.ts';
+
 import { DatasetReadError } from '../formats/dataset-read-error.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { digestFile } from '../formats/file-digest.ts';
 import type { FileDigest } from '../formats/file-digest.ts';
+import { digestFile } from '../formats/file-digest.ts';
+import { MANIFEST_FILE, WORK_FOLDER } from '../manifest/dataset-files.ts';
+import { manifestDigestWithoutRun, readManifestStream } from '../manifest/manifest-stream.ts';
 
 export type FileComparisonResult =
   | 'identical'

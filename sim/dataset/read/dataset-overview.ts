@@ -3,9 +3,10 @@
 // can carry its unit) and the folder's size in bytes as the manifest accounts for it.
 import { stat } from 'node:fs/promises';
 import { join } from 'node:path';
+
+import type { ControlChannelInfo } from '../../systems/control-channel.ts';
 import { MANIFEST_FILE } from '../manifest/dataset-files.ts';
 import type { DatasetManifest } from '../manifest/dataset-manifest.ts';
-import type { ControlChannelInfo } from '../../systems/control-channel.ts';
 
 export interface DatasetOverview {
   /** The first episode's channels; every episode of one scenario builds the same ones unless `controlChannelsVary`. */

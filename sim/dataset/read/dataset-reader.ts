@@ -5,17 +5,18 @@
 // so paging through a large dataset parses and checks it once.
 import { readFile, stat } from 'node:fs/promises';
 import { basename, join } from 'node:path';
+
+import { containedPath } from '../formats/contained-path.ts';
+import { DatasetNotFoundError } from '../formats/dataset-not-found-error.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { say } from '../formats/run-words.ts';
 import { CARD_FILE, MANIFEST_FILE, SEED_FILE } from '../manifest/dataset-files.ts';
 import { readFolderState } from '../manifest/dataset-folder-state.ts';
 import type { ArrayRecord, DatasetManifest, StoredDtype } from '../manifest/dataset-manifest.ts';
-import { DatasetNotFoundError } from '../formats/dataset-not-found-error.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { containedPath } from '../formats/contained-path.ts';
-import { readEpisodeArrays } from './episode-array-reader.ts';
 import type { EpisodeArraysRead } from './episode-array-reader.ts';
-import { EpisodeListing } from './episode-listing.ts';
+import { readEpisodeArrays } from './episode-array-reader.ts';
 import type { EpisodeListPage, EpisodeListQuery } from './episode-listing.ts';
-import { say } from '../formats/run-words.ts';
+import { EpisodeListing } from './episode-listing.ts';
 
 export interface ArraySummary {
   name: string;

@@ -5,14 +5,15 @@
 // shown as if it were the episode.
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
+
+import { containedPath } from '../formats/contained-path.ts';
 import { DatasetNotFoundError } from '../formats/dataset-not-found-error.ts';
 import { DatasetReadError } from '../formats/dataset-read-error.ts';
-import type { ArrayRecord, DataFileRecord, DatasetManifest, EpisodeRecord } from '../manifest/dataset-manifest.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
 import { readHdf5GroupArrays } from '../formats/hdf5-group-reader.ts';
 import type { NamedArray } from '../formats/named-array.ts';
 import { decodeNpz } from '../formats/npz.ts';
-import { sha256Hex } from '../formats/file-digest.ts';
-import { containedPath } from '../formats/contained-path.ts';
+import type { ArrayRecord, DataFileRecord, DatasetManifest, EpisodeRecord } from '../manifest/dataset-manifest.ts';
 
 export interface EpisodeArraysRead {
   episode: EpisodeRecord;

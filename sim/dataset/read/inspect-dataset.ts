@@ -2,17 +2,18 @@
 // every sampled parameter, the space the files take and the episodes that were rejected. Works
 // on unfinished folders too, from their completion records. The manifest is read as a stream,
 // one record at a time, so its size does not matter.
-import { readFile, readdir, stat } from 'node:fs/promises';
+import { readdir, readFile, stat } from 'node:fs/promises';
 import { join } from 'node:path';
+
+import { formatLabelNumber } from '../card/text-histogram.ts';
+import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { readTextIfPresent } from '../formats/text-file.ts';
+import { MANIFEST_FILE, SEED_FILE, WORK_DONE_FOLDER, WORK_FOLDER } from '../manifest/dataset-files.ts';
 import type { EpisodeRecord, ManifestHead } from '../manifest/dataset-manifest.ts';
 import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
-import { MANIFEST_FILE, SEED_FILE, WORK_DONE_FOLDER, WORK_FOLDER } from '../manifest/dataset-files.ts';
-import { readManifestStream } from '../manifest/manifest-stream.ts';
-import { DatasetReadError } from '../formats/dataset-read-error.ts';
-import { readTextIfPresent } from '../formats/text-file.ts';
-import { formatLabelNumber } from '../card/text-histogram.ts';
 import { unitOfLabel } from '../manifest/label-units.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { readManifestStream } from '../manifest/manifest-stream.ts';
 
 export interface DatasetInspection {
   dir: string;

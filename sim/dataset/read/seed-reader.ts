@@ -4,12 +4,13 @@
 // its SHA-256. The seed file is checked exactly as `pliant reproduce` checks it.
 import { readFile, stat } from 'node:fs/promises';
 import { dirname } from 'node:path';
-import { readFolderState } from '../manifest/dataset-folder-state.ts';
-import { SEED_FILE } from '../manifest/dataset-files.ts';
+
 import { DatasetNotFoundError } from '../formats/dataset-not-found-error.ts';
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { parseSeedFile } from '../manifest/seed-file.ts';
 import { sha256Hex } from '../formats/file-digest.ts';
+import { SEED_FILE } from '../manifest/dataset-files.ts';
+import { readFolderState } from '../manifest/dataset-folder-state.ts';
+import { parseSeedFile } from '../manifest/seed-file.ts';
 
 export interface SeedSummaryRead {
   path: string;

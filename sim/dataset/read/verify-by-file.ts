@@ -1,8 +1,8 @@
 // `pliant verify`'s check of a dataset folder with each problem put beside the file it is about,
 // for the app's screens, which mark files one by one. The checking itself is verifyDataset's,
 // unchanged: the app and the command line can never disagree about whether a folder is good.
-import { verifyDataset } from './verify-dataset.ts';
 import type { VerifyFinding } from './verify-dataset.ts';
+import { verifyDataset } from './verify-dataset.ts';
 
 export type FileProblem = VerifyFinding;
 

@@ -9,15 +9,16 @@
 // episodes were seen, their status and split, and which of their files are listed).
 import { readdir, stat } from 'node:fs/promises';
 import { join } from 'node:path';
-import { LOCK_FILE, MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeNpzPath, splitHdf5Path } from '../manifest/dataset-files.ts';
-import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from '../manifest/episode-records-digest.ts';
-import { describeUnhashed, digestFile } from '../formats/file-digest.ts';
-import type { FileRecord, ManifestHead } from '../manifest/dataset-manifest.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { DatasetReadError } from '../formats/dataset-read-error.ts';
-import { readManifestStream } from '../manifest/manifest-stream.ts';
+
 import { containedPathSync } from '../formats/contained-path.ts';
+import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { describeUnhashed, digestFile } from '../formats/file-digest.ts';
 import { say } from '../formats/run-words.ts';
+import { episodeNpzPath, LOCK_FILE, MANIFEST_FILE, SEED_FILE, splitHdf5Path,WORK_FOLDER } from '../manifest/dataset-files.ts';
+import type { FileRecord, ManifestHead } from '../manifest/dataset-manifest.ts';
+import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from '../manifest/episode-records-digest.ts';
+import { readManifestStream } from '../manifest/manifest-stream.ts';
 
 export interface VerifyFinding {
   /** Path relative to the dataset folder; "" when the problem is about the folder as a whole. */

@@ -4,12 +4,13 @@
 // A file whose folder (episodes/, card/, …) is a link leading out of the dataset folder is
 // refused before anything is written (contained-path.ts).
 import { mkdirSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { dirname } from 'node:path';
+
 import { writeFileAtomic, writeFileAtomicStreamed } from '../formats/atomic-file.ts';
-import { Sha256Stream, sha256Hex } from '../formats/file-digest.ts';
-import type { FileRecord } from '../manifest/dataset-manifest.ts';
-import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
 import { containedPathSync } from '../formats/contained-path.ts';
+import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
+import { sha256Hex,Sha256Stream } from '../formats/file-digest.ts';
+import type { FileRecord } from '../manifest/dataset-manifest.ts';
 
 export function ensureFolder(path: string): void {
   try {

@@ -10,35 +10,36 @@
 // file is written one episode group at a time, and manifest.json is written member by member.
 // What is kept for the whole sweep is a few numbers per episode (split positions and the
 // scalar labels the card's histograms need).
-import { say } from '../formats/run-words.ts';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
-import { NORMALISED_ARRAYS } from '../manifest/dataset-manifest.ts';
-import type { ArrayLayout, ColumnStatistics, DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead, NormalisedArrayName } from '../manifest/dataset-manifest.ts';
-import { combineMoments } from '../manifest/column-moments.ts';
-import type { ColumnMoments } from '../manifest/column-moments.ts';
-import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
-import { describeArray } from '../manifest/episode-array-catalogue.ts';
-import { renderDatasetCard } from '../card/dataset-card.ts';
-import { CardTally } from '../card/card-tally.ts';
-import { CARD_FILE, CARD_PICTURES_FOLDER, MANIFEST_FILE, WORK_FOLDER, splitHdf5Path } from '../manifest/dataset-files.ts';
-import { renderCardPictures } from '../card/card-pictures.ts';
-import { SHEET_EPISODES, sheetEpisode } from '../card/card-contact-sheet.ts';
-import type { SheetEpisode } from '../card/card-contact-sheet.ts';
-import { writeDatasetFile, writeDatasetTextStreamed } from './dataset-file-writer.ts';
-import { decodeNpz } from '../formats/npz.ts';
-import { writeSplitHdf5 } from './split-hdf5.ts';
-import type { SplitEpisode } from './split-hdf5.ts';
-import { digestFile } from '../formats/file-digest.ts';
-import { DatasetReadError } from '../formats/dataset-read-error.ts';
-import type { SeedFile } from '../manifest/seed-file.ts';
-import type { ShardPlan } from './shard-plan.ts';
-import type { GenerationListener } from './generation-progress.ts';
-import { readFileBytes } from '../formats/read-file-bytes.ts';
-import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
-import { StreamedList, writeStreamedJson } from '../formats/streamed-json.ts';
-import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from '../manifest/episode-records-digest.ts';
+
 import { COMPRESSION_LEVELS } from '../../scenario/export-compression.ts';
+import type { SheetEpisode } from '../card/card-contact-sheet.ts';
+import { SHEET_EPISODES, sheetEpisode } from '../card/card-contact-sheet.ts';
+import { renderCardPictures } from '../card/card-pictures.ts';
+import { CardTally } from '../card/card-tally.ts';
+import { renderDatasetCard } from '../card/dataset-card.ts';
+import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
+import { digestFile } from '../formats/file-digest.ts';
+import { decodeNpz } from '../formats/npz.ts';
+import { readFileBytes } from '../formats/read-file-bytes.ts';
+import { say } from '../formats/run-words.ts';
+import { StreamedList, writeStreamedJson } from '../formats/streamed-json.ts';
+import type { ColumnMoments } from '../manifest/column-moments.ts';
+import { combineMoments } from '../manifest/column-moments.ts';
+import { CARD_FILE, CARD_PICTURES_FOLDER, MANIFEST_FILE, splitHdf5Path,WORK_FOLDER } from '../manifest/dataset-files.ts';
+import type { ArrayLayout, ColumnStatistics, DataFileRecord, DatasetManifest, EpisodeRecord, FileRecord, InputFileRecord, ManifestHead, NormalisedArrayName } from '../manifest/dataset-manifest.ts';
+import { NORMALISED_ARRAYS } from '../manifest/dataset-manifest.ts';
+import { describeArray } from '../manifest/episode-array-catalogue.ts';
+import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
+import { EPISODE_RECORDS_DIGEST_MEMBER, EpisodeRecordsDigest } from '../manifest/episode-records-digest.ts';
+import type { SeedFile } from '../manifest/seed-file.ts';
+import { writeDatasetFile, writeDatasetTextStreamed } from './dataset-file-writer.ts';
+import type { GenerationListener } from './generation-progress.ts';
+import type { ShardPlan } from './shard-plan.ts';
+import type { SplitEpisode } from './split-hdf5.ts';
+import { writeSplitHdf5 } from './split-hdf5.ts';
 
 /** The episodes of the folder being finished, ascending by index, handed out one at a time. */
 export interface CompletionSource {

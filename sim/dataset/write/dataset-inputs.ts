@@ -5,15 +5,16 @@
 // read instead, and their SHA-256 must match what the seed file recorded.
 import { readFile } from 'node:fs/promises';
 import { basename, isAbsolute, join, resolve } from 'node:path';
-import type { Scenario } from '../../scenario/scenario-types.ts';
-import { readNpyTable } from './npy-table.ts';
-import { ReplayTable, replayFilesOf } from './replay-inputs.ts';
-import type { ReplayData } from './replay-inputs.ts';
-import type { SeedInput } from '../manifest/seed-file.ts';
-import { INPUTS_FOLDER } from '../manifest/dataset-files.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+
 import { ScenarioProblemError } from '../../scenario/scenario-problem.ts';
+import type { Scenario } from '../../scenario/scenario-types.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { sha256Hex } from '../formats/file-digest.ts';
+import { INPUTS_FOLDER } from '../manifest/dataset-files.ts';
+import type { SeedInput } from '../manifest/seed-file.ts';
+import { readNpyTable } from './npy-table.ts';
+import type { ReplayData } from './replay-inputs.ts';
+import { replayFilesOf,ReplayTable } from './replay-inputs.ts';
 
 export interface GatheredInputs {
   table: ReplayTable;

@@ -2,14 +2,14 @@
 // an episode file stores, in the order and with the dtypes of the catalogue. Floating-point
 // arrays are narrowed to float32 unless float64 was asked for; narrowing rounds to nearest, so
 // it is the same on every machine.
-import type { RecordedTrajectory } from '../../episode/record-episode.ts';
 import type { ObservedTrajectory } from '../../episode/observe-trajectory.ts';
+import type { RecordedTrajectory } from '../../episode/record-episode.ts';
 import type { GraphLabels } from '../../systems/graph-labels.ts';
 import { NODE_FEATURE_NAMES } from '../../systems/graph-labels.ts';
+import type { NamedArray } from '../formats/named-array.ts';
+import { namedArray } from '../formats/named-array.ts';
 import type { ExportDtype } from '../manifest/dataset-manifest.ts';
 import { EPISODE_ARRAYS } from '../manifest/episode-array-catalogue.ts';
-import { namedArray } from '../formats/named-array.ts';
-import type { NamedArray } from '../formats/named-array.ts';
 
 type StoredArrayData = Float32Array | Float64Array | Int32Array | Uint8Array | Int16Array;
 

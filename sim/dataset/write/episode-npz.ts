@@ -2,8 +2,8 @@
 // stands for (sim/scenario/export-compression.ts). The writer's output depends only on the
 // arrays and that level, so an episode gives the same bytes on every machine and every thread.
 import { COMPRESSION_LEVELS, type ExportCompression } from '../../scenario/export-compression.ts';
-import { encodeNpz } from '../formats/npz.ts';
 import type { NamedArray } from '../formats/named-array.ts';
+import { encodeNpz } from '../formats/npz.ts';
 
 export function encodeEpisodeNpz(arrays: readonly NamedArray[], compression: ExportCompression): Uint8Array {
   const level = COMPRESSION_LEVELS[compression].npzDeflateLevel;

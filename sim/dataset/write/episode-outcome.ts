@@ -1,12 +1,12 @@
 // One finished episode as the writer receives it: its manifest record, the layout of its arrays
 // and the bytes of its NPZ file, ready to be written. Computing it is the whole cost of an
 // episode (simulation and compression), so this is what worker threads do.
+import type { StepKernel } from '../../core/step-kernel-choice.ts';
 import type { Scenario } from '../../scenario/scenario-types.ts';
 import type { ArrayLayout, EpisodeRecord, ExportDtype, StoredDtype } from '../manifest/dataset-manifest.ts';
-import { produceEpisode } from './episode-product.ts';
 import { encodeEpisodeNpz } from './episode-npz.ts';
+import { produceEpisode } from './episode-product.ts';
 import type { ReplayTable } from './replay-inputs.ts';
-import type { StepKernel } from '../../core/step-kernel-choice.ts';
 
 export interface EpisodeOutcome {
   record: EpisodeRecord;

@@ -1,17 +1,18 @@
 // Computes a list of episodes on W worker threads (or in this thread when W is 1) and hands each
 // finished outcome to the writer one at a time. Workers take the next index as soon as they are
 // free, so the order outcomes arrive in varies; nothing written depends on that order.
-import { PliantError } from '../../errors/pliant-error.ts';
 import { Worker } from 'node:worker_threads';
+
+import { type ErrorReport,ReportedError } from '../../errors/error-report.ts';
+import { PliantError } from '../../errors/pliant-error.ts';
 import type { Scenario } from '../../scenario/scenario-types.ts';
 import type { ExportDtype } from '../manifest/dataset-manifest.ts';
-import { computeEpisodeOutcome } from './episode-outcome.ts';
 import type { EpisodeOutcome } from './episode-outcome.ts';
+import { computeEpisodeOutcome } from './episode-outcome.ts';
 import { EPISODE_BUILD_ERROR_CODE, EpisodeBuildError } from './episode-product.ts';
-import { ReportedError, type ErrorReport } from '../../errors/error-report.ts';
-import type { ReplayTable } from './replay-inputs.ts';
 import type { FromEpisodeWorker, ToEpisodeWorker } from './episode-worker-messages.ts';
 import { episodeWorkerUrl } from './episode-worker-source.ts';
+import type { ReplayTable } from './replay-inputs.ts';
 
 export interface PoolRequest {
   scenario: Scenario;

@@ -2,23 +2,23 @@
 // returns either its arrays and manifest record, or a record saying why it was rejected. The
 // same function runs in the main thread and in worker threads, so where an episode is computed
 // can never change what is written.
-import { PliantError } from '../../errors/pliant-error.ts';
-import { sampleEpisode } from '../../scenario/sample-episode.ts';
-import { observeEpisode } from '../../scenario/observe-episode.ts';
-import type { Scenario } from '../../scenario/scenario-types.ts';
+import { likelyCause,SimulationBlowUpError } from '../../core/simulation-error.ts';
+import type { StepKernel } from '../../core/step-kernel-choice.ts';
 import { recordTrajectory, resolveSubsteps } from '../../episode/record-episode.ts';
 import { richardsonEstimate, startStateOf } from '../../episode/richardson-estimate.ts';
-import { numericsLabels } from './numerics-labels.ts';
-import { SimulationBlowUpError, likelyCause } from '../../core/simulation-error.ts';
+import { PliantError } from '../../errors/pliant-error.ts';
+import { observeEpisode } from '../../scenario/observe-episode.ts';
+import { sampleEpisode } from '../../scenario/sample-episode.ts';
+import type { Scenario } from '../../scenario/scenario-types.ts';
 import { graphLabels } from '../../systems/graph-labels.ts';
-import { NORMALISED_ARRAYS } from '../manifest/dataset-manifest.ts';
-import type { EpisodeRecord, EpisodeRejection, ExportDtype } from '../manifest/dataset-manifest.ts';
 import { columnMoments } from '../manifest/column-moments.ts';
-import { episodeArrays } from './episode-arrays.ts';
-import type { EpisodeArray } from './episode-arrays.ts';
 import { episodeId } from '../manifest/dataset-files.ts';
+import type { EpisodeRecord, EpisodeRejection, ExportDtype } from '../manifest/dataset-manifest.ts';
+import { NORMALISED_ARRAYS } from '../manifest/dataset-manifest.ts';
+import type { EpisodeArray } from './episode-arrays.ts';
+import { episodeArrays } from './episode-arrays.ts';
+import { numericsLabels } from './numerics-labels.ts';
 import type { ReplayTable } from './replay-inputs.ts';
-import type { StepKernel } from '../../core/step-kernel-choice.ts';
 
 export interface EpisodeProduct {
   record: EpisodeRecord;

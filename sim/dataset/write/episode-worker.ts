@@ -2,13 +2,14 @@
 // episode indices, and answers each with the finished outcome (NPZ bytes transferred, not
 // copied). It runs exactly the code the main thread would, so results never depend on it.
 import { parentPort, workerData } from 'node:worker_threads';
+
+import { reportOf } from '../../errors/error-report.ts';
 import type { Scenario } from '../../scenario/scenario-types.ts';
 import type { ExportDtype } from '../manifest/dataset-manifest.ts';
-import { reportOf } from '../../errors/error-report.ts';
 import { computeEpisodeOutcome } from './episode-outcome.ts';
-import { ReplayTable } from './replay-inputs.ts';
-import type { ReplayData } from './replay-inputs.ts';
 import type { FromEpisodeWorker, ToEpisodeWorker } from './episode-worker-messages.ts';
+import type { ReplayData } from './replay-inputs.ts';
+import { ReplayTable } from './replay-inputs.ts';
 
 interface EpisodeWorkerData {
   scenario: Scenario;

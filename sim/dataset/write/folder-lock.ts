@@ -9,10 +9,11 @@
 import { closeSync, openSync, readFileSync, rmSync, writeSync } from 'node:fs';
 import { hostname } from 'node:os';
 import { join } from 'node:path';
-import { LOCK_FILE } from '../manifest/dataset-files.ts';
+
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
 import { systemErrorCode } from '../formats/read-file-bytes.ts';
+import { LOCK_FILE } from '../manifest/dataset-files.ts';
 
 export interface LockHolder {
   pid: number;

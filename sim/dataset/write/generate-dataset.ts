@@ -6,17 +6,25 @@
 // finishing step reads them back one at a time, so memory does not grow with the sweep.
 import { readdirSync, rmSync } from 'node:fs';
 import { readdir, rm, stat } from 'node:fs/promises';
-import { isTemporaryName } from '../formats/atomic-file.ts';
-import { containedPathSync } from '../formats/contained-path.ts';
-import { say } from '../formats/run-words.ts';
-import { planShard } from '../manifest/completion-check.ts';
-import { DatasetReadError } from '../formats/dataset-read-error.ts';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import type { Scenario } from '../../scenario/scenario-types.ts';
+import { isTemporaryName } from '../formats/atomic-file.ts';
+import { containedPathSync } from '../formats/contained-path.ts';
+import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
+import { say } from '../formats/run-words.ts';
+import { readTextIfPresent } from '../formats/text-file.ts';
+import { planShard } from '../manifest/completion-check.ts';
 import {
   CARD_FILE,
   CARD_PICTURES_FOLDER,
+  episodeDonePath,
+  episodeId,
+  episodeNpzPath,
+  episodePartPath,
   EPISODES_FOLDER,
   INPUTS_FOLDER,
   LOCK_FILE,
@@ -26,30 +34,23 @@ import {
   WORK_FOLDER,
   WORK_PARTS_FOLDER,
   WORK_PLAN_FILE,
-  episodeDonePath,
-  episodeId,
-  episodeNpzPath,
-  episodePartPath,
 } from '../manifest/dataset-files.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
+import { isUsableSplitName } from '../manifest/dataset-files.ts';
+import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
+import { readCompletion, readTrustedCompletion, renderCompletion } from '../manifest/episode-completion.ts';
+import { readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
+import { makeSeedFile, renderSeedFile } from '../manifest/seed-file.ts';
 import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
 import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
-import { readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
-import { readCompletion, readTrustedCompletion, renderCompletion } from '../manifest/episode-completion.ts';
-import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
+import type { InputSource } from './dataset-inputs.ts';
+import { gatherInputs } from './dataset-inputs.ts';
 import type { EpisodeOutcome } from './episode-outcome.ts';
 import { computeEpisodes } from './episode-pool.ts';
-import { gatherInputs } from './dataset-inputs.ts';
-import type { InputSource } from './dataset-inputs.ts';
-import type { GenerationListener } from './generation-progress.ts';
-import { makeSeedFile, renderSeedFile } from '../manifest/seed-file.ts';
-import { shardEpisodes } from './shard-plan.ts';
 import { lockFolder } from './folder-lock.ts';
+import type { GenerationListener } from './generation-progress.ts';
+import { rejectedEpisodeLimit, RejectionLimitError, rejectionLimitMessage } from './rejection-limit.ts';
 import type { ShardPlan } from './shard-plan.ts';
-import { readTextIfPresent } from '../formats/text-file.ts';
-import { isUsableSplitName } from '../manifest/dataset-files.ts';
-import { RejectionLimitError, rejectedEpisodeLimit, rejectionLimitMessage } from './rejection-limit.ts';
+import { shardEpisodes } from './shard-plan.ts';
 
 export interface GenerateRequest {
   /** Checked scenario, with command-line overrides already applied. */

@@ -7,22 +7,23 @@
 import { readdir, rm, stat } from 'node:fs/promises';
 import { hostname } from 'node:os';
 import { join, resolve } from 'node:path';
+
 import { DatasetRequestError } from '../formats/dataset-request-error.ts';
-import { readFileBytes } from '../formats/read-file-bytes.ts';
-import { parseSeedFile } from '../manifest/seed-file.ts';
-import { LOCK_FILE, MANIFEST_FILE, SEED_FILE, WORK_FOLDER, episodeDonePath, episodeId, episodeNpzPath, episodePartPath } from '../manifest/dataset-files.ts';
-import type { EpisodeRecord, ManifestHead } from '../manifest/dataset-manifest.ts';
-import { readCompletion, renderCompletion } from '../manifest/episode-completion.ts';
-import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
-import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
-import { readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
-import type { ManifestEvent, StreamedFileRecord } from '../manifest/manifest-stream.ts';
-import { readTextIfPresent } from '../formats/text-file.ts';
-import { folderOverlap } from './folder-overlap.ts';
-import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
-import { lockFolder } from './folder-lock.ts';
-import { checkFileRecord } from '../read/verify-dataset.ts';
 import { sha256Hex } from '../formats/file-digest.ts';
+import { readFileBytes } from '../formats/read-file-bytes.ts';
+import { readTextIfPresent } from '../formats/text-file.ts';
+import { episodeDonePath, episodeId, episodeNpzPath, episodePartPath,LOCK_FILE, MANIFEST_FILE, SEED_FILE, WORK_FOLDER } from '../manifest/dataset-files.ts';
+import type { EpisodeRecord, ManifestHead } from '../manifest/dataset-manifest.ts';
+import type { EpisodeCompletion } from '../manifest/episode-completion.ts';
+import { readCompletion, renderCompletion } from '../manifest/episode-completion.ts';
+import type { ManifestEvent, StreamedFileRecord } from '../manifest/manifest-stream.ts';
+import { readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
+import { parseSeedFile } from '../manifest/seed-file.ts';
+import { checkFileRecord } from '../read/verify-dataset.ts';
+import { ensureFolder, writeDatasetFile } from './dataset-file-writer.ts';
+import { finishDataset, keepsEpisodeNpz } from './dataset-finish.ts';
+import { lockFolder } from './folder-lock.ts';
+import { folderOverlap } from './folder-overlap.ts';
 import type { GenerationListener } from './generation-progress.ts';
 
 export interface MergeRequest {

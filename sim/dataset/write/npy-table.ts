@@ -1,8 +1,8 @@
 // Reads a replayed control table from .npy bytes: a 1-D array is one column, a 2-D array is
 // rows × columns; every numeric dtype becomes float64, the unit the control signals use.
+import { DatasetReadError } from '../formats/dataset-read-error.ts';
 import { decodeNpy } from '../formats/npy.ts';
 import type { ReplayData } from './replay-inputs.ts';
-import { DatasetReadError } from '../formats/dataset-read-error.ts';
 
 export function readNpyTable(bytes: Uint8Array, path: string): ReplayData {
   const array = decodeNpy(bytes, path);

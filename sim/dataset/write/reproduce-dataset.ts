@@ -2,18 +2,19 @@
 // (bytes, by SHA-256): the proof that a dataset is what its seed file says it is.
 import { stat } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
-import { parseSeedFile } from '../manifest/seed-file.ts';
-import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+
 import { MiB, readBoundedText } from '../formats/bounded-text-file.ts';
-import { generateDataset } from './generate-dataset.ts';
-import type { GenerateResult } from './generate-dataset.ts';
-import type { GenerationListener } from './generation-progress.ts';
-import { MANIFEST_FILE, SEED_FILE } from '../manifest/dataset-files.ts';
-import { sha256Hex } from '../formats/file-digest.ts';
 import { DatasetReadError } from '../formats/dataset-read-error.ts';
+import { DatasetRequestError } from '../formats/dataset-request-error.ts';
+import { sha256Hex } from '../formats/file-digest.ts';
+import { MANIFEST_FILE, SEED_FILE } from '../manifest/dataset-files.ts';
 import { readManifestHead, readManifestStream } from '../manifest/manifest-stream.ts';
-import { compareDatasetFolders } from '../read/dataset-comparison.ts';
+import { parseSeedFile } from '../manifest/seed-file.ts';
 import type { FileComparison } from '../read/dataset-comparison.ts';
+import { compareDatasetFolders } from '../read/dataset-comparison.ts';
+import type { GenerateResult } from './generate-dataset.ts';
+import { generateDataset } from './generate-dataset.ts';
+import type { GenerationListener } from './generation-progress.ts';
 
 /** A seed file holds the resolved scenario and the run's settings, never the episodes. */
 const MAX_SEED_FILE_BYTES = 64 * MiB;

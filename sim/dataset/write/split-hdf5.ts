@@ -5,12 +5,12 @@
 // the episodes' NPZ bytes after all of them exist, so the file never depends on the order in
 // which episodes finished, on the worker count or on sharding. Episodes are read and written
 // one at a time, so a split of any size needs the memory of one episode, not of the split.
-import { writeHdf5FileStreamed } from '../formats/hdf5-writer.ts';
+import { COMPRESSION_LEVELS, type ExportCompression } from '../../scenario/export-compression.ts';
+import type { LabelValue } from '../../scenario/sampled-episode.ts';
 import type { Hdf5Group } from '../formats/hdf5-writer.ts';
+import { writeHdf5FileStreamed } from '../formats/hdf5-writer.ts';
 import type { NamedArray } from '../formats/named-array.ts';
 import { describeArray } from '../manifest/episode-array-catalogue.ts';
-import type { LabelValue } from '../../scenario/sampled-episode.ts';
-import { COMPRESSION_LEVELS, type ExportCompression } from '../../scenario/export-compression.ts';
 
 export interface SplitEpisode {
   id: string;

@@ -1,12 +1,13 @@
 // Reads and writes baseline model files. Writing is atomic; reading checks the file against
 // BASELINE_MODEL_SCHEMA and that every linear operator has the size its layout implies, and
 // words each failure with the file and JSON pointer.
-import Ajv2020 from 'ajv/dist/2020.js';
 import type { ValidateFunction } from 'ajv';
+import Ajv2020 from 'ajv/dist/2020.js';
+
 import { writeFileAtomic } from '../../dataset/formats/atomic-file.ts';
-import { BaselineInputError } from './baseline-input-error.ts';
 import { MiB, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import { BaselineInputError } from './baseline-input-error.ts';
 
 /** Below V8's longest string (about 512 MiB), so an oversized file is refused, not a crash. */
 const MAX_MODEL_FILE_BYTES = 256 * MiB;

@@ -7,7 +7,7 @@ import { readFolderState } from '../../dataset/manifest/dataset-folder-state.ts'
 import type { DatasetManifest, EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { readEpisodeArrays } from '../../dataset/read/episode-array-reader.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
-import { trajectoryFromArrays, type EpisodeTrajectory } from './episode-trajectory.ts';
+import { type EpisodeTrajectory,trajectoryFromArrays } from './episode-trajectory.ts';
 
 export interface OpenDataset {
   dir: string;

@@ -4,7 +4,7 @@
 import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import type { GreyBoxModelPart, ParameterSummary } from './baseline-model.ts';
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
-import { identifyEpisode, type EpisodeIdentification } from './grey-box-identify.ts';
+import { type EpisodeIdentification,identifyEpisode } from './grey-box-identify.ts';
 
 /** ω_max·Δt above which the one-interval regression is no longer a fair picture of the force. */
 const COARSE_RECORDING = 0.1;

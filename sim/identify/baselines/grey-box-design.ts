@@ -14,7 +14,7 @@
 // Rows are left out where the law above does not hold: pinned, driven and handle nodes (their
 // motion or force is prescribed), nodes on a spring an actuator may stretch, and nodes near the
 // ground plane in that interval (the contact projection changes their velocity).
-import { NODE_FEATURE_COUNT, type EpisodeTrajectory } from './episode-trajectory.ts';
+import { type EpisodeTrajectory,NODE_FEATURE_COUNT } from './episode-trajectory.ts';
 import type { GreyBoxStructure } from './grey-box-structure.ts';
 
 export type GreyBoxTerm = 'stiffness' | 'damping' | 'gravity' | 'air-drag' | 'fluid-normal' | 'fluid-tangential';

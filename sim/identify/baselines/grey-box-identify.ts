@@ -1,12 +1,12 @@
 // Grey-box identification of one episode: builds the regression of grey-box-design.ts, solves
 // it and sets each estimate beside the true value the dataset recorded (edge labels, the
 // episode's sampled labels and its scenario), with absolute and relative errors.
-import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { RELATION_NAMES } from '../../core/model.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
 import { buildGreyBoxDesign, type GreyBoxColumn, type GreyBoxDesign } from './grey-box-design.ts';
 import { solveLeastSquares } from './grey-box-solve.ts';
-import { episodeNumber, structureOf, type GreyBoxStructure } from './grey-box-structure.ts';
+import { episodeNumber, type GreyBoxStructure,structureOf } from './grey-box-structure.ts';
 
 export interface IdentifiedParameter {
   /** "stiffness.structural", "damping.second-neighbour", "gravity.y", "air-drag", "fluid-normal", … */

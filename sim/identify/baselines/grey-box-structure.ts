@@ -3,8 +3,8 @@
 // velocity. On Pliant's own data it comes from the episode's resolved scenario and labels;
 // the force laws themselves are those of sim/core (body-forces.ts, spring-forces.ts,
 // fluid-drag.ts, ground-contact.ts). The unknown coefficients are estimated, never read here.
-import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { valueAtPointer } from '../../dataset/formats/json-pointer-lookup.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import { BaselineInputError } from './baseline-input-error.ts';
 
 export interface GreyBoxStructure {

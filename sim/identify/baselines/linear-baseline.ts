@@ -1,13 +1,13 @@
 // The linear baseline over a dataset: episodes grouped by state size (node and channel count,
 // which fix the size of the operator), one operator fitted per group on its fit-split episodes.
 import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
+import { BaselineInputError } from './baseline-input-error.ts';
 import type { LinearGroup, LinearModelPart } from './baseline-model.ts';
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
 import { fitLinearOperator } from './linear-fit.ts';
 import { buildSnapshots, snapshotCount } from './linear-snapshots.ts';
 import type { LinearLayout, LinearStateForm } from './linear-state.ts';
-import { rankChoiceText, type RankChoice } from './rank-rule.ts';
-import { BaselineInputError } from './baseline-input-error.ts';
+import { type RankChoice,rankChoiceText } from './rank-rule.ts';
 
 export interface LinearOptions {
   delays: number;

@@ -5,8 +5,9 @@
 // Gᵀ = V_r Σ_r⁻¹ U_rᵀ Z'ᵀ, the minimum-norm least-squares solution on the kept subspace.
 // The decompositions (SVD, eigenvalues for the "stable" rule) are ml-matrix's.
 import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
-import { chooseRank, numericalRankTolerance, type RankChoice } from './rank-rule.ts';
+
 import type { SnapshotMatrices } from './linear-snapshots.ts';
+import { chooseRank, numericalRankTolerance, type RankChoice } from './rank-rule.ts';
 
 export interface LinearOperatorFit {
   /** n × p, row-major. */

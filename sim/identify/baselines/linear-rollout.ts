@@ -1,8 +1,8 @@
 // Open-loop rollout of a fitted linear operator: from the recorded initial state and the
 // recorded controls only, z_{t+1} = G·ω_t step after step, each prediction feeding the next.
 // Delay rows before the start are z_0 (see linear-state.ts). Buffers are allocated once.
+import { type LinearLayout,snapshotSize, stateSize, writeSnapshot } from './linear-state.ts';
 import type { RolloutStart } from './rollout-start.ts';
-import { snapshotSize, stateSize, writeSnapshot, type LinearLayout } from './linear-state.ts';
 
 export function linearRollout(
   layout: LinearLayout,

@@ -4,7 +4,7 @@
 // columns ω_t, Z'ᵀ the next states z_{t+1}. Steps before t = K (K delays) have no full delay
 // history in the recording and are left out of the fit.
 import type { EpisodeTrajectory } from './episode-trajectory.ts';
-import { snapshotSize, stateSize, writeSnapshot, writeState, type LinearLayout } from './linear-state.ts';
+import { type LinearLayout,snapshotSize, stateSize, writeSnapshot, writeState } from './linear-state.ts';
 
 export interface SnapshotMatrices {
   /** Snapshot count m. */

@@ -2,15 +2,15 @@
 // judge what the data can and cannot tell, and fit again with the parameters it cannot tell
 // held at the scenario's nominal values, so every number reported comes from a well-posed fit.
 import type { Scenario } from '../../scenario/scenario-types.ts';
-import { selectParameters, thetaOf, valueOf } from './free-parameters.ts';
+import { CalibrationInputError } from './calibration-input-error.ts';
 import type { FreeParameter, ParameterSelection } from './free-parameters.ts';
-import { DEFAULT_FIT_SETTINGS, MarkerFit } from './levenberg-marquardt-fit.ts';
+import { selectParameters, thetaOf, valueOf } from './free-parameters.ts';
 import type { FitSettings } from './levenberg-marquardt-fit.ts';
+import { DEFAULT_FIT_SETTINGS, MarkerFit } from './levenberg-marquardt-fit.ts';
 import { MarkerTrajectoryModel } from './marker-trajectory-model.ts';
 import type { Measurement } from './measurement.ts';
-import { parameterUncertainty } from './parameter-uncertainty.ts';
 import type { ParameterUncertainty } from './parameter-uncertainty.ts';
-import { CalibrationInputError } from './calibration-input-error.ts';
+import { parameterUncertainty } from './parameter-uncertainty.ts';
 
 /** Central-difference step in θ for the Jacobian the standard errors come from. */
 export const COVARIANCE_JACOBIAN_STEP_THETA = 1e-5;

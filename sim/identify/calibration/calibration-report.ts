@@ -1,10 +1,10 @@
 // What a calibration tells its reader: calibration.json (every number, machine-readable),
 // REPORT.md (the same for people, with the caution that simulated data is no hardware test)
 // and residual-over-time.svg (RMS marker error per frame at the start and at the fit).
-import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
 import { unitOfLabel } from '../../dataset/manifest/label-units.ts';
-import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
 import { renderLineChart } from '../../plots/svg-line-chart.ts';
+import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
+import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
 import type { CalibrationResult } from './calibrate.ts';
 import { COVARIANCE_JACOBIAN_STEP_THETA } from './calibrate.ts';
 import type { FittedRange } from './fitted-scenario.ts';

@@ -4,13 +4,13 @@
 // whose range spans zero as θ = (value − nominal) / half-range. The search box is the spec's
 // range widened by a factor 2 at each end (log scaling) or by one range width (linear), so a
 // bench that disagrees with the scenario's guess can still be followed a good way out.
-import { closestName } from '../../scenario/closest-name.ts';
-import type { Scenario } from '../../scenario/scenario-types.ts';
 import { specBounds } from '../../random/distribution.ts';
-import { CalibrationInputError } from './calibration-input-error.ts';
-import { scenarioParameters } from './scenario-parameters.ts';
+import { closestName } from '../../scenario/closest-name.ts';
 import { linkedPointers } from '../../scenario/linked-parameters.ts';
+import type { Scenario } from '../../scenario/scenario-types.ts';
+import { CalibrationInputError } from './calibration-input-error.ts';
 import type { ScenarioParameter } from './scenario-parameters.ts';
+import { scenarioParameters } from './scenario-parameters.ts';
 
 export const LOG_SEARCH_WIDENING = 2;
 

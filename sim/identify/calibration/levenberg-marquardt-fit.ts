@@ -11,9 +11,10 @@
 // optimum along the directions the data informs; along those it does not inform LM only
 // crawls, and the calibration flags them instead of waiting.
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
+
 import { SimulationBlowUpError } from '../../core/simulation-error.ts';
-import { thetaOf, valueOf } from './free-parameters.ts';
 import type { FreeParameter } from './free-parameters.ts';
+import { thetaOf, valueOf } from './free-parameters.ts';
 import type { MarkerTrajectoryModel } from './marker-trajectory-model.ts';
 
 export interface FitSettings {

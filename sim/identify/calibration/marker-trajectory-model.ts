@@ -6,13 +6,13 @@
 // jump and the finite-difference Jacobian meaningless. The count is the one "auto" gives at the
 // demanding corner of the scenario's own ranges (the corner `pliant validate` checks); a
 // candidate beyond that corner that is too stiff for it blows up and counts as a failed step.
-import { recordTrajectory, resolveSubsteps } from '../../episode/record-episode.ts';
 import type { RecordingSettings } from '../../episode/record-episode.ts';
+import { recordTrajectory, resolveSubsteps } from '../../episode/record-episode.ts';
 import { specBounds } from '../../random/distribution.ts';
 import { closestName } from '../../scenario/closest-name.ts';
 import type { Scenario } from '../../scenario/scenario-types.ts';
-import { buildCalibrationSystem } from './calibration-system.ts';
 import { CalibrationInputError } from './calibration-input-error.ts';
+import { buildCalibrationSystem } from './calibration-system.ts';
 import type { ParameterSelection } from './free-parameters.ts';
 import type { Measurement } from './measurement.ts';
 

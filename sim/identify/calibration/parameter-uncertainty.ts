@@ -11,8 +11,9 @@
 // below any direction the data really informs; a standard error of half the value means the
 // data does not pin the parameter down.
 import { inverse, Matrix, SingularValueDecomposition } from 'ml-matrix';
-import { valuePerTheta } from './free-parameters.ts';
+
 import type { FreeParameter } from './free-parameters.ts';
+import { valuePerTheta } from './free-parameters.ts';
 
 export const RELATIVE_SINGULAR_VALUE_FLOOR = 1e-6;
 export const NULL_DIRECTION_SHARE = 0.2;

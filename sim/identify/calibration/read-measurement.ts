@@ -2,24 +2,26 @@
 // checks everything a calibration relies on, so that a mistake is reported at its place
 // (descriptor line:column and JSON pointer, CSV line and column name, NPZ member) with a fix.
 import { dirname, resolve } from 'node:path';
+
 import Ajv2020 from 'ajv/dist/2020.js';
+
+import { MiB, readBoundedBytes, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import { decodeNpy } from '../../dataset/formats/npy.ts';
 import { decodeNpz } from '../../dataset/formats/npz.ts';
-import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import { closestName } from '../../scenario/closest-name.ts';
 import { parseJsonText, placeProblems } from '../../scenario/json-source-map.ts';
 import { formatProblems } from '../../scenario/scenario-problem.ts';
 import { CalibrationInputError } from './calibration-input-error.ts';
-import { MiB, readBoundedBytes, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
-import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 
 /** A bench descriptor or CSV table: far below V8's longest string. */
 const MAX_MEASUREMENT_TEXT_BYTES = 256 * MiB;
 /** An NPY/NPZ table: 1 GiB is hours of marker tracks at high rate, and still fits in memory. */
 const MAX_MEASUREMENT_ARRAY_BYTES = 1024 * MiB;
 import type { MeasuredDrive, Measurement, MeasurementMarker } from './measurement.ts';
-import { MEASUREMENT_SCHEMA } from './measurement-schema.ts';
 import { parseMeasurementCsv } from './measurement-csv.ts';
+import { MEASUREMENT_SCHEMA } from './measurement-schema.ts';
 
 interface Descriptor {
   description: string;

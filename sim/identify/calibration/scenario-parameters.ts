@@ -1,8 +1,8 @@
 // Every numeric parameter a scenario resolves, found by running the scenario's own resolution
 // code (resolve-chain, resolve-lattice, resolve-world) with a resolver that writes down each
 // pointer and spec it is asked for: the same pointers the sampler labels episodes with.
-import { isConstant } from '../../random/distribution.ts';
 import type { NumericValueSpec } from '../../random/distribution.ts';
+import { isConstant } from '../../random/distribution.ts';
 import type { DemandingEnd, ParameterResolver } from '../../scenario/parameter-resolver.ts';
 import { resolveChainParameters } from '../../scenario/resolve-chain.ts';
 import { resolveLatticeParameters } from '../../scenario/resolve-lattice.ts';

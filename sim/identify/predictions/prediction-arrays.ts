@@ -3,6 +3,7 @@
 // float64, every value finite (other arrays in the file are ignored). Anything else is refused with the file, the array and the first
 // offending element named, so a team can find the bug in its own export.
 import { readFileSync } from 'node:fs';
+
 import { DatasetReadError } from '../../dataset/formats/dataset-read-error.ts';
 import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import { decodeNpz } from '../../dataset/formats/npz.ts';

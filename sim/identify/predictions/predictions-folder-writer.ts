@@ -4,6 +4,7 @@
 // written last, so a folder without it is unfinished. NPZ bytes are deterministic (npz.ts).
 import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { writeFileAtomic } from '../../dataset/formats/atomic-file.ts';
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 import { namedArray } from '../../dataset/formats/named-array.ts';

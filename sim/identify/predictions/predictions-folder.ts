@@ -3,9 +3,10 @@
 // Listing first lets a scorer name every missing or extra episode before it reads one array.
 import { readdirSync, statSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { PredictionsError } from './predictions-error.ts';
+
 import { MiB, readBoundedText } from '../../dataset/formats/bounded-text-file.ts';
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import { PredictionsError } from './predictions-error.ts';
 
 export const PREDICTIONS_FORMAT_VERSION = 1;
 export const PREDICTIONS_DESCRIPTION_FILE = 'predictions.json';

@@ -4,14 +4,15 @@
 // the metrics.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { MANIFEST_FILE } from '../../dataset/manifest/dataset-files.ts';
+
+import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
+import { sha256Hex } from '../../dataset/formats/file-digest.ts';
+import type { NamedArray } from '../../dataset/formats/named-array.ts';
 import { say } from '../../dataset/formats/run-words.ts';
+import { MANIFEST_FILE } from '../../dataset/manifest/dataset-files.ts';
 import { readFolderState } from '../../dataset/manifest/dataset-folder-state.ts';
 import type { DataFileRecord, DatasetManifest, EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
-import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 import { readEpisodeArrays } from '../../dataset/read/episode-array-reader.ts';
-import type { NamedArray } from '../../dataset/formats/named-array.ts';
-import { sha256Hex } from '../../dataset/formats/file-digest.ts';
 
 export interface ScoredDataset {
   dir: string;

@@ -2,13 +2,13 @@
 // curves (reused buffers, so scoring allocates nothing per step) and returns the compact row
 // score.json keeps for the episode. Formulas and sources: SCORING.md.
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
-import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import type { NamedArray } from '../../dataset/formats/named-array.ts';
+import type { EpisodeRecord } from '../../dataset/manifest/dataset-manifest.ts';
 import type { FloatData, PredictionArrays } from '../predictions/prediction-arrays.ts';
-import { horizonSteps, type HorizonSpec } from './horizons.ts';
+import { type HorizonSpec,horizonSteps } from './horizons.ts';
 import { initialRmsRadiusM } from './length-scale.ts';
+import { type EnergyModel,totalEnergyPerStep } from './trajectory-energy.ts';
 import { positionRmsePerStep } from './trajectory-error.ts';
-import { totalEnergyPerStep, type EnergyModel } from './trajectory-energy.ts';
 import { validPredictionTime } from './valid-prediction-time.ts';
 
 export interface EpisodeScoreRow {

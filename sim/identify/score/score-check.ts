@@ -1,7 +1,8 @@
 // Checks a score document against SCORE_SCHEMA, wording each failure with its JSON pointer
 // (as manifest-check.ts does for manifests).
-import Ajv2020 from 'ajv/dist/2020.js';
 import type { ErrorObject, ValidateFunction } from 'ajv';
+import Ajv2020 from 'ajv/dist/2020.js';
+
 import { SCORE_SCHEMA } from './score-schema.ts';
 
 let compiled: ValidateFunction | undefined;

@@ -2,8 +2,9 @@
 // 'cancel' message by stopping after the episode being scored, and relays runScoreJob's
 // messages. Start it through score-job-worker-entry.mjs, which loads TypeScript first.
 import { parentPort, workerData } from 'node:worker_threads';
-import { runScoreJob } from './score-job.ts';
+
 import type { ScoreJob } from './score-job.ts';
+import { runScoreJob } from './score-job.ts';
 
 const port = parentPort!;
 const { spec } = workerData as { jobId: string; spec: ScoreJob };

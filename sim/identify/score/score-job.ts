@@ -3,10 +3,10 @@
 // (electron/job-worker-protocol.ts). Expected failures — a predictions folder that does not fit
 // the dataset, a damaged file — end the job with their message, never a stack trace.
 import { neutralMessageOf } from '../../dataset/formats/run-words.ts';
+import type { JobMessage } from '../../dataset/jobs/job-message.ts';
 import { reportOf } from '../../errors/error-report.ts';
 import { writeScore } from './score-outputs.ts';
 import { DEFAULT_VPT_THRESHOLD, scorePredictions } from './score-predictions.ts';
-import type { JobMessage } from '../../dataset/jobs/job-message.ts';
 
 export interface ScoreJob {
   kind: 'score';

@@ -3,6 +3,7 @@
 // the same inputs give the same files.
 import { mkdirSync, readdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
+
 import { writeFileAtomic } from '../../dataset/formats/atomic-file.ts';
 import { datasetWriteErrorFromErrno, errnoCodeOf } from '../../dataset/formats/dataset-write-error.ts';
 import { scoreProblems } from './score-check.ts';

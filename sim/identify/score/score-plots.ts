@@ -2,7 +2,7 @@
 // with the valid-prediction-time threshold as a guide; and per varying parameter the mean
 // normalised rollout error per bin, one series per split. File names are derived from the split
 // and label names only, so the same score gives the same files.
-import { renderLineChart, type ChartSeries } from '../../plots/svg-line-chart.ts';
+import { type ChartSeries,renderLineChart } from '../../plots/svg-line-chart.ts';
 import type { ScoreDocument } from './score-document.ts';
 
 export interface ScorePlot {

@@ -2,9 +2,9 @@
 // recorded episodes of the chosen splits, then streams them one at a time (the episode's arrays
 // and its prediction are dropped after scoring) into per-split running sums, and assembles the
 // score document. Nothing is written here; see score-outputs.ts.
-import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
 import { DatasetRequestError } from '../../dataset/formats/dataset-request-error.ts';
 import { unitOfLabel } from '../../dataset/manifest/label-units.ts';
+import { PLIANT_VERSION } from '../../scenario/pliant-version.ts';
 import { SAFETY_CAUTION } from '../../scenario/safety-caution.ts';
 import { readPredictionArrays } from '../predictions/prediction-arrays.ts';
 import { PredictionsError } from '../predictions/predictions-error.ts';
@@ -12,7 +12,7 @@ import { predictionFilePath, readPredictionsFolder } from '../predictions/predic
 import { episodeIdsByStatus, episodeRecordsOfSplits, openScoredDataset, recordedArrays } from './dataset-episodes.ts';
 import { EpisodeScratch, scoreEpisode, type ScoreSettings } from './episode-score.ts';
 import { generalisationGap, heldOutRulesBySplit, IN_DISTRIBUTION_SPLIT } from './generalisation-gap.ts';
-import { defaultHorizons, horizonSteps, type HorizonSpec } from './horizons.ts';
+import { defaultHorizons, type HorizonSpec,horizonSteps } from './horizons.ts';
 import { LabelColumns, PARAMETER_BIN_COUNT, parameterBins } from './parameter-bins.ts';
 import { SCORE_FORMAT_VERSION, type ScoreDocument } from './score-document.ts';
 import { GroupAccumulator, type GroupSummary } from './split-summary.ts';

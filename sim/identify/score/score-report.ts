@@ -2,9 +2,9 @@
 // the generalisation gap with the held-out rules, the error per parameter bin and links to the
 // charts. Numbers are printed with four significant digits; score.json has them in full.
 import type { ScoreDocument } from './score-document.ts';
+import type { ScorePlot } from './score-plots.ts';
 import type { GroupSummary } from './split-summary.ts';
 import type { Statistics } from './summary-statistics.ts';
-import type { ScorePlot } from './score-plots.ts';
 
 function num(value: number | null | undefined): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';

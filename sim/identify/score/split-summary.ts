@@ -5,7 +5,7 @@
 // the episode length, not with the number of episodes; only the compact rows are kept.
 import type { EpisodeScoreRow } from './episode-score.ts';
 import type { HorizonSpec } from './horizons.ts';
-import { statisticsOf, type Statistics } from './summary-statistics.ts';
+import { type Statistics,statisticsOf } from './summary-statistics.ts';
 
 export interface GroupSummary {
   episodes: number;

@@ -1,7 +1,7 @@
 // The scenario-level checks of a design: the design's own problems (sim/design) for the
 // scenario's distributed parameters, with a spelling suggestion for a mistyped grid pointer.
-import { isConstant } from '../../random/distribution.ts';
 import { findDesignProblems } from '../../design/design-problems.ts';
+import { isConstant } from '../../random/distribution.ts';
 import { closestName } from '../closest-name.ts';
 import type { ParameterSite } from '../demanding-corner.ts';
 import { parameterSubStream } from '../parameter-streams.ts';

@@ -3,13 +3,13 @@
 // the plan of sim/design/design-plan.ts, and the unit-cube coordinates of one episode keyed by
 // pointer. Everything comes from (seed, episodes, parameters), never from which episodes a
 // shard or worker happens to run.
-import { isConstant } from '../../random/distribution.ts';
-import { planDesign } from '../../design/design-plan.ts';
 import type { DesignPlan } from '../../design/design-plan.ts';
+import { planDesign } from '../../design/design-plan.ts';
 import type { DesignParameter } from '../../design/design-spec.ts';
+import { isConstant } from '../../random/distribution.ts';
+import { linkedPointers } from '../linked-parameters.ts';
 import { parameterSubStream } from '../parameter-streams.ts';
 import { parameterSites } from '../physical-checks.ts';
-import { linkedPointers } from '../linked-parameters.ts';
 import type { Scenario } from '../scenario-types.ts';
 
 /** The scenario's distributed parameters, each once, in the order the sampler visits them. */

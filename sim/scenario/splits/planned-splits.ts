@@ -8,17 +8,17 @@
 // sharding, workers, resume or which episodes the simulation later rejects.
 // Memory: built once per scenario object and process; about 13 bytes per episode plus 8 per
 // stratifying parameter while building, 1 byte per episode kept.
-import { sampleValue } from '../../random/distribution.ts';
 import type { NumericValueSpec } from '../../random/distribution.ts';
+import { sampleValue } from '../../random/distribution.ts';
 import { valueAtProbability } from '../../random/inverse-cdf.ts';
 import { RandomStream, StreamPurpose } from '../../random/random-stream.ts';
 import { designCoordinates } from '../design/scenario-design.ts';
-import { parameterStream } from '../parameter-streams.ts';
-import { parameterSites } from '../physical-checks.ts';
 import { EpisodeDraws } from '../episode-draws.ts';
 import { linkedPointers, linkedValuesOfEpisode } from '../linked-parameters.ts';
+import { parameterStream } from '../parameter-streams.ts';
+import { parameterSites } from '../physical-checks.ts';
 import type { Scenario, SplitsSpec } from '../scenario-types.ts';
-import { SPLIT_ORDER, ruleMatches } from '../split-assignment.ts';
+import { ruleMatches,SPLIT_ORDER } from '../split-assignment.ts';
 import { countsFromFractions, dealInOrder } from './split-dealing.ts';
 
 /** Largest sweep whose splits can be planned (the plan holds one byte per episode). */

@@ -7,7 +7,7 @@ import type { ParameterSite } from '../demanding-corner.ts';
 import type { ScenarioProblem } from '../scenario-problem.ts';
 import type { Scenario } from '../scenario-types.ts';
 import { SPLIT_ORDER } from '../split-assignment.ts';
-import { MAX_PLANNED_SPLIT_EPISODES, heldOutSplits, resolvedCounts, usesPlannedSplits } from './planned-splits.ts';
+import { heldOutSplits, MAX_PLANNED_SPLIT_EPISODES, resolvedCounts, usesPlannedSplits } from './planned-splits.ts';
 
 export function findSplitPlanProblems(scenario: Scenario, sites: readonly ParameterSite[]): ScenarioProblem[] {
   const splits = scenario.splits;
