@@ -72,7 +72,7 @@ describe('the bundled CLI answers as the tsx path does', () => {
   it('finds files beside the sources: `pliant loader` prints python/pliant_data.py byte for byte', () => {
     const run = pliant(['loader'], false);
     expect(run.status).toBe(0);
-    expect(run.stdout).toBe(readFileSync(join(ROOT, 'sim/dataset/python/pliant_data.py'), 'utf8'));
+    expect(run.stdout).toBe(readFileSync(join(ROOT, 'sim/dataset/card/python/pliant_data.py'), 'utf8'));
   });
 });
 

@@ -305,10 +305,9 @@ print(json.dumps({'frames': sorted({s[0] for s in nodes}), 'nodes': [min(s[1] fo
     })`)) as number[];
     expect(drawn[0]).toBeGreaterThan(200);
     expect(drawn[1]).toBeGreaterThan(200);
-    // Both play: their frames move on.
-    const frames = async (): Promise<number[]> => page.$$eval('[data-screen="datasets"] .player', (players) => players.map((p) => Number(p.getAttribute('data-frame'))));
+    // Both play: their frames move on (the wait fails the test after 20 s otherwise). It is not
+    // read again afterwards: a short episode loops, so a later read may find a player back at 0.
     await waitInPage(page, `[...document.querySelectorAll('[data-screen="datasets"] .player')].every((p) => Number(p.getAttribute('data-frame')) > 0)`, 20_000);
-    expect((await frames()).every((f) => f > 0)).toBe(true);
     expect(await horizontalOverflowPx(page)).toBeLessThanOrEqual(0);
     await saveScreenshot(page, 'datasets-compare');
     await page.click('[data-role="compare-close"]');

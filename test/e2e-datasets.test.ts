@@ -85,7 +85,9 @@ describe.runIf(chromium.available && python.available)('Export, Datasets and See
       `At most ${limits.runningJobs} jobs (exports, regenerations, scores, pictures) run at once; later ones wait in a queue of up to ${limits.queuedJobs}, in the order they were started, and the progress line shows their place.`,
     );
     expect(await page.getAttribute('[data-role="export-workers"]', 'max')).toBe(String(limits.workerThreadsPerJob));
-    expect(await page.textContent('[data-screen="export"] .form-grid')).toContain(`1 to ${limits.workerThreadsPerJob}, the number of cores Pliant counts on this computer`);
+    // The default is the cap, the core count, as `pliant generate` defaults to all cores.
+    expect(await page.inputValue('[data-role="export-workers"]')).toBe(String(limits.workerThreadsPerJob));
+    expect(await page.textContent('[data-screen="export"] .form-grid')).toContain(`1 to ${limits.workerThreadsPerJob}, the cores of the computer it runs on (as pliant generate's default)`);
   });
 
   it('a small export reaches its last episode and every checksum verifies', async () => {
