@@ -13,7 +13,7 @@ import { Simulator } from '../core/simulator.ts';
 import type { StepKernel } from '../core/step-kernel-choice.ts';
 import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import { defaultWorld } from '../core/world.ts';
-import type { MultiLineBenchmarkCase } from './benchmark-case.ts';
+import type { BenchmarkOptions, MultiLineBenchmarkCase } from './benchmark-case.ts';
 import { buildReferenceChainBuilder, CHAIN_1024_DT_S, cpuSecondsSince } from './chain-1024.ts';
 import { median } from './median.ts';
 import { typedArrayBytes, writeScalingChart } from './scaling-chart.ts';
@@ -75,23 +75,28 @@ export function scalingLines(points: readonly ScalingPoint[], sizeKey: string): 
   });
 }
 
+/** The lines of one scaling case, with the chart of both kernels' rates written beside them (its path on the last line). */
+export function scalingCaseLines(points: readonly ScalingPoint[], chart: { fileName: string; title: string; sizeLabel: string; sizeKey: string }, options: BenchmarkOptions): Array<Record<string, number | string>> {
+  const path = writeScalingChart({
+    fileName: chart.fileName,
+    title: chart.title,
+    sizeLabel: chart.sizeLabel,
+    valueLabel: 'million spring updates per CPU second',
+    series: STEP_KERNELS.map((kernel) => {
+      const mine = points.filter((p) => p.kernel === kernel);
+      return { name: kernel === 'js' ? 'JavaScript kernel' : 'WebAssembly kernel', sizes: mine.map((p) => p.size), values: mine.map((p) => p.springUpdatesPerCpuS / 1e6) };
+    }),
+  }, options);
+  const lines = scalingLines(points, chart.sizeKey);
+  lines[lines.length - 1].chart = path;
+  return lines;
+}
+
 export const chainScalingCase: MultiLineBenchmarkCase = {
   name: 'chain-scaling',
   async runLines(options = {}) {
     const points: ScalingPoint[] = [];
     for (const kernel of STEP_KERNELS) for (const nodes of CHAIN_SCALING_NODES) points.push(measureChain(nodes, kernel));
-    const chart = writeScalingChart({
-      fileName: 'chain-scaling.svg',
-      title: 'Reference chain: spring updates per CPU second against size',
-      sizeLabel: 'chain nodes',
-      valueLabel: 'million spring updates per CPU second',
-      series: STEP_KERNELS.map((kernel) => {
-        const mine = points.filter((p) => p.kernel === kernel);
-        return { name: kernel === 'js' ? 'JavaScript kernel' : 'WebAssembly kernel', sizes: mine.map((p) => p.size), values: mine.map((p) => p.springUpdatesPerCpuS / 1e6) };
-      }),
-    }, options);
-    const lines = scalingLines(points, 'nodes');
-    lines[lines.length - 1].chart = chart;
-    return lines;
+    return scalingCaseLines(points, { fileName: 'chain-scaling.svg', title: 'Reference chain: spring updates per CPU second against size', sizeLabel: 'chain nodes', sizeKey: 'nodes' }, options);
   },
 };

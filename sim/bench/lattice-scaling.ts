@@ -12,10 +12,10 @@ import { STEP_KERNELS } from '../core/step-kernel-choice.ts';
 import type { MultiLineBenchmarkCase } from './benchmark-case.ts';
 import { cpuSecondsSince } from './chain-1024.ts';
 import type { ScalingPoint } from './chain-scaling.ts';
-import { scalingLines } from './chain-scaling.ts';
+import { scalingCaseLines } from './chain-scaling.ts';
 import { buildReferenceLattice, LATTICE_CONTROL_INTERVAL_S, latticeControl, latticeSubsteps, latticeWorld } from './lattice-8x8x8.ts';
 import { median } from './median.ts';
-import { typedArrayBytes, writeScalingChart } from './scaling-chart.ts';
+import { typedArrayBytes } from './scaling-chart.ts';
 
 export const LATTICE_SCALING_SIDES = [2, 4, 8, 16, 32] as const;
 export const LATTICE_SCALING_UPDATES = 20_000_000;
@@ -58,18 +58,6 @@ export const latticeScalingCase: MultiLineBenchmarkCase = {
   async runLines(options = {}) {
     const points: ScalingPoint[] = [];
     for (const kernel of STEP_KERNELS) for (const side of LATTICE_SCALING_SIDES) points.push(measureLattice(side, kernel));
-    const chart = writeScalingChart({
-      fileName: 'lattice-scaling.svg',
-      title: 'Reference block: spring updates per CPU second against size',
-      sizeLabel: 'lattice cells',
-      valueLabel: 'million spring updates per CPU second',
-      series: STEP_KERNELS.map((kernel) => {
-        const mine = points.filter((p) => p.kernel === kernel);
-        return { name: kernel === 'js' ? 'JavaScript kernel' : 'WebAssembly kernel', sizes: mine.map((p) => p.size), values: mine.map((p) => p.springUpdatesPerCpuS / 1e6) };
-      }),
-    }, options);
-    const lines = scalingLines(points, 'cells');
-    lines[lines.length - 1].chart = chart;
-    return lines;
+    return scalingCaseLines(points, { fileName: 'lattice-scaling.svg', title: 'Reference block: spring updates per CPU second against size', sizeLabel: 'lattice cells', sizeKey: 'cells' }, options);
   },
 };
