@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 
 import { closestName } from '../sim/cli/closest-name.ts';
+import { EXIT_CODE_BY_KIND } from '../sim/cli/exit-codes.ts';
 import { runCli } from '../sim/cli/main.ts';
 import { SAFETY_CAUTION } from '../sim/scenario/safety-caution.ts';
 
@@ -28,6 +29,10 @@ describe('pliant with no command or a mistyped one', () => {
     const run = await cli(['--help']);
     expect(run.code).toBe(0);
     expect(run.stdout).toContain('Usage: pliant <command> [options]');
+    // The exit statuses it states are the ones main.ts maps each kind of error to (sysexits.h's
+    // EX_SOFTWARE, 70, for a bug; 1 and 2 as the command line has always used them).
+    expect(run.stdout.replace(/\s+/g, ' ')).toContain(`Exit status: 0 when done; ${EXIT_CODE_BY_KIND.user} for a mistake in the command or its inputs`);
+    expect([EXIT_CODE_BY_KIND.user, EXIT_CODE_BY_KIND.environment, EXIT_CODE_BY_KIND.bug]).toEqual([2, 1, 70]);
   });
 
   it('--help carries the one safety caution word for word (project rule), its lines wrapped to 78 columns', async () => {

@@ -6,7 +6,7 @@ import { SAFETY_CAUTION } from '../scenario/safety-caution.ts';
 import { didYouMean } from './closest-name.ts';
 import type { CliIo } from './command.ts';
 import { COMMANDS } from './commands.ts';
-import { cliFailureOf } from './exit-codes.ts';
+import { cliFailureOf, EXIT_CODE_BY_KIND } from './exit-codes.ts';
 
 // The prebuilt command line hands its ahead-of-time scenario checker and its bundled episode
 // worker in through these (sim/cli/cli-bundle.mjs).
@@ -54,6 +54,8 @@ export function helpText(): string {
     ...lines,
     '',
     'Run `pliant <command> --help` for the options of one command.',
+    '',
+    ...wrapWords(`Exit status: 0 when done; ${EXIT_CODE_BY_KIND.user} for a mistake in the command or its inputs (the message says how to fix it); ${EXIT_CODE_BY_KIND.environment} when the machine or a file got in the way (a full disk, no permission, a damaged file); ${EXIT_CODE_BY_KIND.bug} for a bug in Pliant, with its trace to report.`, HELP_WIDTH),
     '',
     ...wrapWords(SAFETY_CAUTION, HELP_WIDTH),
     '',
