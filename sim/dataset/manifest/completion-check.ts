@@ -1,17 +1,11 @@
 // Checks the shape of what a resumed run reads back from its own work folder before trusting it:
-// an episode's completion record (.pliant-work/done/<id>.json) and the run plan
-// (.pliant-work/plan.json). They are written by Pliant, but a folder may have been copied,
+// an episode's completion record (.pliant-work/done/<id>.json; the run plan's shard is checked
+// beside the shard plan, write/shard-plan.ts). They are written by Pliant, but a folder may have been copied,
 // edited or damaged since, and a record of the wrong shape would otherwise surface later as a
 // stack trace, or point the finishing step at a file outside the episode's own names.
 import { episodeNpzPath, episodePartPath } from './dataset-files.ts';
 import type { EpisodeCompletion } from './episode-completion.ts';
 import { manifestPieceProblems } from './manifest-check.ts';
-
-/** The shard a plan names, as write/shard-plan.ts's ShardPlan (the same shape; this room does not import the writing side). */
-export interface PlannedShard {
-  index: number;
-  count: number;
-}
 
 function isObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
@@ -54,15 +48,4 @@ export function completionProblem(value: unknown, expectedId: string): string | 
 /** The completion record in `value` when it is sound, else null. */
 export function asCompletion(value: unknown, expectedId: string): EpisodeCompletion | null {
   return completionProblem(value, expectedId) === null ? (value as EpisodeCompletion) : null;
-}
-
-/** The shard of a parsed run plan, or a string saying what is wrong with it. */
-export function planShard(value: unknown): PlannedShard | null | string {
-  if (!isObject(value) || !('shard' in value)) return 'it is not an object with a "shard" member';
-  const shard = value.shard;
-  if (shard === null) return null;
-  if (!isObject(shard) || !isCount(shard.index) || !isCount(shard.count) || shard.count < 1 || shard.index >= shard.count) {
-    return '/shard is neither null nor {"index": I, "count": N} with 0 <= I < N';
-  }
-  return { index: shard.index, count: shard.count };
 }

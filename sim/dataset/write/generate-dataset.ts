@@ -17,7 +17,6 @@ import { DatasetRequestError } from '../formats/dataset-request-error.ts';
 import { toDatasetWriteError } from '../formats/dataset-write-error.ts';
 import { say } from '../formats/run-words.ts';
 import { readTextIfPresent } from '../formats/text-file.ts';
-import { planShard } from '../manifest/completion-check.ts';
 import {
   CARD_FILE,
   CARD_PICTURES_FOLDER,
@@ -50,7 +49,7 @@ import { lockFolder } from './folder-lock.ts';
 import type { GenerationListener } from './generation-progress.ts';
 import { rejectedEpisodeLimit, RejectionLimitError, rejectionLimitMessage } from './rejection-limit.ts';
 import type { ShardPlan } from './shard-plan.ts';
-import { shardEpisodes } from './shard-plan.ts';
+import { planShard, shardEpisodes } from './shard-plan.ts';
 
 export interface GenerateRequest {
   /** Checked scenario, with command-line overrides already applied. */

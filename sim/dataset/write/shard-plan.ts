@@ -9,6 +9,28 @@ export interface ShardPlan {
   count: number;
 }
 
+function isObject(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function isCount(value: unknown): value is number {
+  return typeof value === 'number' && Number.isInteger(value) && value >= 0;
+}
+
+/**
+ * The shard recorded in a resumed run's parsed plan (.pliant-work/plan.json), or a string saying
+ * what is wrong with it: the folder may have been edited or damaged since the run wrote it.
+ */
+export function planShard(value: unknown): ShardPlan | null | string {
+  if (!isObject(value) || !('shard' in value)) return 'it is not an object with a "shard" member';
+  const shard = value.shard;
+  if (shard === null) return null;
+  if (!isObject(shard) || !isCount(shard.index) || !isCount(shard.count) || shard.count < 1 || shard.index >= shard.count) {
+    return '/shard is neither null nor {"index": I, "count": N} with 0 <= I < N';
+  }
+  return { index: shard.index, count: shard.count };
+}
+
 /** A shard that cannot be used: the message names the flag or variable and how to fix it. */
 export class ShardPlanError extends PliantError {
   constructor(message: string) {
