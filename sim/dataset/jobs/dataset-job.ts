@@ -7,6 +7,7 @@ import { reportOf } from '../../errors/error-report.ts';
 import { checkScenarioText } from '../../scenario/check-scenario.ts';
 import { withOverrides } from '../../scenario/scenario-overrides.ts';
 import { formatProblems,ScenarioProblemError } from '../../scenario/scenario-problem.ts';
+import { neutralMessageOf } from '../formats/run-words.ts';
 import { generateDataset } from '../write/generate-dataset.ts';
 import type { GenerationEvent } from '../write/generation-progress.ts';
 import { replayFilesOf } from '../write/replay-inputs.ts';
@@ -29,8 +30,7 @@ function expectedFailure(error: unknown): string | null {
   if (report.kind === 'bug') return null;
   // Neutral text (run-words.ts) where the error has it: the shell that shows the message words the
   // run's settings itself.
-  const neutral = (error as { neutralMessage?: unknown }).neutralMessage;
-  return typeof neutral === 'string' ? neutral : report.message;
+  return neutralMessageOf(error) ?? report.message;
 }
 
 export async function runDatasetJob(job: DatasetJob, post: (message: DatasetJobMessage) => void, cancelled: () => boolean, pliantVersion: string, nowMs: () => number = Date.now): Promise<void> {
